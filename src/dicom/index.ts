@@ -1,0 +1,3 @@
+export { importPlanBytes, importPlanFile, type ImportedPlan, type ReadPlanOptions } from './read-plan-file.js';
+export { parseDicomBytes } from './parse-bytes.js';
+export { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
