@@ -163,6 +163,7 @@ function readDevicePositions(
   ctx: BeamContext,
 ): DevicePosition[] | undefined {
   const given = new Map<string, number[]>();
+  const unreadable = new Set<string>();
   let ok = true;
   for (const d of cp.sequence('BeamLimitingDevicePositionSequence')) {
     const type = oneOf(d, 'RTBeamLimitingDeviceType', BeamLimitingDeviceType.options);
@@ -181,6 +182,7 @@ function readDevicePositions(
     const positions = need(d, 'LeafJawPositions', d.tuple('LeafJawPositions', 2 * declared.numberOfPairs),
       `${2 * declared.numberOfPairs} positions (mm) for ${declared.numberOfPairs} pair(s)`);
     if (!positions) {
+      unreadable.add(type);
       ok = false;
       continue;
     }
@@ -208,7 +210,7 @@ function readDevicePositions(
   for (const dev of ctx.devices) {
     const positions = given.get(dev.type) ?? prev?.devices.find((p) => p.type === dev.type)?.positionsMm;
     if (!positions) {
-      if (i === 0) {
+      if (i === 0 && !unreadable.has(dev.type)) {
         cp.report('error', 'missing-attribute', 'BeamLimitingDevicePositionSequence',
           `gives no positions for the ${dev.type} device at the first control point`, `positions for ${dev.type}`);
         ok = false;
