@@ -1,5 +1,6 @@
 import type { DataSet, Element } from 'dicom-parser';
 import type { Issue, IssueCode, IssueSeverity } from '../model/issue.js';
+import { parseNumberList } from './decimal-string.js';
 import { ATTRIBUTES, type Keyword } from './dictionary.js';
 
 /** Where an item sits, for messages: the file, the attribute path, and the beam / control point. */
@@ -11,9 +12,6 @@ export interface Scope {
   readonly controlPointIndex?: number;
 }
 
-// DS: PS3.5 6.2 (optional sign, digits with optional fraction, optional exponent); IS: signed integer.
-const DS_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-const IS_PATTERN = /^[+-]?\d+$/;
 const BINARY_SIZE: Readonly<Record<string, number>> = { FL: 4, FD: 8, US: 2, SS: 2, UL: 4, SL: 4 };
 const STRING_VRS = new Set(['AE', 'AS', 'CS', 'DA', 'DT', 'LO', 'LT', 'PN', 'SH', 'ST', 'TM', 'UC', 'UI', 'UR', 'UT']);
 
@@ -27,12 +25,12 @@ export class ItemReader {
     private readonly ds: DataSet,
     readonly scope: Scope,
     private readonly issues: Issue[],
-    private readonly text: TextDecoder,
+    private readonly encoding: 'latin1' | 'utf8',
   ) {}
 
   /** A reader for the same item with more context (beam, control point) in its messages. */
   within(extra: Partial<Omit<Scope, 'file' | 'path'>>): ItemReader {
-    return new ItemReader(this.ds, { ...this.scope, ...extra }, this.issues, this.text);
+    return new ItemReader(this.ds, { ...this.scope, ...extra }, this.issues, this.encoding);
   }
 
   has(kw: Keyword): boolean {
@@ -103,19 +101,12 @@ export class ItemReader {
     if (!el) return undefined;
     const vr = el.vr ?? ATTRIBUTES[kw].vr;
     if (vr === 'DS' || vr === 'IS') {
-      const parts = this.rawText(el).split('\\');
-      const out = new Array<number>(parts.length);
-      for (let i = 0; i < parts.length; i++) {
-        const s = parts[i]!.trim();
-        if (!(vr === 'DS' ? DS_PATTERN : IS_PATTERN).test(s)) {
-          const where = parts.length > 1 ? `value ${i + 1} of ${parts.length}` : 'value';
-          this.report('error', 'invalid-number', kw, `${where} cannot be read as a number`,
-            vr === 'DS' ? 'a decimal string (DS)' : 'an integer string (IS)', JSON.stringify(s));
-          return undefined;
-        }
-        out[i] = Number(s);
-      }
-      return out;
+      const parsed = parseNumberList(this.rawText(el), vr === 'IS');
+      if (parsed.ok) return parsed.values;
+      const where = parsed.count > 1 ? `value ${parsed.index + 1} of ${parsed.count}` : 'value';
+      this.report('error', 'invalid-number', kw, `${where} cannot be read as a number`,
+        vr === 'DS' ? 'a decimal string (DS)' : 'an integer string (IS)', JSON.stringify(parsed.text));
+      return undefined;
     }
     const size = BINARY_SIZE[vr];
     if (size === undefined) {
@@ -154,9 +145,9 @@ export class ItemReader {
       const path = `${this.scope.path ? `${this.scope.path}.` : ''}${kw}[${i}]`;
       if (!item.dataSet) {
         this.report('error', 'unreadable', kw, `item ${i} has no content`);
-        return new ItemReader({ elements: {} } as DataSet, { ...this.scope, path }, this.issues, this.text);
+        return new ItemReader({ elements: {} } as DataSet, { ...this.scope, path }, this.issues, this.encoding);
       }
-      return new ItemReader(item.dataSet, { ...this.scope, path }, this.issues, this.text);
+      return new ItemReader(item.dataSet, { ...this.scope, path }, this.issues, this.encoding);
     });
   }
 
@@ -197,7 +188,9 @@ export class ItemReader {
   private rawText(el: Element): string {
     const b = this.ds.byteArray;
     const end = Math.min(el.dataOffset + el.length, b.length);
-    return this.text.decode(b.subarray(el.dataOffset, end));
+    // Buffer decoding is much faster than TextDecoder for the short values of a plan.
+    const buf = Buffer.isBuffer(b) ? b : Buffer.from(b.buffer, b.byteOffset, b.byteLength);
+    return buf.toString(this.encoding, el.dataOffset, end);
   }
 }
 

@@ -15,8 +15,8 @@ export const RT_PLAN_STORAGE = '1.2.840.10008.5.1.4.1.1.481.5';
 export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
   const issues: Issue[] = [];
   const charset = ds.string('x00080005') ?? '';
-  const text = new TextDecoder(/ISO_IR 192/.test(charset) ? 'utf-8' : 'latin1');
-  const root = new ItemReader(ds, { file, path: '' }, issues, text);
+  // ISO_IR 192 is UTF-8; the default repertoire and ISO_IR 100 decode as Latin-1.
+  const root = new ItemReader(ds, { file, path: '' }, issues, /ISO_IR 192/.test(charset) ? 'utf8' : 'latin1');
 
   const sopClass = root.string('SOPClassUID') ?? root.string('MediaStorageSOPClassUID');
   if (sopClass !== RT_PLAN_STORAGE) {
