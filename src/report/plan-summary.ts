@@ -41,7 +41,7 @@ export function planSummary(plan: Plan, source: PlanSource, warnings: readonly I
   return out;
 }
 
-const BEAM_HEADER = ['beam', 'name', 'type', 'energy', 'gantry', 'coll', 'couch', 'X1 mm', 'X2 mm', 'Y1 mm', 'Y2 mm', 'MLC', 'wedge', 'applicator', 'CPs', 'MU', 'dose Gy', 'SSD mm'];
+const BEAM_HEADER = ['beam', 'name', 'type', 'energy', 'gantry', 'coll', 'couch', 'X1 mm', 'X2 mm', 'Y1 mm', 'Y2 mm', 'MLC', 'wedge', 'applicator', 'blocks', 'CPs', 'MU', 'dose Gy', 'SSD mm'];
 
 function beamRow(b: Beam, mu: number | undefined, doseGy: number | undefined): string[] {
   const cp0 = b.controlPoints[0]!;
@@ -49,12 +49,13 @@ function beamRow(b: Beam, mu: number | undefined, doseGy: number | undefined): s
   const jaws = jawOpeningMm(cp0);
   const mlc = b.limitingDevices.filter((d) => d.type === 'MLCX' || d.type === 'MLCY').map((d) => `${d.type} ${d.numberOfPairs}`).join(' ');
   const arc = last.gantryAngleDeg !== cp0.gantryAngleDeg ? `→${fixed(last.gantryAngleDeg, 1)} ${cp0.gantryRotation ?? ''}`.trimEnd() : '';
-  const radiation = b.radiationType === 'PHOTON' ? 'MV' : b.radiationType === 'ELECTRON' ? 'MeV' : 'MeV';
+  // Photon beams are named by their nominal accelerating potential (MV), particles by energy (MeV).
+  const energyUnit = b.radiationType === 'PHOTON' ? 'MV' : 'MeV';
   return [
     String(b.number),
     b.name ?? '—',
     `${b.radiationType.toLowerCase()} ${b.beamType.toLowerCase()}`,
-    cp0.nominalEnergyMeV !== undefined ? `${cp0.nominalEnergyMeV} ${radiation}` : '—',
+    cp0.nominalEnergyMeV !== undefined ? `${cp0.nominalEnergyMeV} ${energyUnit}` : '—',
     `${fixed(cp0.gantryAngleDeg, 1)}${arc}`,
     fixed(cp0.collimatorAngleDeg, 1),
     fixed(cp0.couchAngleDeg, 1),
@@ -65,6 +66,7 @@ function beamRow(b: Beam, mu: number | undefined, doseGy: number | undefined): s
     mlc || '—',
     b.wedges.map((w) => `${w.id ?? w.number}${w.angleDeg !== undefined ? ` ${w.angleDeg}°` : ''}${w.type ? ` ${w.type.toLowerCase()}` : ''}`).join(', ') || '—',
     b.applicators.map((a) => a.id).join(', ') || '—',
+    b.blocks.map((k) => `${k.type.toLowerCase()}${k.name ? ` ${k.name}` : ''}`).join(', ') || '—',
     String(b.controlPoints.length),
     fixed(mu, 2),
     fixed(doseGy, 4),
