@@ -1,6 +1,8 @@
 import { Command, CommanderError } from 'commander';
 import { BeamDataError, InputError } from '../errors.js';
 import { formatIssue } from '../model/index.js';
+import { runBeamsValidate } from './beams-validate.js';
+import { runCalc } from './calc.js';
 import { runInspect } from './inspect.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
@@ -27,6 +29,37 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--json', 'print the full model as one versioned JSON document')
     .action((paths: string[], opts: { json?: boolean }) => {
       outcome = runInspect(paths, opts);
+    });
+
+  program
+    .command('calc')
+    .description('manual point calculation for one photon beam, every factor on its own line (AAPM TG-71)')
+    .requiredOption('--beam-data <manifest>', "the machine's beam-data manifest, or 'demo' for the invented demo machine")
+    .requiredOption('--energy <MV>', 'nominal photon energy')
+    .option('--fff', 'the flattening-filter-free beam of that energy')
+    .requiredOption('--setup <SAD|SSD>', 'SAD: TPR-based, point distance; SSD: PDD-based, SSD factor')
+    .requiredOption('--field <XxY>', 'collimator (jaw) field at the isocenter plane, cm, e.g. 10x12')
+    .option('--irradiated <side>', 'equivalent square of the irradiated field (MLC, blocks) at the isocenter plane, cm')
+    .requiredOption('--depth <cm>', 'depth of the point')
+    .option('--mu <MU>', 'monitor units: compute the dose')
+    .option('--dose <cGy>', 'dose at the point: compute the MU')
+    .option('--ssd <cm>', 'source-to-surface distance (default: the SAD for SSD setups, SAD − depth for SAD setups)')
+    .option('--off-axis <cm>', 'distance of the point from the central axis, at its depth')
+    .option('--wedge <ID>', 'wedge ID as the beam data names it')
+    .option('--tray [ID]', 'a blocking tray (its ID when the beam has several)')
+    .option('--json', 'print one versioned JSON document')
+    .action((opts: Record<string, unknown>) => {
+      outcome = runCalc(opts);
+    });
+
+  program
+    .command('beams')
+    .description('commissioning beam data')
+    .command('validate')
+    .description("check a machine's beam data: ranges, normalization, smoothness, PDD/TPR agreement")
+    .argument('<manifest>', "the machine's manifest, or 'demo'")
+    .action((manifest: string) => {
+      outcome = runBeamsValidate(manifest);
     });
 
   try {

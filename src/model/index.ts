@@ -6,3 +6,5 @@ export * from './fraction-group.js';
 export * from './dose-reference.js';
 export * from './plan.js';
 export * from './jaws.js';
+export * from './beam-model.js';
+export * from './point-dose.js';

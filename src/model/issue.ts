@@ -23,7 +23,15 @@ export type IssueCode =
   | 'jaws-crossed'
   | 'leaves-crossed'
   | 'inconsistent'
-  | 'unreadable';
+  | 'unreadable'
+  | 'out-of-range'
+  | 'missing-table'
+  | 'invalid-table'
+  | 'invalid-manifest'
+  | 'invalid-option'
+  | 'physical-range'
+  | 'rough-table'
+  | 'tables-disagree';
 
 export interface Issue {
   readonly severity: IssueSeverity;
@@ -36,6 +44,9 @@ export interface Issue {
   readonly beamNumber?: number;
   readonly beamName?: string;
   readonly controlPointIndex?: number;
+  /** 1-based line and column in a text file (CSV, JSON), when known. */
+  readonly line?: number;
+  readonly column?: number;
   readonly expected?: string;
   readonly found?: string;
   readonly message: string;
@@ -48,7 +59,9 @@ export type Result<T> =
 /** One line per issue, for stderr: file, beam, control point, attribute, message, expected vs found. */
 export function formatIssue(issue: Issue): string {
   const where: string[] = [];
-  if (issue.file) where.push(issue.file);
+  if (issue.file) {
+    where.push(issue.line !== undefined ? `${issue.file}:${issue.line}${issue.column !== undefined ? `:${issue.column}` : ''}` : issue.file);
+  }
   if (issue.beamNumber !== undefined) {
     where.push(`beam ${issue.beamNumber}${issue.beamName ? ` "${issue.beamName}"` : ''}`);
   }

@@ -7,6 +7,8 @@ const IssueJson = z.object({
   file: z.string().optional(),
   path: z.string().optional(),
   tag: z.string().optional(),
+  line: z.number().optional(),
+  column: z.number().optional(),
   beamNumber: z.number().optional(),
   beamName: z.string().optional(),
   controlPointIndex: z.number().optional(),

@@ -1,0 +1,17 @@
+import type { Issue, MachineModel, PhotonBeamModel } from '../model/index.js';
+
+/** The machine's beam for a nominal energy (and FFF flag); never a neighbouring energy. */
+export function findPhotonBeam(machine: MachineModel, energyMV: number, fff = false): { ok: true; beam: PhotonBeamModel } | { ok: false; issue: Issue } {
+  const beam = machine.beams.find((b) => Math.abs(b.nominalEnergyMV - energyMV) < 1e-9 && b.fff === fff);
+  if (beam) return { ok: true, beam };
+  return {
+    ok: false,
+    issue: {
+      severity: 'error',
+      code: 'missing-table',
+      message: `machine ${machine.name} has no ${energyMV} MV${fff ? ' FFF' : ''} photon beam in its beam data`,
+      expected: machine.beams.map((b) => `${b.nominalEnergyMV} MV${b.fff ? ' FFF' : ''}`).join(', '),
+      found: `${energyMV} MV${fff ? ' FFF' : ''}`,
+    },
+  };
+}

@@ -1,0 +1,181 @@
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import type { Issue, MachineModel, PhotonBeamModel, Result, TableAxis, TableLookup, WedgeData } from '../model/index.js';
+import { type CsvTable, parseCsvTable } from './csv-table.js';
+import { Manifest, type PhotonBeamEntry } from './manifest-schema.js';
+import { type ClampAllowance, makeTableLookup } from './table-lookup.js';
+
+/** One loaded table with what the validator needs: its CSV (with positions) and its lookup. */
+export interface LoadedTable {
+  readonly beamId: string;
+  readonly quantity: string;
+  readonly csv: CsvTable;
+  readonly lookup: TableLookup;
+  /** Multiplier from the file's value unit to the engine's (100 for a PDD given as a fraction). */
+  readonly valueScale: number;
+}
+
+export interface LoadedMachine {
+  readonly machine: MachineModel;
+  readonly manifest: Manifest;
+  readonly manifestFile: string;
+  readonly tables: readonly LoadedTable[];
+}
+
+const TO_CM = { cm: 1, mm: 0.1 } as const;
+
+/**
+ * Reads a machine manifest and every table it names into a `MachineModel` of ready lookups.
+ * Problems come back as issues with file:line:column; nothing half-loaded is returned.
+ */
+export function loadMachine(manifestFile: string): Result<LoadedMachine> {
+  const issues: Issue[] = [];
+  let json: unknown;
+  try {
+    const text = readFileSync(manifestFile, 'utf8');
+    try {
+      json = JSON.parse(text);
+    } catch (e) {
+      const m = /position (\d+)/.exec(String((e as Error).message));
+      const pos = m ? lineColumn(text, Number(m[1])) : undefined;
+      return fail({ severity: 'error', code: 'invalid-manifest', file: manifestFile, ...(pos ?? {}), message: `not valid JSON (${(e as Error).message})` });
+    }
+  } catch (e) {
+    return fail({ severity: 'error', code: 'unreadable', file: manifestFile, message: `cannot read the manifest (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+  }
+  const parsed = Manifest.safeParse(json);
+  if (!parsed.success) {
+    return {
+      ok: false,
+      issues: parsed.error.issues.map((z) => ({ severity: 'error', code: 'invalid-manifest', file: manifestFile,
+        path: z.path.map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`)).join('').replace(/^\./, ''), message: z.message })),
+    };
+  }
+  const manifest = parsed.data;
+  const dir = dirname(manifestFile);
+  const tables: LoadedTable[] = [];
+  const beams: PhotonBeamModel[] = [];
+  const ids = new Set<string>();
+  manifest.beams.forEach((entry, bi) => {
+    if (ids.has(entry.id)) issues.push({ severity: 'error', code: 'duplicate', file: manifestFile, path: `beams[${bi}].id`, message: `beam id ${entry.id} is given twice` });
+    ids.add(entry.id);
+    const beam = loadBeam(entry, dir, tables, issues);
+    if (beam) beams.push(beam);
+  });
+  if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
+  const m = manifest.machine;
+  const machine: MachineModel = {
+    name: m.name,
+    aliases: [m.name, ...m.aliases.filter((a) => a !== m.name)],
+    sadCm: m.sadCm,
+    invented: m.invented,
+    ...(m.description ? { description: m.description } : {}),
+    version: manifest.dataVersion,
+    beams,
+  };
+  return { ok: true, value: { machine, manifest, manifestFile, tables }, warnings: issues };
+}
+
+function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): PhotonBeamModel | undefined {
+  const load = (
+    quantity: string,
+    spec: { file: string; interpolation: 'bilinear' | 'log-linear-rows'; clamp?: ClampAllowance | undefined },
+    shape: 'grid' | 'profile',
+    rowAxis: [string, keyof typeof TO_CM],
+    columnAxis: [string, keyof typeof TO_CM] | undefined,
+    valueScale = 1,
+  ): TableLookup | undefined => {
+    const file = join(dir, spec.file);
+    let text: string;
+    try {
+      text = readFileSync(file, 'utf8');
+    } catch (e) {
+      issues.push({ severity: 'error', code: 'missing-table', file, message: `${entry.id} ${quantity}: cannot read the table (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+      return undefined;
+    }
+    const csv = parseCsvTable(text, file, shape);
+    if (!csv.ok) {
+      issues.push(...csv.issues);
+      return undefined;
+    }
+    const t = csv.value;
+    const rows = axis(rowAxis[0], t.rows, TO_CM[rowAxis[1]], t.rowPositions.map((p) => ({ file, ...p })), issues);
+    const columns = columnAxis ? axis(columnAxis[0], t.columns!, TO_CM[columnAxis[1]], t.columnPositions!.map((p) => ({ file, ...p })), issues) : undefined;
+    if (!rows || (columnAxis && !columns)) return undefined;
+    const values = Float64Array.from(t.values, (v) => v * valueScale);
+    // A clamp is stated in the file's units; the engine works in cm.
+    const c = spec.clamp;
+    const clamp: ClampAllowance | undefined = c && {
+      ...(c.rowsBelow !== undefined ? { rowsBelow: c.rowsBelow * TO_CM[rowAxis[1]] } : {}),
+      ...(c.rowsAbove !== undefined ? { rowsAbove: c.rowsAbove * TO_CM[rowAxis[1]] } : {}),
+      ...(c.columnsBelow !== undefined && columnAxis ? { columnsBelow: c.columnsBelow * TO_CM[columnAxis[1]] } : {}),
+      ...(c.columnsAbove !== undefined && columnAxis ? { columnsAbove: c.columnsAbove * TO_CM[columnAxis[1]] } : {}),
+    };
+    const lookup = makeTableLookup({
+      name: `${entry.id} ${quantity} (${spec.file})`,
+      rows,
+      ...(columns ? { columns } : {}),
+      values,
+      interpolation: spec.interpolation,
+      ...(clamp ? { clamp } : {}),
+    });
+    tables.push({ beamId: entry.id, quantity, csv: t, lookup, valueScale });
+    return lookup;
+  };
+
+  const pdd = entry.pdd === 'derive-from-tpr' ? undefined
+    : load('pdd', entry.pdd, 'grid', ['depth', entry.pdd.units.depth], ['fieldSide', entry.pdd.units.fieldSide], entry.pdd.units.value === 'fraction' ? 100 : 1);
+  const tpr = entry.tpr === 'derive-from-pdd' ? undefined
+    : load(entry.tpr.kind.toLowerCase(), entry.tpr, 'grid', ['depth', entry.tpr.units.depth], ['fieldSide', entry.tpr.units.fieldSide]);
+  const sc = load('sc', entry.sc, 'profile', ['fieldSide', entry.sc.units.fieldSide], undefined);
+  const sp = entry.sp ? load('sp', entry.sp, 'profile', ['fieldSide', entry.sp.units.fieldSide], undefined) : undefined;
+  const scp = entry.scp ? load('scp', entry.scp, 'profile', ['fieldSide', entry.scp.units.fieldSide], undefined) : undefined;
+  const oar = entry.oar ? load('oar', entry.oar, 'grid', ['depth', entry.oar.units.depth], ['offAxis', entry.oar.units.offAxis]) : undefined;
+  const wedges: WedgeData[] = [];
+  for (const w of entry.wedges) {
+    const f = w.factor;
+    const lookup = f.byDepth
+      ? load(`wedge ${w.id}`, f, 'grid', ['depth', f.units.depth], ['fieldSide', f.units.fieldSide])
+      : load(`wedge ${w.id}`, f, 'profile', ['fieldSide', f.units.fieldSide], undefined);
+    if (lookup) wedges.push({ id: w.id, angleDeg: w.angleDeg, factor: lookup, byDepth: f.byDepth });
+  }
+  if (!sc || (entry.pdd !== 'derive-from-tpr' && !pdd) || (entry.tpr !== 'derive-from-pdd' && !tpr) || (!sp && !scp)) return undefined;
+  return {
+    id: entry.id,
+    radiationType: 'PHOTON',
+    nominalEnergyMV: entry.nominalEnergyMV,
+    fff: entry.fff,
+    calibration: { ...entry.calibration },
+    ...(pdd && entry.pdd !== 'derive-from-tpr' ? { pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm, normalizationDepthCm: entry.pdd.normalizationDepthCm }) } : {}),
+    ...(tpr && entry.tpr !== 'derive-from-pdd' ? { tpr: Object.assign(tpr, { normalizationDepthCm: entry.tpr.normalizationDepthCm, kind: entry.tpr.kind }) } : {}),
+    sc,
+    ...(sp ? { sp } : {}),
+    ...(scp ? { scp } : {}),
+    ...(oar && entry.oar ? { oar: Object.assign(oar, { offAxisAt: entry.oar.offAxisAt }) } : {}),
+    wedges,
+    trays: entry.trays,
+    ...(entry.mlcTransmission !== undefined ? { mlcTransmission: entry.mlcTransmission } : {}),
+    ...(entry.collimatorExchangeK !== undefined ? { collimatorExchangeK: entry.collimatorExchangeK } : {}),
+  };
+}
+
+/** An axis in cm, refused unless strictly increasing (interpolation depends on it). */
+function axis(name: string, raw: readonly number[], toCm: number, at: { file: string; line: number; column: number }[], issues: Issue[]): TableAxis | undefined {
+  for (let i = 1; i < raw.length; i++) {
+    if (!(raw[i]! > raw[i - 1]!)) {
+      issues.push({ severity: 'error', code: 'invalid-table', ...at[i]!, message: `the ${name} axis is not strictly increasing`,
+        expected: `a value > ${raw[i - 1]}`, found: `${raw[i]}` });
+      return undefined;
+    }
+  }
+  return { name, unit: 'cm', values: Float64Array.from(raw, (v) => v * toCm) };
+}
+
+function fail(issue: Issue): Result<never> {
+  return { ok: false, issues: [issue] };
+}
+
+function lineColumn(text: string, position: number): { line: number; column: number } {
+  const before = text.slice(0, position).split('\n');
+  return { line: before.length, column: before[before.length - 1]!.length + 1 };
+}

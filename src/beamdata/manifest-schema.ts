@@ -1,0 +1,125 @@
+import { z } from 'zod';
+
+/**
+ * The machine manifest: one JSON file naming the machine and, per beam, its calibration and the CSV
+ * files of its commissioning tables, with every unit declared. Bump MANIFEST_FORMAT_VERSION on any
+ * incompatible change; `npm run schemas` regenerates the JSON Schema for editors.
+ */
+export const MANIFEST_FORMAT_VERSION = 1;
+
+const LengthUnit = z.enum(['cm', 'mm']).describe('unit of a length axis');
+const positive = z.number().finite().positive();
+
+const Clamp = z
+  .object({
+    rowsBelow: z.number().nonnegative().optional(),
+    rowsAbove: z.number().nonnegative().optional(),
+    columnsBelow: z.number().nonnegative().optional(),
+    columnsAbove: z.number().nonnegative().optional(),
+  })
+  .strict()
+  .describe('how far (in the axis unit) beyond each edge a lookup may use the edge value; each such clamp is reported');
+
+const tableBase = {
+  file: z.string().min(1).describe('CSV file, relative to the manifest'),
+  interpolation: z.enum(['bilinear', 'log-linear-rows']).default('bilinear'),
+  clamp: Clamp.optional(),
+};
+
+const DepthFieldTable = z
+  .object({ ...tableBase, units: z.object({ depth: LengthUnit, fieldSide: LengthUnit }).strict() })
+  .strict();
+
+export const PddTable = z
+  .object({
+    ...tableBase,
+    units: z.object({ depth: LengthUnit, fieldSide: LengthUnit, value: z.enum(['percent', 'fraction']) }).strict(),
+    ssdCm: positive.describe('SSD at which the PDD was measured'),
+    normalizationDepthCm: positive.describe('depth where the table is 100 % (usually dmax)'),
+  })
+  .strict()
+  .describe('PDD vs depth (rows) and field side at the surface (columns)');
+
+export const TprTable = DepthFieldTable.extend({
+  kind: z.enum(['TPR', 'TMR']),
+  normalizationDepthCm: positive.describe('depth where the table is 1 (dmax for TMR)'),
+})
+  .strict()
+  .describe('TPR or TMR vs depth (rows) and field side at depth (columns)');
+
+export const FieldProfile = z
+  .object({ ...tableBase, units: z.object({ fieldSide: LengthUnit }).strict() })
+  .strict()
+  .describe('a factor vs equivalent square field side: header row of labels, then "side, value" rows');
+
+export const OarTable = z
+  .object({
+    ...tableBase,
+    units: z.object({ depth: LengthUnit, offAxis: LengthUnit }).strict(),
+    offAxisAt: z.enum(['depth', 'isocenter-plane']).describe('whether off-axis distances are measured at depth or projected to the isocenter plane'),
+  })
+  .strict();
+
+export const WedgeTable = z
+  .object({
+    id: z.string().min(1).describe('the Wedge ID as the plan names it'),
+    angleDeg: z.number().finite().positive(),
+    factor: z.union([
+      z.object({ ...tableBase, byDepth: z.literal(false), units: z.object({ fieldSide: LengthUnit }).strict() }).strict(),
+      z.object({ ...tableBase, byDepth: z.literal(true), units: z.object({ depth: LengthUnit, fieldSide: LengthUnit }).strict() }).strict(),
+    ]),
+  })
+  .strict();
+
+export const PhotonBeamEntry = z
+  .object({
+    id: z.string().min(1).describe('e.g. 6X'),
+    radiationType: z.literal('PHOTON'),
+    nominalEnergyMV: positive,
+    fff: z.boolean().default(false),
+    calibration: z
+      .object({
+        ssd0Cm: positive,
+        d0Cm: positive,
+        doseCGyPerMu: positive.describe("D'0: dose per MU at d0 for the reference field"),
+        dmaxCm: positive,
+        referenceFieldAt: z.enum(['surface', 'normalization-depth']),
+        referenceFieldCm: positive.default(10),
+      })
+      .strict(),
+    pdd: z.union([PddTable, z.literal('derive-from-tpr')]),
+    tpr: z.union([TprTable, z.literal('derive-from-pdd')]),
+    sc: FieldProfile,
+    sp: FieldProfile.optional(),
+    scp: FieldProfile.optional().describe('total scatter factor; Sp = Scp / Sc when sp is not given'),
+    oar: OarTable.optional(),
+    wedges: z.array(WedgeTable).default([]),
+    trays: z.array(z.object({ id: z.string().min(1), factor: z.number().finite().positive().max(1) }).strict()).default([]),
+    mlcTransmission: z.number().finite().min(0).max(1).optional(),
+    collimatorExchangeK: positive.optional().describe('collimator-exchange constant k for the Sc equivalent square'),
+  })
+  .strict()
+  .refine((b) => b.pdd !== 'derive-from-tpr' || b.tpr !== 'derive-from-pdd', { message: 'PDD and TPR cannot both be derived', path: ['tpr'] })
+  .refine((b) => (b.sp === undefined) !== (b.scp === undefined), { message: 'give exactly one of sp and scp', path: ['sp'] });
+
+export const Manifest = z
+  .object({
+    $schema: z.string().optional().describe('path of the JSON Schema, for editors'),
+    format: z.literal('plumbline.beam-data'),
+    formatVersion: z.literal(MANIFEST_FORMAT_VERSION),
+    dataVersion: z.string().min(1).describe("the clinic's own version of this data set (shown with every result)"),
+    machine: z
+      .object({
+        name: z.string().min(1),
+        aliases: z.array(z.string().min(1)).default([]).describe('other names a plan may use (Treatment Machine Name)'),
+        sadCm: positive,
+        invented: z.boolean().default(false).describe('true for demonstration data that must never be used for a patient'),
+        description: z.string().optional(),
+      })
+      .strict(),
+    beams: z.array(PhotonBeamEntry).min(1),
+  })
+  .strict();
+
+export type Manifest = z.infer<typeof Manifest>;
+export type PhotonBeamEntry = z.infer<typeof PhotonBeamEntry>;

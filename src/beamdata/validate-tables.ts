@@ -1,0 +1,131 @@
+import type { Issue } from '../model/index.js';
+import type { LoadedMachine, LoadedTable } from './load-machine.js';
+
+/** Physical ranges of each quantity, in the engine's units (PDD in percent). */
+const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: boolean }>> = {
+  pdd: { min: 0, max: 100.05, minInclusive: false },
+  tpr: { min: 0, max: 1.5, minInclusive: false },
+  tmr: { min: 0, max: 1.5, minInclusive: false },
+  sc: { min: 0.5, max: 1.3, minInclusive: true },
+  sp: { min: 0.5, max: 1.3, minInclusive: true },
+  scp: { min: 0.4, max: 1.5, minInclusive: true },
+  oar: { min: 0, max: 1.3, minInclusive: false },
+  wedge: { min: 0, max: 1, minInclusive: false },
+};
+
+/** How far a second difference may stand above the line's median before the table is called rough. */
+const ROUGHNESS_RATIO = 10;
+/** ... and it must also exceed this fraction of the value (noise-level wiggles are not flagged). */
+const ROUGHNESS_FLOOR = 0.003;
+
+/**
+ * Checks that need only the tables themselves: physical ranges, the normalization row (PDD = 100 %
+ * at its normalization depth, TPR = 1 at its), roughness (second differences far beyond the rest
+ * of their row or column), and wedges that one energy has and another lacks. Every issue points at
+ * file:line:column.
+ */
+export function validateTables(loaded: LoadedMachine): Issue[] {
+  const issues: Issue[] = [];
+  for (const t of loaded.tables) {
+    const kind = t.quantity.startsWith('wedge') ? 'wedge' : t.quantity;
+    checkRange(t, RANGES[kind]!, issues);
+    checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
+  }
+  for (const [i, b] of loaded.manifest.beams.entries()) {
+    const find = (q: string) => loaded.tables.find((t) => t.beamId === b.id && t.quantity === q);
+    if (b.pdd !== 'derive-from-tpr') checkNormalizationRow(find('pdd'), b.pdd.normalizationDepthCm, 100, 0.5, 'PDD', issues);
+    if (b.tpr !== 'derive-from-pdd') checkNormalizationRow(find(b.tpr.kind.toLowerCase()), b.tpr.normalizationDepthCm, 1, 0.005, b.tpr.kind, issues);
+    if (b.calibration.d0Cm < b.calibration.dmaxCm - 1e-9) {
+      issues.push({ severity: 'warning', code: 'physical-range', file: loaded.manifestFile, path: `beams[${i}].calibration.d0Cm`,
+        message: `beam ${b.id}: the normalization depth lies in the build-up region, above dmax`, expected: `d0 >= ${b.calibration.dmaxCm} cm`, found: `${b.calibration.d0Cm} cm` });
+    }
+  }
+  const wedgeIds = new Set(loaded.manifest.beams.flatMap((b) => b.wedges.map((w) => w.id)));
+  for (const id of wedgeIds) {
+    const without = loaded.manifest.beams.filter((b) => !b.wedges.some((w) => w.id === id)).map((b) => b.id);
+    if (without.length) {
+      issues.push({ severity: 'warning', code: 'missing-table', file: loaded.manifestFile,
+        message: `wedge ${id} has data for some beams but not for ${without.join(', ')}`, expected: `a ${id} factor table for every beam that can carry the wedge`, found: 'none' });
+    }
+  }
+  return issues;
+}
+
+function buildUpEndCm(loaded: LoadedMachine, beamId: string): number {
+  return loaded.manifest.beams.find((b) => b.id === beamId)?.calibration.dmaxCm ?? 0;
+}
+
+function checkRange(t: LoadedTable, range: { min: number; max: number; minInclusive: boolean }, issues: Issue[]): void {
+  t.csv.values.forEach((raw, k) => {
+    const v = raw * t.valueScale;
+    const low = range.minInclusive ? v < range.min : v <= range.min;
+    if (low || v > range.max) {
+      const pos = t.csv.valuePositions[k]!;
+      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...pos,
+        message: `${t.beamId} ${t.quantity}: value outside the physical range`,
+        expected: `${range.minInclusive ? '>=' : '>'} ${range.min} and <= ${range.max}${t.quantity === 'pdd' ? ' %' : ''}`, found: `${v}` });
+    }
+  });
+}
+
+function checkNormalizationRow(t: LoadedTable | undefined, depthCm: number, expected: number, tolerance: number, what: string, issues: Issue[]): void {
+  if (!t) return;
+  const rows = t.lookup.rows.values;
+  const i = rows.findIndex((r) => Math.abs(r - depthCm) < 1e-6);
+  if (i < 0) {
+    issues.push({ severity: 'warning', code: 'missing-table', file: t.csv.file, line: t.csv.rowPositions[0]!.line,
+      message: `${t.beamId} ${what}: no row at the normalization depth ${depthCm} cm, so ${what} = ${expected} there cannot be checked` });
+    return;
+  }
+  const n = t.lookup.columns ? t.lookup.columns.values.length : 1;
+  for (let j = 0; j < n; j++) {
+    const v = t.csv.values[i * n + j]! * t.valueScale;
+    if (Math.abs(v - expected) > tolerance) {
+      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...t.csv.valuePositions[i * n + j]!,
+        message: `${t.beamId} ${what} is not ${expected} at its normalization depth ${depthCm} cm`, expected: `${expected} ± ${tolerance}`, found: `${v}` });
+    }
+  }
+}
+
+/** Second differences (for uneven spacing) along every row and column, against the line's median. */
+function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): void {
+  const rows = t.lookup.rows.values;
+  const cols = t.lookup.columns?.values;
+  const n = cols ? cols.length : 1;
+  const value = (i: number, j: number) => t.csv.values[i * n + j]! * t.valueScale;
+  const lines: { xs: number[]; idx: [number, number][] }[] = [];
+  for (let j = 0; j < n; j++) {
+    const idx: [number, number][] = [];
+    for (let i = 0; i < rows.length; i++) if (rows[i]! >= minRowValue - 1e-9) idx.push([i, j]);
+    lines.push({ xs: idx.map(([i]) => rows[i]!), idx });
+  }
+  if (cols) for (let i = 0; i < rows.length; i++) if (rows[i]! >= minRowValue - 1e-9) lines.push({ xs: [...cols], idx: [...cols].map((_, j) => [i, j]) });
+  for (const { xs, idx } of lines) {
+    if (xs.length < 5) continue;
+    const v = idx.map(([i, j]) => value(i, j));
+    const s: number[] = [];
+    for (let k = 1; k < xs.length - 1; k++) {
+      const left = (v[k]! - v[k - 1]!) / (xs[k]! - xs[k - 1]!);
+      const right = (v[k + 1]! - v[k]!) / (xs[k + 1]! - xs[k]!);
+      s.push(Math.abs(right - left) / ((xs[k + 1]! - xs[k - 1]!) / 2));
+    }
+    const median = [...s].sort((a, b) => a - b)[Math.floor(s.length / 2)]!;
+    const rough = (m: number) => {
+      const k = m + 1;
+      // How far the value lies from the straight line through its two neighbours.
+      const t = (xs[k]! - xs[k - 1]!) / (xs[k + 1]! - xs[k - 1]!);
+      const jump = Math.abs(v[k]! - (v[k - 1]! + t * (v[k + 1]! - v[k - 1]!)));
+      return s[m]! > ROUGHNESS_RATIO * Math.max(median, 1e-12) && jump > ROUGHNESS_FLOOR * Math.abs(v[k]!);
+    };
+    s.forEach((sk, m) => {
+      // A single bad value disturbs three second differences; report the largest of the run only.
+      if (!rough(m) || (m > 0 && s[m - 1]! > sk) || (m < s.length - 1 && s[m + 1]! > sk)) return;
+      const [i, j] = idx[m + 1]!;
+      const pos = t.csv.valuePositions[i * n + j]!;
+      if (issues.some((x) => x.code === 'rough-table' && x.file === t.csv.file && x.line === pos.line && x.column === pos.column)) return;
+      issues.push({ severity: 'warning', code: 'rough-table', file: t.csv.file, ...pos,
+        message: `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours (second difference ${(sk / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
+        found: `${v[m + 1]}` });
+    });
+  }
+}

@@ -1,0 +1,111 @@
+import { z } from 'zod';
+import { findPhotonBeam, loadMachine } from '../beamdata/index.js';
+import type { Issue, PhotonPointInput } from '../model/index.js';
+import { formatIssue } from '../model/index.js';
+import { muForDose, photonDosePerMu } from '../physics/index.js';
+import { calcDocument, calcText } from '../report/calc-report.js';
+import { resolveBeamDataPath } from './beam-data-path.js';
+import type { CommandOutcome } from './outcome.js';
+import { VERSION } from './version.js';
+
+const positive = (what: string) =>
+  z.string().transform((s, ctx) => {
+    const v = Number(s);
+    if (s.trim() === '' || !Number.isFinite(v) || v <= 0) {
+      ctx.addIssue({ code: 'custom', message: `${what} must be a positive number, found "${s}"` });
+      return z.NEVER;
+    }
+    return v;
+  });
+
+/** The options of `plumbline calc`, validated before anything is computed. */
+export const CalcOptions = z
+  .object({
+    beamData: z.string().min(1),
+    energy: positive('--energy (MV)'),
+    fff: z.boolean().default(false),
+    setup: z.enum(['SAD', 'SSD'], { message: '--setup must be SAD or SSD' }),
+    field: z.string().transform((s, ctx) => {
+      const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
+      if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
+        ctx.addIssue({ code: 'custom', message: `--field must be XxY in cm (e.g. 10x12) or one side for a square, found "${s}"` });
+        return z.NEVER;
+      }
+      return { x: Number(m[1]), y: Number(m[2] ?? m[1]) };
+    }),
+    irradiated: positive('--irradiated (equivalent square, cm)').optional(),
+    depth: z.string().transform((s, ctx) => {
+      const v = Number(s);
+      if (s.trim() === '' || !Number.isFinite(v) || v < 0) {
+        ctx.addIssue({ code: 'custom', message: `--depth must be a number >= 0 (cm), found "${s}"` });
+        return z.NEVER;
+      }
+      return v;
+    }),
+    mu: positive('--mu').optional(),
+    dose: positive('--dose (cGy)').optional(),
+    ssd: positive('--ssd (cm)').optional(),
+    offAxis: z.string().transform((s, ctx) => {
+      const v = Number(s);
+      if (s.trim() === '' || !Number.isFinite(v) || v < 0) {
+        ctx.addIssue({ code: 'custom', message: `--off-axis must be a number >= 0 (cm), found "${s}"` });
+        return z.NEVER;
+      }
+      return v;
+    }).optional(),
+    wedge: z.string().min(1).optional(),
+    tray: z.union([z.boolean(), z.string().min(1)]).optional(),
+    json: z.boolean().default(false),
+  })
+  .refine((o) => (o.mu === undefined) !== (o.dose === undefined), { message: 'give exactly one of --mu and --dose' });
+
+/** `plumbline calc`: a manual point calculation with every factor shown. */
+export function runCalc(raw: Record<string, unknown>): CommandOutcome {
+  const parsed = CalcOptions.safeParse(raw);
+  if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
+  const o = parsed.data;
+  const loaded = loadMachine(resolveBeamDataPath(o.beamData));
+  if (!loaded.ok) return refuse(loaded.issues);
+  const { machine } = loaded.value;
+  const found = findPhotonBeam(machine, o.energy, o.fff);
+  if (!found.ok) return refuse([found.issue]);
+  const beam = found.beam;
+
+  let trayId: string | undefined;
+  if (o.tray === true) {
+    if (beam.trays.length !== 1) {
+      return refuse([{ severity: 'error', code: 'invalid-option', message: `--tray needs an ID: beam ${beam.id} has ${beam.trays.length} trays`,
+        expected: beam.trays.map((t) => t.id).join(', ') || 'a beam with a tray' }]);
+    }
+    trayId = beam.trays[0]!.id;
+  } else if (typeof o.tray === 'string') trayId = o.tray;
+
+  // SSD setup: the surface at the given SSD (default the SAD). SAD setup: the point at the
+  // isocenter unless an SSD is given, so SSD = SAD − depth.
+  const ssdCm = o.ssd ?? (o.setup === 'SSD' ? machine.sadCm : machine.sadCm - o.depth);
+  const ssdNote = o.ssd !== undefined ? 'given' : o.setup === 'SSD' ? 'the SAD, none given' : 'SAD − depth: the point at the isocenter, none given';
+  if (!(ssdCm > 0)) return refuse([{ severity: 'error', code: 'invalid-option', message: `the depth ${o.depth} cm puts the surface behind the source`, expected: `depth < ${machine.sadCm} cm` }]);
+  const input: PhotonPointInput = {
+    setup: o.setup,
+    collimatorFieldCm: o.field,
+    ...(o.irradiated !== undefined ? { irradiatedSquareCm: o.irradiated } : {}),
+    depthCm: o.depth,
+    ssdCm,
+    ...(o.offAxis !== undefined ? { offAxisCm: o.offAxis } : {}),
+    ...(o.wedge !== undefined ? { wedgeId: o.wedge } : {}),
+    ...(trayId !== undefined ? { trayId } : {}),
+  };
+  const r = photonDosePerMu(beam, machine.sadCm, input);
+  if (!r.ok) return refuse(r.issues);
+  const given = o.mu !== undefined ? 'mu' : 'dose';
+  const mu = o.mu ?? muForDose(r.value, o.dose!);
+  const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
+  const report = { machine, beam, input, result: r.value, mu, doseCGy, given, ssdNote } as const;
+  const warnings = loaded.warnings.map(formatIssue);
+  if (o.json) return { stdout: [JSON.stringify(calcDocument(report, VERSION), null, 2)], stderr: warnings, exitCode: 0 };
+  return { stdout: calcText(report), stderr: warnings, exitCode: 0 };
+}
+
+function refuse(issues: readonly Issue[]): CommandOutcome {
+  return { stdout: [], stderr: issues.map(formatIssue), exitCode: 2 };
+}

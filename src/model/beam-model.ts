@@ -1,0 +1,95 @@
+/**
+ * The clinic's commissioned beam data as the dose engine sees it: tables already loaded, checked and
+ * turned into lookups (built once per table by src/beamdata/). Lengths in cm, PDD in percent,
+ * everything else a ratio. The engine never reads files.
+ */
+
+/** A lookup that went outside a table: clamped to the edge (allowed by the manifest) or refused. */
+export interface LookupNote {
+  readonly table: string;
+  readonly axis: string;
+  readonly requested: number;
+  readonly used: number;
+  readonly kind: 'clamped' | 'out-of-range';
+  /** The table's range on that axis, in the axis's unit. */
+  readonly range: readonly [number, number];
+  readonly unit: string;
+}
+
+/** Notes gathered during one calculation; empty in the normal case (no allocation per lookup). */
+export type LookupLog = LookupNote[];
+
+export interface TableAxis {
+  readonly name: string;
+  readonly unit: string;
+  readonly values: Float64Array;
+}
+
+/**
+ * A table with its interpolator: `at(row, column)` for grids, `at(row)` for profiles. A value
+ * outside the valid range gives NaN and an 'out-of-range' note; a stated clamp gives the edge
+ * value and a 'clamped' note.
+ */
+export interface TableLookup {
+  /** e.g. `6X pdd (6x/pdd.csv)`: names the beam, the quantity and the file. */
+  readonly name: string;
+  readonly rows: TableAxis;
+  readonly columns?: TableAxis;
+  at(row: number, column: number, log: LookupLog): number;
+}
+
+export interface PhotonCalibration {
+  /** Source-to-surface distance of the normalization (calibration) geometry. */
+  readonly ssd0Cm: number;
+  /** Normalization depth d0: the point lies at ssd0Cm + d0Cm from the source. */
+  readonly d0Cm: number;
+  /** D'0: dose per MU at d0 for the reference field in the calibration geometry. */
+  readonly doseCGyPerMu: number;
+  readonly dmaxCm: number;
+  /** Where the 10 x 10 reference field is defined: at the surface or at the normalization point. */
+  readonly referenceFieldAt: 'surface' | 'normalization-depth';
+  readonly referenceFieldCm: number;
+}
+
+export interface WedgeData {
+  readonly id: string;
+  readonly angleDeg: number;
+  /** Wedge factor vs collimator field side (columns) and optionally depth (rows). */
+  readonly factor: TableLookup;
+  readonly byDepth: boolean;
+}
+
+export interface PhotonBeamModel {
+  readonly id: string;
+  readonly radiationType: 'PHOTON';
+  readonly nominalEnergyMV: number;
+  readonly fff: boolean;
+  readonly calibration: PhotonCalibration;
+  /** PDD (percent) vs depth (rows) and field side at the surface (columns), at `ssdCm`, normalized at `normalizationDepthCm`. */
+  readonly pdd?: TableLookup & { readonly ssdCm: number; readonly normalizationDepthCm: number };
+  /** TPR vs depth (rows) and field side at depth (columns), normalized at `normalizationDepthCm` (TMR when that is dmax). */
+  readonly tpr?: TableLookup & { readonly normalizationDepthCm: number; readonly kind: 'TPR' | 'TMR' };
+  /** In-air output ratio vs collimator equivalent square at the isocenter plane. */
+  readonly sc: TableLookup;
+  /** Phantom scatter factor vs field side at d0; or total scatter Scp from which Sp = Scp / Sc. */
+  readonly sp?: TableLookup;
+  readonly scp?: TableLookup;
+  /** Off-axis ratio vs depth (rows) and off-axis distance (columns), at depth or projected to the isocenter plane. */
+  readonly oar?: TableLookup & { readonly offAxisAt: 'depth' | 'isocenter-plane' };
+  readonly wedges: readonly WedgeData[];
+  readonly trays: readonly { readonly id: string; readonly factor: number }[];
+  readonly mlcTransmission?: number;
+  /** Collimator-exchange constant k for Sc's equivalent square (upper jaw = Y); 1 means none. */
+  readonly collimatorExchangeK?: number;
+}
+
+export interface MachineModel {
+  readonly name: string;
+  /** Names a plan may use for this machine (Treatment Machine Name), including `name`. */
+  readonly aliases: readonly string[];
+  readonly sadCm: number;
+  readonly invented: boolean;
+  readonly description?: string;
+  readonly version: string;
+  readonly beams: readonly PhotonBeamModel[];
+}

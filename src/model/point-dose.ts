@@ -1,0 +1,48 @@
+import type { Issue } from './issue.js';
+import type { LookupNote } from './beam-model.js';
+
+/** A point calculation for one photon beam, everything in cm. */
+export interface PhotonPointInput {
+  /** SSD: PDD-based with the SSD factor; SAD: TPR-based with the point's distance from the source. */
+  readonly setup: 'SSD' | 'SAD';
+  /** Jaw opening (X × Y) projected to the isocenter plane: sets Sc (and the wedge factor's field). */
+  readonly collimatorFieldCm: { readonly x: number; readonly y: number };
+  /** Equivalent square of the irradiated field (jaws ∩ MLC ∩ blocks) at the isocenter plane; the jaws when absent. */
+  readonly irradiatedSquareCm?: number;
+  readonly depthCm: number;
+  readonly ssdCm: number;
+  /** Distance of the point from the central axis, at its depth. */
+  readonly offAxisCm?: number;
+  readonly wedgeId?: string;
+  readonly trayId?: string;
+}
+
+export interface Factor {
+  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'ISF' | 'OAR' | 'WF' | 'TF';
+  /** As a physicist writes it, with its arguments: `Sp(10.6 cm)`. */
+  readonly label: string;
+  readonly value: number;
+  readonly unit: string;
+}
+
+export interface PhotonPointResult {
+  readonly setup: 'SSD' | 'SAD';
+  readonly dosePerMuCGy: number;
+  /** Their product is dosePerMuCGy. */
+  readonly factors: readonly Factor[];
+  readonly geometry: {
+    readonly sourceToPointCm: number;
+    readonly collimatorSquareCm: number;
+    readonly surfaceSquareCm: number;
+    readonly squareAtD0Cm: number;
+    readonly squareAtDepthCm: number;
+    readonly offAxisCm: number;
+  };
+  /** Lookups clamped to a table edge, as the manifest allowed: reported with every result. */
+  readonly clamps: readonly LookupNote[];
+}
+
+export type PhotonPointOutcome =
+  | { readonly ok: true; readonly value: PhotonPointResult }
+  | { readonly ok: false; readonly issues: readonly Issue[] };
+
