@@ -4,3 +4,4 @@ export * from './manifest-schema.js';
 export * from './load-machine.js';
 export * from './validate-tables.js';
 export * from './find-beam.js';
+export * from './manifest-json-schema.js';

@@ -13,7 +13,7 @@ const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: 
   wedge: { min: 0, max: 1, minInclusive: false },
 };
 
-/** How far a second difference may stand above the line's median before the table is called rough. */
+/** How far a value's departure may stand above its line's median before the table is called rough. */
 const ROUGHNESS_RATIO = 10;
 /** ... and it must also exceed this fraction of the value (noise-level wiggles are not flagged). */
 const ROUGHNESS_FLOOR = 0.003;
@@ -87,7 +87,7 @@ function checkNormalizationRow(t: LoadedTable | undefined, depthCm: number, expe
   }
 }
 
-/** Second differences (for uneven spacing) along every row and column, against the line's median. */
+/** Roughness along every row and column: each value against the line through its neighbours. */
 function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): void {
   const rows = t.lookup.rows.values;
   const cols = t.lookup.columns?.values;
@@ -103,29 +103,31 @@ function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): v
   for (const { xs, idx } of lines) {
     if (xs.length < 5) continue;
     const v = idx.map(([i, j]) => value(i, j));
-    const s: number[] = [];
+    // Each interior value's distance from the straight line through its two neighbours: a smooth
+    // curve keeps these small and alike; a single bad value stands out at its own position.
+    // Divided by the product of the two spacings, the departure estimates half the curvature
+    // whatever the spacing (exact for a parabola), so uneven grids compare fairly.
+    const dev: number[] = [];
+    const curvature: number[] = [];
     for (let k = 1; k < xs.length - 1; k++) {
-      const left = (v[k]! - v[k - 1]!) / (xs[k]! - xs[k - 1]!);
-      const right = (v[k + 1]! - v[k]!) / (xs[k + 1]! - xs[k]!);
-      s.push(Math.abs(right - left) / ((xs[k + 1]! - xs[k - 1]!) / 2));
-    }
-    const median = [...s].sort((a, b) => a - b)[Math.floor(s.length / 2)]!;
-    const rough = (m: number) => {
-      const k = m + 1;
-      // How far the value lies from the straight line through its two neighbours.
       const t = (xs[k]! - xs[k - 1]!) / (xs[k + 1]! - xs[k - 1]!);
-      const jump = Math.abs(v[k]! - (v[k - 1]! + t * (v[k + 1]! - v[k - 1]!)));
-      return s[m]! > ROUGHNESS_RATIO * Math.max(median, 1e-12) && jump > ROUGHNESS_FLOOR * Math.abs(v[k]!);
-    };
-    s.forEach((sk, m) => {
-      // A single bad value disturbs three second differences; report the largest of the run only.
-      if (!rough(m) || (m > 0 && s[m - 1]! > sk) || (m < s.length - 1 && s[m + 1]! > sk)) return;
-      const [i, j] = idx[m + 1]!;
+      const d = Math.abs(v[k]! - (v[k - 1]! + t * (v[k + 1]! - v[k - 1]!)));
+      dev.push(d);
+      curvature.push(d / ((xs[k]! - xs[k - 1]!) * (xs[k + 1]! - xs[k]!)));
+    }
+    const median = [...curvature].sort((a, b) => a - b)[Math.floor(curvature.length / 2)]!;
+    curvature.forEach((ck, m) => {
+      const k = m + 1;
+      const dk = dev[m]!;
+      const rough = ck > ROUGHNESS_RATIO * median && dk > ROUGHNESS_FLOOR * Math.abs(v[k]!);
+      // A bad value also pulls its neighbours off their lines; report the largest of the run only.
+      if (!rough || (m > 0 && dev[m - 1]! > dk) || (m < dev.length - 1 && dev[m + 1]! > dk)) return;
+      const [i, j] = idx[k]!;
       const pos = t.csv.valuePositions[i * n + j]!;
       if (issues.some((x) => x.code === 'rough-table' && x.file === t.csv.file && x.line === pos.line && x.column === pos.column)) return;
       issues.push({ severity: 'warning', code: 'rough-table', file: t.csv.file, ...pos,
-        message: `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours (second difference ${(sk / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
-        found: `${v[m + 1]}` });
+        message: `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours (curvature ${(ck / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
+        found: `${v[k]}` });
     });
   }
 }

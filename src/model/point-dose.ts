@@ -17,12 +17,18 @@ export interface PhotonPointInput {
   readonly trayId?: string;
 }
 
+/**
+ * One factor of the product, with the arguments it was looked up at (cm), so a report can write it
+ * as a physicist does: `Sp(10.15 cm)`, `PDD(10 cm, 10 cm, SSD 100 cm)/100`.
+ *   D0: []   Sc, Sp: [side]   PDD: [depth, side at surface, SSD]   TPR: [depth, side at depth]
+ *   ISF: [numerator distance, denominator distance]   OAR: [depth, off-axis]   WF: [side] or [depth, side]   TF: []
+ * `name`: TPR or TMR; the OAR's distance convention; the wedge or tray ID.
+ */
 export interface Factor {
   readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'ISF' | 'OAR' | 'WF' | 'TF';
-  /** As a physicist writes it, with its arguments: `Sp(10.6 cm)`. */
-  readonly label: string;
   readonly value: number;
-  readonly unit: string;
+  readonly args: readonly number[];
+  readonly name?: string;
 }
 
 export interface PhotonPointResult {

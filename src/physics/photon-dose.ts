@@ -1,5 +1,5 @@
 import type { Factor, Issue, LookupNote, PhotonBeamModel, PhotonPointInput, PhotonPointOutcome, PhotonPointResult } from '../model/index.js';
-import { pddAt, scAt, spAt, tprAt } from './beam-factors.js';
+import { pddAt, spAt, tprAt } from './beam-factors.js';
 import { collimatorEquivalentSquareCm, equivalentSquareCm } from './equivalent-square.js';
 import { inverseSquareFactor, projectFieldCm } from './inverse-square.js';
 
@@ -14,8 +14,7 @@ const fmt = (v: number, digits = 2) => v.toFixed(digits);
  * the central axis. Returns every factor, or the issues that prevent a number.
  */
 export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: PhotonPointInput): PhotonPointOutcome {
-  const bad = checkInput(input);
-  if (bad.length) return { ok: false, issues: bad };
+  if (!inputIsValid(input)) return { ok: false, issues: checkInput(input) };
   const log: LookupNote[] = [];
   const cal = beam.calibration;
   const { x, y } = input.collimatorFieldCm;
@@ -29,28 +28,28 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   const squareAtDepth = projectFieldCm(irradiatedAtIso, sadCm, spd);
   const offAxis = input.offAxisCm ?? 0;
 
-  const factors: Factor[] = [{ key: 'D0', label: "D'0", value: cal.doseCGyPerMu, unit: 'cGy/MU' }];
-  factors.push({ key: 'Sc', label: `Sc(${fmt(collimatorSquare)} cm)`, value: scAt(beam, x, y, log), unit: '' });
+  const factors: Factor[] = [
+    { key: 'D0', value: cal.doseCGyPerMu, args: [] },
+    { key: 'Sc', value: beam.sc.at(collimatorSquare, 0, log), args: [collimatorSquare] },
+  ];
   if (input.setup === 'SSD') {
-    factors.push({ key: 'Sp', label: `Sp(${fmt(squareAtD0)} cm)`, value: spAt(beam, squareAtD0, log), unit: '' });
-    factors.push({ key: 'PDD', label: `PDD(${fmt(d)} cm, ${fmt(surfaceSquare)} cm, SSD ${fmt(ssd, 1)} cm)/100`,
-      value: pddAt(beam, d, surfaceSquare, ssd, log) / 100, unit: '' });
-    factors.push({ key: 'ISF', label: `((${fmt(cal.ssd0Cm, 1)} + ${fmt(cal.d0Cm)})/(${fmt(ssd, 1)} + ${fmt(cal.d0Cm)}))²`,
-      value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm), unit: '' });
+    factors.push(
+      { key: 'Sp', value: spAt(beam, squareAtD0, log), args: [squareAtD0] },
+      { key: 'PDD', value: pddAt(beam, d, surfaceSquare, ssd, log) / 100, args: [d, surfaceSquare, ssd] },
+      { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm), args: [cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm] },
+    );
   } else {
-    factors.push({ key: 'Sp', label: `Sp(${fmt(squareAtDepth)} cm)`, value: spAt(beam, squareAtDepth, log), unit: '' });
-    factors.push({ key: 'TPR', label: `${beam.tpr?.kind ?? 'TPR'}(${fmt(d)} cm, ${fmt(squareAtDepth)} cm)`, value: tprAt(beam, d, squareAtDepth, log), unit: '' });
-    factors.push({ key: 'ISF', label: `((${fmt(cal.ssd0Cm, 1)} + ${fmt(cal.d0Cm)})/${fmt(spd, 1)})²`,
-      value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, spd), unit: '' });
+    factors.push(
+      { key: 'Sp', value: spAt(beam, squareAtDepth, log), args: [squareAtDepth] },
+      { key: 'TPR', value: tprAt(beam, d, squareAtDepth, log), args: [d, squareAtDepth], name: beam.tpr?.kind ?? 'TPR' },
+      { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, spd), args: [cal.ssd0Cm + cal.d0Cm, spd] },
+    );
   }
-  if (offAxis !== 0 || beam.oar) {
-    if (!beam.oar && offAxis !== 0) {
-      return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no OAR table, so an off-axis point cannot be calculated` }] };
-    }
-    if (beam.oar) {
-      const xAt = beam.oar.offAxisAt === 'depth' ? offAxis : projectFieldCm(offAxis, spd, sadCm);
-      factors.push({ key: 'OAR', label: `OAR(${fmt(d)} cm, ${fmt(xAt)} cm${beam.oar.offAxisAt === 'depth' ? '' : ' at isocenter plane'})`, value: beam.oar.at(d, xAt, log), unit: '' });
-    }
+  if (beam.oar) {
+    const xAt = beam.oar.offAxisAt === 'depth' ? offAxis : projectFieldCm(offAxis, spd, sadCm);
+    factors.push({ key: 'OAR', value: beam.oar.at(d, xAt, log), args: [d, xAt], name: beam.oar.offAxisAt });
+  } else if (offAxis !== 0) {
+    return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no OAR table, so an off-axis point cannot be calculated` }] };
   }
   if (input.wedgeId !== undefined) {
     const w = beam.wedges.find((v) => v.id === input.wedgeId);
@@ -58,8 +57,9 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no wedge "${input.wedgeId}"`,
         expected: beam.wedges.map((v) => v.id).join(', ') || 'no wedges', found: input.wedgeId }] };
     }
-    const value = w.byDepth ? w.factor.at(d, collimatorSquare, log) : w.factor.at(collimatorSquare, 0, log);
-    factors.push({ key: 'WF', label: `WF ${w.id}(${w.byDepth ? `${fmt(d)} cm, ` : ''}${fmt(collimatorSquare)} cm)`, value, unit: '' });
+    factors.push(w.byDepth
+      ? { key: 'WF', value: w.factor.at(d, collimatorSquare, log), args: [d, collimatorSquare], name: w.id }
+      : { key: 'WF', value: w.factor.at(collimatorSquare, 0, log), args: [collimatorSquare], name: w.id });
   }
   if (input.trayId !== undefined) {
     const t = beam.trays.find((v) => v.id === input.trayId);
@@ -67,19 +67,12 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no tray "${input.trayId}"`,
         expected: beam.trays.map((v) => v.id).join(', ') || 'no trays', found: input.trayId }] };
     }
-    factors.push({ key: 'TF', label: `TF ${t.id}`, value: t.factor, unit: '' });
+    factors.push({ key: 'TF', value: t.factor, args: [], name: t.id });
   }
 
-  const refused = log.filter((n) => n.kind === 'out-of-range');
-  if (refused.length || factors.some((f) => !Number.isFinite(f.value))) {
-    return { ok: false, issues: (refused.length ? refused : [undefined]).map((n) => n
-      ? { severity: 'error' as const, code: 'out-of-range' as const,
-          message: `${n.table}: ${n.axis} ${fmt(n.requested)} ${n.unit} is outside the table (${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}) and no clamp is allowed there`,
-          expected: `${n.axis} within ${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}`, found: `${fmt(n.requested)} ${n.unit}` }
-      : { severity: 'error' as const, code: 'physical-range' as const, message: `beam ${beam.id}: a factor is not a finite number` }) };
-  }
   let dosePerMu = 1;
   for (const f of factors) dosePerMu *= f.value;
+  if (!Number.isFinite(dosePerMu) || log.some((n) => n.kind === 'out-of-range')) return { ok: false, issues: refusals(log, beam.id) };
   return {
     ok: true,
     value: {
@@ -92,9 +85,35 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   };
 }
 
+/** Every refused lookup as an issue; a non-finite factor without one is a data problem. */
+function refusals(log: readonly LookupNote[], beamId: string): Issue[] {
+  const out: Issue[] = log
+    .filter((n) => n.kind === 'out-of-range')
+    .map((n) => ({
+      severity: 'error' as const,
+      code: 'out-of-range' as const,
+      message: `${n.table}: ${n.axis} ${fmt(n.requested)} ${n.unit} is outside the table (${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}) and no clamp is allowed there`,
+      expected: `${n.axis} within ${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}`,
+      found: `${fmt(n.requested)} ${n.unit}`,
+    }));
+  return out.length ? out : [{ severity: 'error', code: 'physical-range', message: `beam ${beamId}: a factor is not a finite number` }];
+}
+
 /** MU that deliver `doseCGy` at the point: the dose-per-MU product inverted. */
 export function muForDose(result: PhotonPointResult, doseCGy: number): number {
   return doseCGy / result.dosePerMuCGy;
+}
+
+/** The common case checked without allocating; checkInput then says what is wrong. */
+function inputIsValid(i: PhotonPointInput): boolean {
+  return positiveOrAbsent(i.collimatorFieldCm.x) && positiveOrAbsent(i.collimatorFieldCm.y) && positiveOrAbsent(i.irradiatedSquareCm) &&
+    nonNegativeOrAbsent(i.depthCm) && positiveOrAbsent(i.ssdCm) && nonNegativeOrAbsent(i.offAxisCm);
+}
+function positiveOrAbsent(v: number | undefined): boolean {
+  return v === undefined || (Number.isFinite(v) && v > 0);
+}
+function nonNegativeOrAbsent(v: number | undefined): boolean {
+  return v === undefined || (Number.isFinite(v) && v >= 0);
 }
 
 function checkInput(i: PhotonPointInput): Issue[] {

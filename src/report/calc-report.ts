@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { LookupNote, MachineModel, PhotonBeamModel, PhotonPointInput, PhotonPointResult } from '../model/index.js';
 
 import { CAUTION } from './caution.js';
+import { factorLabel } from './factor-label.js';
 
 export interface CalcReport {
   readonly machine: MachineModel;
@@ -28,7 +29,7 @@ export function calcText(r: CalcReport): string[] {
     `  irradiated equivalent square ${g.surfaceSquareCm.toFixed(2)} cm at the surface, ${g.squareAtD0Cm.toFixed(2)} cm at d0, ${g.squareAtDepthCm.toFixed(2)} cm at depth`,
     `  depth ${r.input.depthCm} cm, SSD ${r.input.ssdCm} cm (${r.ssdNote}), source to point ${g.sourceToPointCm.toFixed(2)} cm, off-axis ${g.offAxisCm} cm`,
     '',
-    ...r.result.factors.map((f) => `  ${f.label.padEnd(44)} = ${f.value.toFixed(4)}${f.unit ? ` ${f.unit}` : ''}`),
+    ...r.result.factors.map((f) => `  ${factorLabel(f).padEnd(44)} = ${f.value.toFixed(4)}`),
     `  ${'dose per MU'.padEnd(44)} = ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU`,
     '',
     r.given === 'mu'
@@ -60,7 +61,7 @@ export const CalcDocument = z.object({
     sourceToPointCm: z.number(), collimatorSquareCm: z.number(), surfaceSquareCm: z.number(),
     squareAtD0Cm: z.number(), squareAtDepthCm: z.number(), offAxisCm: z.number(),
   }),
-  factors: z.array(z.object({ key: z.string(), label: z.string(), value: z.number(), unit: z.string() })),
+  factors: z.array(z.object({ key: z.string(), label: z.string(), value: z.number(), args: z.array(z.number()), name: z.string().optional() })),
   dosePerMuCGy: z.number(),
   mu: z.number(),
   doseCGy: z.number(),
@@ -80,7 +81,7 @@ export function calcDocument(r: CalcReport, version: string): CalcDocument {
     setup: r.input.setup,
     input: r.input,
     geometry: r.result.geometry,
-    factors: r.result.factors,
+    factors: r.result.factors.map((f) => ({ ...f, label: factorLabel(f) })),
     dosePerMuCGy: r.result.dosePerMuCGy,
     mu: r.mu,
     doseCGy: r.doseCGy,

@@ -1,0 +1,28 @@
+import type { Factor } from '../model/index.js';
+
+const cm = (v: number) => `${Number(v.toFixed(2))} cm`;
+
+/** A factor as a physicist writes it by hand, with its arguments and unit. */
+export function factorLabel(f: Factor): string {
+  const a = f.args;
+  switch (f.key) {
+    case 'D0':
+      return "D'0 (cGy/MU)";
+    case 'Sc':
+      return `Sc(${cm(a[0]!)})`;
+    case 'Sp':
+      return `Sp(${cm(a[0]!)})`;
+    case 'PDD':
+      return `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
+    case 'TPR':
+      return `${f.name ?? 'TPR'}(${cm(a[0]!)}, ${cm(a[1]!)})`;
+    case 'ISF':
+      return `inverse square (${cm(a[0]!)} / ${cm(a[1]!)})²`;
+    case 'OAR':
+      return `OAR(${cm(a[0]!)}, ${cm(a[1]!)}${f.name === 'isocenter-plane' ? ' at the isocenter plane' : ''})`;
+    case 'WF':
+      return `WF ${f.name}(${a.map(cm).join(', ')})`;
+    case 'TF':
+      return `TF ${f.name}`;
+  }
+}

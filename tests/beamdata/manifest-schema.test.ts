@@ -1,0 +1,23 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { Manifest, manifestJsonSchemaText } from '../../src/beamdata/index.js';
+import { BJR25_MANIFEST, DEMO_MANIFEST, KHAN_MANIFEST } from '../helpers/machines.js';
+
+describe('beam-data manifest schema', () => {
+  it('the committed JSON Schema is the one the zod schema generates (run npm run schemas)', () => {
+    expect(readFileSync(new URL('../../src/beamdata/manifest.schema.json', import.meta.url), 'utf8')).toBe(manifestJsonSchemaText());
+  });
+  it.each([DEMO_MANIFEST, BJR25_MANIFEST, KHAN_MANIFEST])('accepts %s', (file) => {
+    expect(Manifest.safeParse(JSON.parse(readFileSync(file, 'utf8'))).success).toBe(true);
+  });
+  it('refuses both PDD and TPR derived, both or neither of Sp and Scp, and unknown keys', () => {
+    const demo = JSON.parse(readFileSync(DEMO_MANIFEST, 'utf8'));
+    const b = demo.beams[0];
+    const variant = (change: object) => Manifest.safeParse({ ...demo, beams: [{ ...b, ...change }] }).success;
+    expect(variant({ pdd: 'derive-from-tpr', tpr: 'derive-from-pdd' })).toBe(false);
+    expect(variant({ scp: b.sp })).toBe(false);
+    expect(variant({ sp: undefined })).toBe(false);
+    expect(variant({ energyMV: 6 })).toBe(false);
+    expect(variant({})).toBe(true);
+  });
+});

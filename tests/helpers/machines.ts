@@ -1,0 +1,20 @@
+import { fileURLToPath } from 'node:url';
+import { loadMachine } from '../../src/beamdata/index.js';
+import type { MachineModel } from '../../src/model/index.js';
+
+export const manifestPath = (rel: string) => fileURLToPath(new URL(`../../${rel}`, import.meta.url));
+export const DEMO_MANIFEST = manifestPath('fixtures/demo/beam-data/manifest.json');
+export const BJR25_MANIFEST = manifestPath('tests/reference/bjr25-machine/manifest.json');
+export const KHAN_MANIFEST = manifestPath('tests/reference/khan-ssd-example/manifest.json');
+
+export function machine(file: string): MachineModel {
+  const r = loadMachine(file);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return r.value.machine;
+}
+
+export function beam(m: MachineModel, id: string) {
+  const b = m.beams.find((x) => x.id === id);
+  if (!b) throw new Error(`no beam ${id}`);
+  return b;
+}

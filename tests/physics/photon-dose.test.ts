@@ -1,0 +1,75 @@
+/**
+ * Identities of the TG-71 formalism, checked on the invented demo machine (they hold for any
+ * consistent beam data, so the demo's invented values do not enter the expectations).
+ */
+import { describe, expect, it } from 'vitest';
+import type { PhotonBeamModel } from '../../src/model/index.js';
+import { muForDose, pddAt, photonDosePerMu, tprAt } from '../../src/physics/index.js';
+import { DEMO_MANIFEST, beam, machine } from '../helpers/machines.js';
+
+const m = machine(DEMO_MANIFEST);
+const b6 = beam(m, '6X');
+/** The same beam with its PDD derived from the TMR table (exact conversion, no second table). */
+const derivedPdd: PhotonBeamModel = (() => {
+  const { pdd: _pdd, ...rest } = b6;
+  return rest;
+})();
+
+const dose = (b: PhotonBeamModel, input: Parameters<typeof photonDosePerMu>[2]) => {
+  const r = photonDosePerMu(b, m.sadCm, input);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return r.value;
+};
+
+describe('TG-71 photon point dose', () => {
+  it('TPR(d0) = 1 for every field (identity)', () => {
+    for (const side of [4, 10, 25]) expect(tprAt(b6, b6.calibration.d0Cm, side, [])).toBeCloseTo(1, 12);
+    for (const side of [4, 10, 25]) expect(tprAt({ ...b6, tpr: undefined } as PhotonBeamModel, b6.calibration.d0Cm, side, [])).toBeCloseTo(1, 12);
+  });
+
+  it('the reference condition gives D\'0: 10 x 10 at SSD0, depth d0 (identity)', () => {
+    const r = dose(b6, { setup: 'SSD', collimatorFieldCm: { x: 10, y: 10 }, depthCm: b6.calibration.d0Cm, ssdCm: 100 });
+    expect(r.dosePerMuCGy).toBeCloseTo(b6.calibration.doseCGyPerMu, 3);
+  });
+
+  it('SSD and SAD formalisms give the same dose at the same point (exact with consistent tables)', () => {
+    for (const [x, y, d, ssd] of [[10, 10, 10, 100], [8, 15, 5, 92], [20, 20, 15, 85], [5, 5, 3, 97]] as const) {
+      const input = { collimatorFieldCm: { x, y }, depthCm: d, ssdCm: ssd };
+      const ssdDose = dose(derivedPdd, { setup: 'SSD', ...input }).dosePerMuCGy;
+      const sadDose = dose(derivedPdd, { setup: 'SAD', ...input }).dosePerMuCGy;
+      expect(ssdDose / sadDose).toBeCloseTo(1, 12);
+      // With the separately tabulated PDD, only interpolation separates the two (well under 0.5 %).
+      expect(Math.abs(dose(b6, { setup: 'SSD', ...input }).dosePerMuCGy / sadDose - 1)).toBeLessThan(0.005);
+    }
+  });
+
+  it('PDD at another SSD through TPR agrees with the Mayneord estimate to within a few tenths of a percent', () => {
+    // Mayneord ignores the change in scatter; the two should be close for a modest SSD change (common practice, no source).
+    const at100 = pddAt(b6, 10, 10, 100, []);
+    const at110 = pddAt(b6, 10, 10, 110, []); // same surface field, as the F factor assumes
+    const mayneord = at100 * ((110 + 1.5) / (100 + 1.5)) ** 2 * ((100 + 10) / (110 + 10)) ** 2;
+    expect(Math.abs(at110 / mayneord - 1)).toBeLessThan(0.005);
+  });
+
+  it('MU for a dose inverts dose per MU exactly, and the factors multiply to the dose per MU', () => {
+    const r = dose(b6, { setup: 'SAD', collimatorFieldCm: { x: 12, y: 8 }, depthCm: 8.5, ssdCm: 91.5, offAxisCm: 3, wedgeId: 'W30', trayId: 'BLOCK_TRAY' });
+    expect(muForDose(r, 200) * r.dosePerMuCGy).toBeCloseTo(200, 10);
+    expect(r.factors.reduce((p, f) => p * f.value, 1)).toBeCloseTo(r.dosePerMuCGy, 14);
+    expect(r.factors.map((f) => f.key)).toEqual(['D0', 'Sc', 'Sp', 'TPR', 'ISF', 'OAR', 'WF', 'TF']);
+  });
+
+  it('inverse square: the SAD factor is ((SSD0 + d0)/SPD)²', () => {
+    const r = dose(b6, { setup: 'SAD', collimatorFieldCm: { x: 10, y: 10 }, depthCm: 10, ssdCm: 90 });
+    expect(r.factors.find((f) => f.key === 'ISF')!.value).toBeCloseTo((101.5 / 100) ** 2, 14);
+  });
+
+  it('refuses bad input and unknown modifiers instead of computing a dose', () => {
+    const base = { setup: 'SAD' as const, collimatorFieldCm: { x: 10, y: 10 }, depthCm: 10, ssdCm: 90 };
+    expect(photonDosePerMu(b6, 100, { ...base, depthCm: Number.NaN }).ok).toBe(false);
+    expect(photonDosePerMu(b6, 100, { ...base, collimatorFieldCm: { x: 0, y: 10 } }).ok).toBe(false);
+    const w = photonDosePerMu(b6, 100, { ...base, wedgeId: 'W90' });
+    expect(!w.ok && w.issues[0]!.message).toMatch(/no wedge "W90"/);
+    const deep = photonDosePerMu(b6, 100, { ...base, depthCm: 40 });
+    expect(!deep.ok && deep.issues[0]!.code).toBe('out-of-range');
+  });
+});
