@@ -73,3 +73,24 @@ describe('TG-71 photon point dose', () => {
     expect(!deep.ok && deep.issues[0]!.code).toBe('out-of-range');
   });
 });
+
+describe('the demo machine is realistic where a published value exists', () => {
+  it('6 MV PDD at 10 cm for 10 x 10 at SSD 100 lies near the 67.5 % of BJR Supplement 25 (read, secondary copy)', () => {
+    expect(Math.abs(pddAt(b6, 10, 10, 100, []) - 67.5)).toBeLessThan(0.5);
+    expect(Math.abs(pddAt(b6, 20, 10, 100, []) - 39.3)).toBeLessThan(0.5);
+  });
+});
+
+describe('Sp from Scp', () => {
+  it('a beam with Scp instead of Sp uses Sp = Scp / Sc, and gives the same dose as the beam with that Sp', async () => {
+    const { makeTableLookup } = await import('../../src/beamdata/index.js');
+    const sides = b6.sp!.rows.values;
+    const scp = makeTableLookup({ name: '6X scp', rows: b6.sp!.rows, interpolation: 'bilinear',
+      values: Float64Array.from(sides, (s) => b6.sp!.at(s, 0, []) * b6.sc.at(s, 0, [])) });
+    const { sp: _sp, ...rest } = b6;
+    const withScp: PhotonBeamModel = { ...rest, scp };
+    // The point at the isocenter: Sp is looked up at 10 cm, a table node, where Scp/Sc is exactly Sp.
+    const input = { setup: 'SAD' as const, collimatorFieldCm: { x: 10, y: 10 }, depthCm: 10, ssdCm: 90 };
+    expect(dose(withScp, input).dosePerMuCGy / dose(b6, input).dosePerMuCGy).toBeCloseTo(1, 12);
+  });
+});
