@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { importPlanFile } from '../../src/dicom/index.js';
 
-const DEMO = fileURLToPath(new URL('../../fixtures/demo/', import.meta.url));
+const DEMO = fileURLToPath(new URL('../../fixtures/demo/plans/', import.meta.url));
 const work = mkdtempSync(join(tmpdir(), 'plumbline-bench-'));
 
 function copies(name: string, n: number): string[] {

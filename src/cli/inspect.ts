@@ -15,12 +15,15 @@ export function runInspect(paths: readonly string[], options: { json?: boolean }
   const plans: { imported: ImportedPlan; warnings: readonly Issue[] }[] = [];
   const problems: Issue[] = [];
   const notes: string[] = [];
+  let notDicom = 0;
   for (const f of collectFiles(paths)) {
     const r = importPlanFile(f.path);
     if (r.ok) plans.push({ imported: r.value, warnings: r.warnings });
+    else if (!f.explicit && r.issues.every((i) => i.code === 'not-dicom')) notDicom++;
     else if (!f.explicit && r.issues.every((i) => SKIPPABLE_IN_FOLDER.has(i.code))) notes.push(`skipped ${f.path}: ${r.issues[0]!.message}`);
     else problems.push(...r.issues);
   }
+  if (notDicom) notes.push(`skipped ${notDicom} file(s) in the folder(s) that are not DICOM`);
   if (plans.length === 0 && problems.length === 0) {
     problems.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
   }

@@ -7,12 +7,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runBeamsValidate } from '../../src/cli/beams-validate.js';
-import { DEMO_DIR } from '../helpers/fixtures.js';
+import { DEMO_BEAM_DATA_DIR } from '../helpers/fixtures.js';
 
 /** A copy of the demo beam data with `edit` applied to one file's text. */
 function faulty(file: string, edit: (text: string) => string): string {
   const dir = mkdtempSync(join(tmpdir(), 'plumbline-bd-'));
-  cpSync(join(DEMO_DIR, 'beam-data'), dir, { recursive: true });
+  cpSync(DEMO_BEAM_DATA_DIR, dir, { recursive: true });
   const p = join(dir, file);
   writeFileSync(p, edit(readFileSync(p, 'utf8')));
   return join(dir, 'manifest.json');
