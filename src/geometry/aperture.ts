@@ -1,0 +1,137 @@
+import type { Beam, ControlPoint } from '../model/index.js';
+
+/** An axis-aligned opening band: y in [y0, y1], x in [x0, x1] (empty when x1 <= x0). Isocenter plane, mm. */
+interface Band {
+  readonly y0: number;
+  readonly y1: number;
+  readonly x0: number;
+  readonly x1: number;
+}
+
+/** A boundary segment of the opening, isocenter plane, mm, BEAM LIMITING DEVICE frame. */
+interface Segment {
+  readonly ax: number;
+  readonly ay: number;
+  readonly bx: number;
+  readonly by: number;
+}
+
+/**
+ * The opening at the isocenter plane made by the jaws and the MLC leaves (blocks are not part of
+ * it: beams with blocks are handled elsewhere). Coordinates in the BEAM LIMITING DEVICE frame; for
+ * an MLCY the leaves travel along Y, and the bands are built in swapped axes.
+ */
+export interface Aperture {
+  readonly jawsMm: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number };
+  readonly leaves: boolean;
+  readonly areaMm2: number;
+  readonly perimeterMm: number;
+  readonly centroidMm: readonly [number, number];
+  /** Signed distance from (x, y) to the nearest edge: positive inside the opening. */
+  edgeDistanceMm(x: number, y: number): number;
+}
+
+/** The aperture at a control point, or undefined when the beam has no jaws along an axis and no leaves there. */
+export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
+  const pos = (t: string) => cp.devices.find((d) => d.type === t)?.positionsMm;
+  const xj = pos('ASYMX') ?? pos('X');
+  const yj = pos('ASYMY') ?? pos('Y');
+  const mlcx = beam.limitingDevices.find((d) => d.type === 'MLCX');
+  const mlcy = beam.limitingDevices.find((d) => d.type === 'MLCY');
+  const big = 1e4;
+  const jaws = { x1: xj?.[0] ?? -big, x2: xj?.[1] ?? big, y1: yj?.[0] ?? -big, y2: yj?.[1] ?? big };
+  if (!xj && !mlcx && !mlcy) return undefined;
+  if (!yj && !mlcx && !mlcy) return undefined;
+  const mlc = mlcx ?? mlcy;
+  const leaves = mlc ? pos(mlc.type) : undefined;
+  const swapped = mlc?.type === 'MLCY';
+  // In the band frame u runs along the leaves' travel, v across them.
+  const u1 = swapped ? jaws.y1 : jaws.x1;
+  const u2 = swapped ? jaws.y2 : jaws.x2;
+  const v1 = swapped ? jaws.x1 : jaws.y1;
+  const v2 = swapped ? jaws.x2 : jaws.y2;
+  const bands: Band[] = [];
+  if (mlc && leaves && mlc.leafBoundariesMm) {
+    const n = mlc.numberOfPairs;
+    const b = mlc.leafBoundariesMm;
+    for (let i = 0; i < n; i++) {
+      const y0 = Math.max(b[i]!, v1);
+      const y1 = Math.min(b[i + 1]!, v2);
+      if (y1 <= y0) continue;
+      bands.push({ y0, y1, x0: Math.max(leaves[i]!, u1), x1: Math.min(leaves[i + n]!, u2) });
+    }
+  } else {
+    bands.push({ y0: v1, y1: v2, x0: u1, x1: u2 });
+  }
+  const segments = boundary(bands);
+  const toBld = (u: number, v: number): [number, number] => (swapped ? [v, u] : [u, v]);
+  let area = 0;
+  let cu = 0;
+  let cv = 0;
+  for (const band of bands) {
+    const w = Math.max(0, band.x1 - band.x0);
+    const a = w * (band.y1 - band.y0);
+    area += a;
+    cu += a * ((band.x0 + band.x1) / 2);
+    cv += a * ((band.y0 + band.y1) / 2);
+  }
+  const perimeter = segments.reduce((s, g) => s + Math.hypot(g.bx - g.ax, g.by - g.ay), 0);
+  const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
+  return {
+    jawsMm: jaws,
+    leaves: !!(mlc && leaves),
+    areaMm2: area,
+    perimeterMm: perimeter,
+    centroidMm: centroid,
+    edgeDistanceMm(x: number, y: number): number {
+      const [u, v] = swapped ? [y, x] : [x, y];
+      let d = Infinity;
+      for (const g of segments) d = Math.min(d, segmentDistance(u, v, g));
+      const inside = bands.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
+      return inside ? d : -d;
+    },
+  };
+}
+
+/**
+ * The outline of a stack of bands: each open band's two ends, and between neighbouring bands the
+ * parts of the shared boundary covered by one band only (the symmetric difference of their openings).
+ */
+function boundary(bands: readonly Band[]): Segment[] {
+  const out: Segment[] = [];
+  const open = (b: Band | undefined) => (b && b.x1 > b.x0 ? b : undefined);
+  for (const b of bands) {
+    if (!open(b)) continue;
+    out.push({ ax: b.x0, ay: b.y0, bx: b.x0, by: b.y1 }, { ax: b.x1, ay: b.y0, bx: b.x1, by: b.y1 });
+  }
+  for (let i = -1; i < bands.length; i++) {
+    const lower = open(bands[i]);
+    const upper = open(bands[i + 1]);
+    // Bands are contiguous only when they share the boundary line.
+    if (lower && upper && Math.abs(lower.y1 - upper.y0) < 1e-9) {
+      for (const [a, b] of symmetricDifference([lower.x0, lower.x1], [upper.x0, upper.x1])) out.push({ ax: a, ay: lower.y1, bx: b, by: lower.y1 });
+    } else {
+      if (lower) out.push({ ax: lower.x0, ay: lower.y1, bx: lower.x1, by: lower.y1 });
+      if (upper) out.push({ ax: upper.x0, ay: upper.y0, bx: upper.x1, by: upper.y0 });
+    }
+  }
+  return out;
+}
+
+function symmetricDifference(a: readonly [number, number], b: readonly [number, number]): [number, number][] {
+  const lo = Math.max(a[0], b[0]);
+  const hi = Math.min(a[1], b[1]);
+  if (hi <= lo) return [[a[0], a[1]], [b[0], b[1]]];
+  const out: [number, number][] = [];
+  if (a[0] !== b[0]) out.push([Math.min(a[0], b[0]), lo]);
+  if (a[1] !== b[1]) out.push([hi, Math.max(a[1], b[1])]);
+  return out;
+}
+
+function segmentDistance(px: number, py: number, g: Segment): number {
+  const dx = g.bx - g.ax;
+  const dy = g.by - g.ay;
+  const len2 = dx * dx + dy * dy;
+  const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((px - g.ax) * dx + (py - g.ay) * dy) / len2));
+  return Math.hypot(px - (g.ax + t * dx), py - (g.ay + t * dy));
+}

@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import { apertureAt } from '../../src/geometry/index.js';
+import { equivalentSquareCm } from '../../src/physics/index.js';
+import type { Beam, ControlPoint } from '../../src/model/index.js';
+
+const beam = (mlc?: { pairs: number; width: number }): Beam => ({
+  number: 1, radiationType: 'PHOTON', beamType: 'STATIC', wedges: [], compensators: [], bolusRoiNumbers: [], blocks: [], applicators: [],
+  doseVerification: [], controlPoints: [],
+  limitingDevices: [
+    { type: 'ASYMX', numberOfPairs: 1 }, { type: 'ASYMY', numberOfPairs: 1 },
+    ...(mlc ? [{ type: 'MLCX' as const, numberOfPairs: mlc.pairs, leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width) }] : []),
+  ],
+});
+const cp = (x: [number, number], y: [number, number], leaves?: number[]): ControlPoint => ({
+  index: 0, gantryAngleDeg: 0, collimatorAngleDeg: 0, couchAngleDeg: 0, cumulativeMetersetWeight: 0, wedgePositions: [], doseReferenceCoefficients: [],
+  devices: [{ type: 'ASYMX', positionsMm: x }, { type: 'ASYMY', positionsMm: y }, ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : [])],
+});
+
+describe('aperture of jaws and leaves', () => {
+  it('jaws alone: a 100 x 120 mm rectangle, whose 4A/P is the rectangle equivalent square', () => {
+    const a = apertureAt(beam(), cp([-50, 50], [-40, 80]))!;
+    expect(a.areaMm2).toBe(12000);
+    expect(a.perimeterMm).toBe(440);
+    expect((4 * a.areaMm2) / a.perimeterMm / 10).toBeCloseTo(equivalentSquareCm(10, 12), 12);
+    expect(a.centroidMm).toEqual([0, 20]);
+    expect(a.edgeDistanceMm(0, 0)).toBe(40);
+    expect(a.edgeDistanceMm(60, 0)).toBe(-10);
+  });
+
+  it('leaves open wider than the jaws change nothing', () => {
+    const n = 40;
+    const leaves = [...Array(n).fill(-150), ...Array(n).fill(150)];
+    const a = apertureAt(beam({ pairs: n, width: 10 }), cp([-50, 50], [-40, 80], leaves))!;
+    expect(a.areaMm2).toBeCloseTo(12000, 9);
+    expect(a.perimeterMm).toBeCloseTo(440, 9);
+  });
+
+  it('a step in the leaves: an L-shape has the area and perimeter of its outline', () => {
+    // Two pairs of 10 mm: the lower open from -50 to 50, the upper from 0 to 50, jaws wide open.
+    const a = apertureAt(beam({ pairs: 2, width: 10 }), cp([-100, 100], [-100, 100], [-50, 0, 50, 50]))!;
+    expect(a.areaMm2).toBe(1000 + 500);
+    expect(a.perimeterMm).toBe(100 + 10 + 50 + 10 + 50 + 20); // bottom, left low, step, left high, top, right
+    expect(a.edgeDistanceMm(25, -5)).toBe(5);
+    expect(a.edgeDistanceMm(-25, -2)).toBe(2); // the step above it
+    expect(a.edgeDistanceMm(-25, 5)).toBe(-5); // above the step: outside
+  });
+
+  it('closed leaves add no area and no edges', () => {
+    const a = apertureAt(beam({ pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], [0, -20, 0, 0, 20, 0]))!;
+    expect(a.areaMm2).toBe(400);
+    expect(a.perimeterMm).toBe(100);
+  });
+});
