@@ -3,6 +3,7 @@ import { BeamDataError, InputError } from '../errors.js';
 import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
+import { runCheck } from './check.js';
 import { runInspect } from './inspect.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
@@ -29,6 +30,21 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--json', 'print the full model as one versioned JSON document')
     .action((paths: string[], opts: { json?: boolean }) => {
       outcome = runInspect(paths, opts);
+    });
+
+  program
+    .command('check')
+    .description('check RT Plans against the beam data: independent dose per beam, deviation, verdict')
+    .argument('<paths...>', 'RT Plan files or folders (searched recursively)')
+    .requiredOption('--beam-data <manifest>', "the machine's beam-data manifest, or 'demo' for the invented demo machine")
+    .option('--policy <file>', 'action-level policy (JSON); the shipped defaults otherwise')
+    .option('--point <x,y,z>', 'calculation point in patient coordinates, mm (overrides the plan)')
+    .option('--machine-alias <PLAN=DATA>', 'map a plan machine name to a beam-data machine name (repeatable)', (v: string, all: string[] = []) => [...all, v])
+    .option('--suggest-point', 'also calculate at the suggested point when a point is unfit')
+    .option('--json', 'print one versioned JSON document')
+    .option('--html <file>', 'write a self-contained HTML report')
+    .action((paths: string[], opts: Record<string, unknown>) => {
+      outcome = runCheck(paths, opts);
     });
 
   program

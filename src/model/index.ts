@@ -8,3 +8,5 @@ export * from './plan.js';
 export * from './jaws.js';
 export * from './beam-model.js';
 export * from './point-dose.js';
+export * from './check-result.js';
+export * from './factor-label.js';

@@ -57,7 +57,7 @@ export type Result<T> =
   | { readonly ok: false; readonly issues: readonly Issue[] };
 
 /** One line per issue, for stderr: file, beam, control point, attribute, message, expected vs found. */
-export function formatIssue(issue: Issue): string {
+export function formatIssue(issue: Omit<Issue, 'code'> & { readonly code: string }): string {
   const where: string[] = [];
   if (issue.file) {
     where.push(issue.line !== undefined ? `${issue.file}:${issue.line}${issue.column !== undefined ? `:${issue.column}` : ''}` : issue.file);

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import type { LookupNote, MachineModel, PhotonBeamModel, PhotonPointInput, PhotonPointResult } from '../model/index.js';
+import { factorLabel, type LookupNote, type MachineModel, type PhotonBeamModel, type PhotonPointInput, type PhotonPointResult } from '../model/index.js';
 
 import { CAUTION } from './caution.js';
-import { factorLabel } from './factor-label.js';
+
 
 export interface CalcReport {
   readonly machine: MachineModel;

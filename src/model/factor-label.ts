@@ -1,4 +1,4 @@
-import type { Factor } from '../model/index.js';
+import type { Factor } from './point-dose.js';
 
 const cm = (v: number) => `${Number(v.toFixed(2))} cm`;
 

@@ -1,0 +1,34 @@
+import type { Beam, ControlPoint } from '../model/index.js';
+
+const POSITIONS_SUPPORTED = new Set(['HFS', 'HFP', 'FFS', 'FFP']);
+
+/**
+ * Why the engine cannot yet give this beam an independent dose, in words; undefined when it can.
+ * No number is ever made up for such a beam.
+ */
+export function unsupportedReason(beam: Beam, patientPosition: string | undefined, mu: number | undefined): string | undefined {
+  if (beam.treatmentDeliveryType === 'SETUP') return 'a setup beam, not a treatment beam';
+  if (beam.radiationType === 'ELECTRON') return 'electron beams are not checked yet (electron output and effective SSD come in a later version)';
+  if (beam.radiationType !== 'PHOTON') return `${beam.radiationType.toLowerCase()} beams are outside what plumbline checks`;
+  if (beam.primaryDosimeterUnit === 'MINUTE') return 'the meterset is in minutes, not MU';
+  if (mu === undefined || mu <= 0) return 'the beam has no meterset';
+  const cps = beam.controlPoints;
+  if (cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg)) return 'an arc (the gantry moves): modulated and arc beams are checked in a later version';
+  if (beam.beamType === 'DYNAMIC' || !sameAperture(cps)) return 'the aperture changes during delivery (modulated): checked in a later version';
+  if (beam.blocks.length) return 'shaped by blocks or a cutout: the irregular-field calculation comes in a later version';
+  if (beam.compensators.length) return 'a compensator is in the beam';
+  if (beam.wedges.some((w) => w.type && w.type !== 'STANDARD')) return `a ${beam.wedges.find((w) => w.type !== 'STANDARD')!.type!.toLowerCase()} wedge: only physical wedges are checked so far`;
+  const cp0 = cps[0]!;
+  if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return 'the table top eccentric angle is not 0 (not supported)';
+  if (!patientPosition) return 'the patient position is not given';
+  if (!POSITIONS_SUPPORTED.has(patientPosition)) return `patient position ${patientPosition}: the beam geometry supports HFS, HFP, FFS and FFP so far`;
+  if (!cp0.isocenterPatientMm) return 'the first control point has no isocenter';
+  if (cp0.nominalEnergyMeV === undefined) return 'no nominal energy';
+  return undefined;
+}
+
+function sameAperture(cps: readonly ControlPoint[]): boolean {
+  const first = JSON.stringify(cps[0]!.devices);
+  const wedges = JSON.stringify(cps[0]!.wedgePositions);
+  return cps.every((c) => JSON.stringify(c.devices) === first && JSON.stringify(c.wedgePositions) === wedges && c.collimatorAngleDeg === cps[0]!.collimatorAngleDeg && c.couchAngleDeg === cps[0]!.couchAngleDeg);
+}

@@ -1,0 +1,3 @@
+export * from './policy.js';
+export * from './check-plan.js';
+export * from './verdict.js';

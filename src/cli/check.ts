@@ -1,0 +1,131 @@
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import cliProgress from 'cli-progress';
+import { z } from 'zod';
+import { loadMachine, type LoadedMachine } from '../beamdata/index.js';
+import { checkPlan, DEFAULT_POLICY, Policy } from '../check/index.js';
+import { importPlanBytes } from '../dicom/index.js';
+import type { Issue, PlanCheck } from '../model/index.js';
+import { formatIssue } from '../model/index.js';
+import { CAUTION } from '../report/caution.js';
+import { CheckDocument } from '../report/check-json.js';
+import { checkHtml } from '../report/check-html.js';
+import { checkSummary } from '../report/check-summary.js';
+import { checkText } from '../report/check-text.js';
+import { writeFileAtomic } from './atomic-write.js';
+import { resolveBeamDataPath } from './beam-data-path.js';
+import { collectFiles } from './collect-files.js';
+import type { CommandOutcome } from './outcome.js';
+import { VERSION } from './version.js';
+
+const Point = z.string().transform((s, ctx) => {
+  const parts = s.split(',').map((v) => Number(v.trim()));
+  if (parts.length !== 3 || parts.some((v) => !Number.isFinite(v))) {
+    ctx.addIssue({ code: 'custom', message: `--point must be x,y,z in mm (patient coordinates), found "${s}"` });
+    return z.NEVER;
+  }
+  return parts as [number, number, number];
+});
+
+export const CheckOptionsSchema = z.object({
+  beamData: z.string().min(1),
+  policy: z.string().min(1).optional(),
+  point: Point.optional(),
+  machineAlias: z.array(z.string().regex(/^[^=]+=[^=]+$/, '--machine-alias must be PLANNAME=DATANAME')).default([]),
+  json: z.boolean().default(false),
+  html: z.string().min(1).optional(),
+  suggestPoint: z.boolean().default(false),
+});
+
+/** `plumbline check`: read every plan, check it against the beam data, report; batch runs go on past bad files. */
+export function runCheck(paths: readonly string[], raw: Record<string, unknown>): CommandOutcome {
+  const parsed = CheckOptionsSchema.safeParse(raw);
+  if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
+  const o = parsed.data;
+  const loaded = loadMachine(resolveBeamDataPath(o.beamData));
+  if (!loaded.ok) return refuse(loaded.issues);
+  const policy = loadPolicy(o.policy);
+  if (!policy.ok) return refuse(policy.issues);
+  const aliases = new Map(o.machineAlias.map((a) => a.split('=') as [string, string]));
+
+  const files = collectFiles(paths);
+  const bar = process.stderr.isTTY && files.length > 1 ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic) : undefined;
+  bar?.start(files.length, 0);
+  const plans: PlanCheck[] = [];
+  const refused: Issue[] = [];
+  for (const f of files) {
+    bar?.increment();
+    let bytes: Buffer;
+    try {
+      bytes = readFileSync(f.path);
+    } catch (e) {
+      refused.push({ severity: 'error', code: 'unreadable', file: f.path, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+      continue;
+    }
+    const r = importPlanBytes(bytes, f.path);
+    if (!r.ok) {
+      // In a folder, other DICOM objects (CT, structures) and non-DICOM files are not plans: skip them.
+      if (!f.explicit && r.issues.every((i) => i.code === 'not-rt-plan' || i.code === 'not-dicom')) continue;
+      refused.push(...r.issues);
+      continue;
+    }
+    const sha256 = createHash('sha256').update(bytes).digest('hex');
+    plans.push(checkPlan(r.value.plan, { path: f.path, sha256 }, {
+      machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
+    }));
+  }
+  bar?.stop();
+  if (plans.length === 0 && refused.length === 0) refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
+
+  const doc = CheckDocument.parse({
+    schemaVersion: 1,
+    kind: 'plumbline.check',
+    tool: { name: 'plumbline', version: VERSION },
+    createdAt: new Date().toISOString(),
+    deviationDefinition: '(independent − planning system) / planning system',
+    beamData: { manifest: loaded.value.manifestFile, sha256: beamDataSha256(loaded.value), machine: loaded.value.machine.name,
+      dataVersion: loaded.value.machine.version, invented: loaded.value.machine.invented },
+    policy: { ...(policy.value.description ? { description: policy.value.description } : {}), levels: policy.value.levels },
+    plans,
+    refused,
+    summary: checkSummary(plans, refused),
+    caution: CAUTION,
+  });
+  const stderr = loaded.warnings.map(formatIssue);
+  if (o.html) {
+    try {
+      writeFileAtomic(o.html, checkHtml(doc));
+      stderr.push(`wrote ${o.html}`);
+    } catch (e) {
+      return refuse([{ severity: 'error', code: 'unreadable', file: o.html, message: `cannot write the HTML report (${(e as NodeJS.ErrnoException).code ?? String(e)})` }]);
+    }
+  }
+  const inputError = refused.length > 0 || plans.some((p) => p.issues.length > 0);
+  const review = plans.some((p) => p.verdict !== 'within tolerance' || !p.fullyVerified);
+  const exitCode = inputError ? 2 : review ? 1 : 0;
+  return { stdout: o.json ? [JSON.stringify(doc, null, 2)] : checkText(doc), stderr: [...stderr, ...refused.map(formatIssue)], exitCode };
+}
+
+function loadPolicy(file: string | undefined): { ok: true; value: Policy } | { ok: false; issues: Issue[] } {
+  if (!file) return { ok: true, value: DEFAULT_POLICY };
+  let json: unknown;
+  try {
+    json = JSON.parse(readFileSync(file, 'utf8'));
+  } catch (e) {
+    return { ok: false, issues: [{ severity: 'error', code: 'invalid-manifest', file, message: `cannot read the policy (${(e as Error).message})` }] };
+  }
+  const p = Policy.safeParse(json);
+  if (!p.success) return { ok: false, issues: p.error.issues.map((i) => ({ severity: 'error' as const, code: 'invalid-manifest' as const, file, path: i.path.join('.'), message: i.message })) };
+  return { ok: true, value: p.data };
+}
+
+/** SHA-256 over the manifest and every table it names, in a fixed order: what the result was computed from. */
+function beamDataSha256(m: LoadedMachine): string {
+  const h = createHash('sha256').update(readFileSync(m.manifestFile));
+  for (const f of [...new Set(m.tables.map((t) => t.csv.file))].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(readFileSync(f));
+  return h.digest('hex');
+}
+
+function refuse(issues: readonly Issue[]): CommandOutcome {
+  return { stdout: [], stderr: issues.map(formatIssue), exitCode: 2 };
+}

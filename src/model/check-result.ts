@@ -1,0 +1,120 @@
+import { z } from 'zod';
+
+/** Our three verdicts; wording is ours, text first (colour only ever as emphasis). */
+export const Verdict = z.enum(['within tolerance', 'needs review', 'beyond action level']);
+export type Verdict = z.infer<typeof Verdict>;
+
+export const CaseCategory = z.enum(['on-axis-open', 'off-axis-or-wedged', 'irregular-or-small', 'large-ssd', 'heterogeneous', 'modulated']);
+export type CaseCategory = z.infer<typeof CaseCategory>;
+
+export const PointSource = z.enum(['user', 'beam-dose-specification-point', 'dose-reference', 'prescription-point', 'isocenter', 'suggested']);
+
+export const CalculationPoint = z.object({
+  source: PointSource,
+  /** Why this point: which attribute or option named it. */
+  reason: z.string(),
+  patientMm: z.tuple([z.number(), z.number(), z.number()]),
+  /** Whether the planning system's Beam Dose is stated at this point (else the comparison is an assumption). */
+  planningSystemDoseHere: z.boolean(),
+});
+export type CalculationPoint = z.infer<typeof CalculationPoint>;
+
+export const FactorJson = z.object({ key: z.string(), label: z.string(), value: z.number(), args: z.array(z.number()), name: z.string().optional() });
+
+const IssueJson = z.object({
+  severity: z.enum(['error', 'warning']), code: z.string(), message: z.string(),
+  file: z.string().optional(), path: z.string().optional(), beamNumber: z.number().optional(), beamName: z.string().optional(),
+  expected: z.string().optional(), found: z.string().optional(),
+});
+
+export const PointFitness = z.object({
+  /** Distance from the point to the nearest field edge at its depth, cm (negative: outside the field). */
+  edgeDistanceCm: z.number(),
+  flags: z.array(z.string()),
+  suggestion: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), depthCm: z.number(), offAxisCm: z.number(), edgeDistanceCm: z.number() }).optional(),
+});
+
+export const BeamCheck = z.object({
+  beamNumber: z.number(),
+  beamName: z.string().optional(),
+  radiationType: z.string(),
+  nominalEnergy: z.number().optional(),
+  status: z.enum(['checked', 'not checked']),
+  /** For a beam not checked: why, in words. */
+  reason: z.string().optional(),
+  plannedMu: z.number().optional(),
+  planningSystemDoseCGy: z.number().optional(),
+  point: CalculationPoint.optional(),
+  calculation: z
+    .object({
+      machineBeam: z.string(),
+      setup: z.enum(['SSD', 'SAD']),
+      setupReason: z.string(),
+      ssdCm: z.number(),
+      depthCm: z.number(),
+      offAxisCm: z.number(),
+      collimatorFieldCm: z.object({ x: z.number(), y: z.number() }),
+      collimatorSquareCm: z.number(),
+      irradiatedSquareCm: z.number(),
+      wedgeId: z.string().optional(),
+      approximations: z.array(z.string()),
+      factors: z.array(FactorJson),
+      dosePerMuCGy: z.number(),
+      independentDoseCGy: z.number(),
+      independentMu: z.number().optional(),
+      doseDeviationPercent: z.number().optional(),
+      muDeviationPercent: z.number().optional(),
+      clamps: z.array(z.string()),
+    })
+    .optional(),
+  category: CaseCategory.optional(),
+  tolerancePercent: z.number().optional(),
+  actionPercent: z.number().optional(),
+  /** The deviation the verdict was judged on, and on what basis. */
+  judgedDeviationPercent: z.number().optional(),
+  judgedOn: z.enum(['beam dose', 'share of the point dose']).optional(),
+  fitness: PointFitness.optional(),
+  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number() }).optional(),
+  verdict: Verdict.optional(),
+  verdictReasons: z.array(z.string()),
+});
+export type BeamCheck = z.infer<typeof BeamCheck>;
+
+export const PointTotal = z.object({
+  pointPatientMm: z.tuple([z.number(), z.number(), z.number()]),
+  beams: z.array(z.number()),
+  independentDoseCGy: z.number(),
+  planningSystemDoseCGy: z.number(),
+  deviationPercent: z.number(),
+  prescriptionPerFractionCGy: z.number().optional(),
+  independentVsPrescriptionPercent: z.number().optional(),
+  planningSystemVsPrescriptionPercent: z.number().optional(),
+  complete: z.boolean(),
+});
+
+export const FractionGroupCheck = z.object({
+  number: z.number(),
+  fractionsPlanned: z.number().optional(),
+  beams: z.array(BeamCheck),
+  totals: z.array(PointTotal),
+});
+export type FractionGroupCheck = z.infer<typeof FractionGroupCheck>;
+
+export const PlanCheck = z.object({
+  file: z.string(),
+  fileSha256: z.string(),
+  planLabel: z.string(),
+  planName: z.string().optional(),
+  patientId: z.string().optional(),
+  sopInstanceUid: z.string(),
+  approvalStatus: z.string().optional(),
+  machine: z.object({ planName: z.string(), dataName: z.string(), via: z.string() }).optional(),
+  fractionGroups: z.array(FractionGroupCheck),
+  /** Over the whole course, per point: Σ fractions × dose. */
+  courseTotals: z.array(PointTotal),
+  verdict: Verdict,
+  fullyVerified: z.boolean(),
+  issues: z.array(IssueJson),
+  warnings: z.array(z.string()),
+});
+export type PlanCheck = z.infer<typeof PlanCheck>;

@@ -1,0 +1,105 @@
+import type { BeamCheck, PlanCheck } from '../model/index.js';
+import type { CheckDocument } from './check-json.js';
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+const n = (v: number | undefined, d: number) => (v === undefined ? '—' : v.toFixed(d));
+const signed = (v: number | undefined, d = 1) => (v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(d)}`);
+const mm = (p: readonly number[]) => `(${p.map((v) => v.toFixed(1)).join(', ')}) mm`;
+
+/** Deviation of each checked beam against its tolerance and action-level bands, as inline SVG. */
+function deviationChart(beams: readonly BeamCheck[]): string {
+  const rows = beams.filter((b) => b.calculation?.doseDeviationPercent !== undefined);
+  if (!rows.length) return '';
+  const span = Math.max(...rows.map((b) => Math.max(b.actionPercent! * 1.5, Math.abs(b.judgedDeviationPercent ?? b.calculation!.doseDeviationPercent!) + 1)));
+  const width = 640;
+  const left = 150;
+  const plot = width - left - 20;
+  const rowH = 26;
+  const x = (v: number) => left + ((v + span) / (2 * span)) * plot;
+  const height = rows.length * rowH + 34;
+  const parts: string[] = [`<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of each beam against its levels">`];
+  rows.forEach((b, i) => {
+    const y = 8 + i * rowH;
+    const dev = b.judgedDeviationPercent ?? b.calculation!.doseDeviationPercent!;
+    parts.push(
+      `<text x="4" y="${y + 15}" font-size="11">beam ${b.beamNumber} ${esc(b.beamName ?? '')}</text>`,
+      `<rect x="${x(-b.actionPercent!)}" y="${y}" width="${x(b.actionPercent!) - x(-b.actionPercent!)}" height="20" fill="#eee" stroke="#999"/>`,
+      `<rect x="${x(-b.tolerancePercent!)}" y="${y}" width="${x(b.tolerancePercent!) - x(-b.tolerancePercent!)}" height="20" fill="#ddd" stroke="#666"/>`,
+      `<line x1="${x(dev)}" y1="${y - 2}" x2="${x(dev)}" y2="${y + 22}" stroke="#000" stroke-width="3"/>`,
+      // The value beside its mark, on whichever side has room.
+      x(dev) > width - 70
+        ? `<text x="${x(dev) - 6}" y="${y + 15}" font-size="10" text-anchor="end">${signed(dev)} %</text>`
+        : `<text x="${x(dev) + 6}" y="${y + 15}" font-size="10">${signed(dev)} %</text>`,
+    );
+  });
+  const axisY = 8 + rows.length * rowH + 4;
+  parts.push(`<line x1="${left}" y1="${axisY}" x2="${left + plot}" y2="${axisY}" stroke="#000"/>`);
+  for (const t of [-span, -span / 2, 0, span / 2, span]) {
+    parts.push(`<text x="${x(t)}" y="${axisY + 14}" font-size="10" text-anchor="middle">${signed(t)} %</text>`);
+  }
+  parts.push('</svg>');
+  return `<figure>${parts.join('')}<figcaption>Deviation of each beam (black mark) against its tolerance (inner band) and action level (outer band).</figcaption></figure>`;
+}
+
+/** The calculation of one beam written out the way a physicist writes a hand calculation. */
+function handCalculation(b: BeamCheck): string {
+  if (b.status !== 'checked' || !b.calculation) return `<p><b>Beam ${b.beamNumber} ${esc(b.beamName ?? '')}</b>: not checked — ${esc(b.reason ?? '')}</p>`;
+  const c = b.calculation;
+  const lines = c.factors.map((f) => `<tr><td>${esc(f.label)}</td><td class="num">${f.value.toFixed(4)}</td></tr>`).join('');
+  return `<section class="beam"><h4>Beam ${b.beamNumber} ${esc(b.beamName ?? '')} — ${esc(c.machineBeam)}, ${c.setup} setup</h4>
+<p>Point ${mm(b.point!.patientMm)}: ${esc(b.point!.reason)}. ${c.setup} setup: ${esc(c.setupReason)}. Depth ${c.depthCm.toFixed(2)} cm below a flat surface at SSD ${c.ssdCm.toFixed(1)} cm,
+${c.offAxisCm.toFixed(2)} cm off axis. Collimator ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
+irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
+<table class="calc">${lines}<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
+<p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>
+(planning system ${n(b.planningSystemDoseCGy, 1)} cGy, ${signed(c.doseDeviationPercent)} %).
+MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).
+Category ${esc(b.category ?? '')}: tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %. Verdict: <b>${esc(b.verdict ?? '')}</b>.</p>
+${b.verdictReasons.length ? `<ul>${b.verdictReasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>` : ''}
+${c.clamps.length ? `<p class="note">Clamped lookups: ${c.clamps.map(esc).join('; ')}</p>` : ''}</section>`;
+}
+
+function planSection(p: PlanCheck): string {
+  const beams = p.fractionGroups.flatMap((g) => g.beams);
+  const rows = p.fractionGroups.map((g) => g.beams.map((b) => `<tr><td>${g.number}</td><td>${b.beamNumber}</td><td>${esc(b.beamName ?? '')}</td>
+<td>${b.nominalEnergy ?? '—'} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}</td><td>${b.calculation?.setup ?? '—'}</td><td class="num">${n(b.calculation?.depthCm, 2)}</td>
+<td class="num">${n(b.calculation?.collimatorSquareCm, 2)}</td><td class="num">${n(b.calculation?.irradiatedSquareCm, 2)}</td><td class="num">${n(b.plannedMu, 1)}</td>
+<td class="num">${n(b.calculation?.independentMu, 1)}</td><td class="num">${n(b.planningSystemDoseCGy, 1)}</td><td class="num">${n(b.calculation?.independentDoseCGy, 1)}</td>
+<td class="num">${signed(b.calculation?.doseDeviationPercent)}</td><td>${b.status === 'checked' ? esc(b.verdict ?? '') : `not checked: ${esc(b.reason ?? '')}`}</td></tr>`).join('')).join('');
+  const totals = p.fractionGroups.flatMap((g) => g.totals.map((t) => `<li>Fraction group ${g.number}, point ${mm(t.pointPatientMm)}: independent ${t.independentDoseCGy.toFixed(1)} cGy,
+planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${t.prescriptionPerFractionCGy !== undefined ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''}${t.complete ? '' : ' — incomplete'}</li>`)).join('');
+  return `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
+<p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256 <code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
+<table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU plan</th><th>MU indep</th><th>TPS cGy</th><th>indep cGy</th><th>dev %</th><th>verdict</th></tr></thead><tbody>${rows}</tbody></table>
+${totals ? `<ul>${totals}</ul>` : ''}
+${deviationChart(beams.filter((b) => b.status === 'checked'))}
+${beams.map(handCalculation).join('\n')}
+${p.warnings.length ? `<p class="note">${p.warnings.map(esc).join('<br>')}</p>` : ''}
+${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join('<br>')}</p>` : ''}</section>`;
+}
+
+/** One self-contained HTML file (no external assets), printable on A4 or Letter, for the chart-round binder. */
+export function checkHtml(doc: CheckDocument): string {
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>plumbline check ${esc(doc.createdAt)}</title>
+<style>
+@page { size: A4; margin: 15mm; }
+body { font: 10pt/1.35 system-ui, sans-serif; color: #000; max-width: 190mm; margin: auto; }
+h1 { font-size: 15pt; } h2 { font-size: 12pt; border-top: 1px solid #000; padding-top: 6px; } h4 { margin: 8px 0 2px; }
+table { border-collapse: collapse; margin: 4px 0; } td, th { border: 1px solid #999; padding: 1px 4px; font-size: 8.5pt; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; } table.calc td { border: none; border-bottom: 1px dotted #999; }
+tr.total td { font-weight: bold; } .note { font-size: 8.5pt; } .caution { border: 2px solid #000; padding: 6px; font-weight: bold; }
+section.plan, section.beam { break-inside: avoid-page; } code { font-size: 8pt; word-break: break-all; }
+</style></head><body>
+<h1>plumbline — independent MU check</h1>
+<p class="caution">${esc(doc.caution)}</p>
+<p>Created ${esc(doc.createdAt)} by plumbline ${esc(doc.tool.version)}. Beam data: ${esc(doc.beamData.machine)}, version ${esc(doc.beamData.dataVersion)}${doc.beamData.invented ? ' — <b>INVENTED DEMO DATA, never for a patient</b>' : ''};
+manifest ${esc(doc.beamData.manifest)}, SHA-256 of manifest and tables <code>${doc.beamData.sha256}</code>.
+Deviation = ${esc(doc.deviationDefinition)}. Policy: ${esc(doc.policy.description ?? 'custom')}.</p>
+<p>Summary: ${doc.summary.plans} plan(s), ${doc.summary.beamsChecked} beam(s) checked, ${doc.summary.beamsNotChecked} not checked;
+${doc.summary.verdicts['within tolerance']} within tolerance, ${doc.summary.verdicts['needs review']} need review, ${doc.summary.verdicts['beyond action level']} beyond action level; ${doc.summary.filesRefused} file(s) refused.</p>
+${doc.plans.map(planSection).join('\n')}
+${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>${esc(i.file ?? '')}: ${esc(i.message)}</li>`).join('')}</ul>` : ''}
+<p class="caution">${esc(doc.caution)}</p>
+</body></html>
+`;
+}

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+import { PlanCheck } from '../model/index.js';
+
+const IssueJson = z.object({
+  severity: z.enum(['error', 'warning']), code: z.string(), message: z.string(), file: z.string().optional(), path: z.string().optional(),
+  tag: z.string().optional(), beamNumber: z.number().optional(), beamName: z.string().optional(), controlPointIndex: z.number().optional(),
+  line: z.number().optional(), column: z.number().optional(), expected: z.string().optional(), found: z.string().optional(),
+});
+
+/** The `check --json` document. Bump schemaVersion on any change a consumer could notice. */
+export const CheckDocument = z.object({
+  schemaVersion: z.literal(1),
+  kind: z.literal('plumbline.check'),
+  tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
+  createdAt: z.string(),
+  deviationDefinition: z.literal('(independent − planning system) / planning system'),
+  beamData: z.object({ manifest: z.string(), sha256: z.string(), machine: z.string(), dataVersion: z.string(), invented: z.boolean() }),
+  policy: z.object({ description: z.string().optional(), levels: z.record(z.string(), z.object({ tolerancePercent: z.number(), actionPercent: z.number() })) }),
+  plans: z.array(PlanCheck),
+  refused: z.array(IssueJson),
+  summary: z.object({
+    plans: z.number(), beamsChecked: z.number(), beamsNotChecked: z.number(), filesRefused: z.number(),
+    verdicts: z.object({ 'within tolerance': z.number(), 'needs review': z.number(), 'beyond action level': z.number() }),
+  }),
+  caution: z.string(),
+});
+export type CheckDocument = z.infer<typeof CheckDocument>;
