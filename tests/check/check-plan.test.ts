@@ -1,0 +1,87 @@
+import { describe, expect, it } from 'vitest';
+import { DEFAULT_POLICY, Policy, verdictFor } from '../../src/check/index.js';
+import { beams, check, importOrThrow } from '../helpers/check-run.js';
+import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
+import { fileURLToPath } from 'node:url';
+
+const clinic = (f: string) => fileURLToPath(new URL(`../../fixtures/demo/clinic/${f}`, import.meta.url));
+const demo = machine(DEMO_MANIFEST);
+
+describe('verdicts', () => {
+  it('within the tolerance, beyond the action level, or between (boundaries inclusive of the tolerance)', () => {
+    expect(verdictFor(2, 2, 3)).toBe('within tolerance');
+    expect(verdictFor(-2.01, 2, 3)).toBe('needs review');
+    expect(verdictFor(3, 2, 3)).toBe('needs review');
+    expect(verdictFor(-3.01, 2, 3)).toBe('beyond action level');
+  });
+  it('the shipped policy is valid and covers every category', () => {
+    expect(Policy.safeParse(DEFAULT_POLICY).success).toBe(true);
+    expect(Policy.safeParse({ ...DEFAULT_POLICY, levels: { 'on-axis-open': { tolerancePercent: 2, actionPercent: 1 } } }).success).toBe(false);
+  });
+});
+
+describe('checking the demo clinic', () => {
+  it('flags the mis-typed MU of the lateral tangent beyond the action level, and the other beam within tolerance', () => {
+    const r = check(importOrThrow(clinic('breast-tangents.dcm')), demo);
+    const [med, lat] = beams(r);
+    expect(med!.verdict).toBe('within tolerance');
+    expect(lat!.verdict).toBe('beyond action level');
+    expect(lat!.calculation!.muDeviationPercent).toBeLessThan(-8);
+    expect(lat!.category).toBe('off-axis-or-wedged');
+    expect(r.verdict).toBe('beyond action level');
+  });
+
+  it('lists the electron field as not checked, with no number, and never calls the plan fully verified', () => {
+    const r = check(importOrThrow(clinic('chestwall-electron.dcm')), demo);
+    const b = beams(r)[0]!;
+    expect(b.status).toBe('not checked');
+    expect(b.reason).toMatch(/electron/);
+    expect(b.calculation).toBeUndefined();
+    expect(r.fullyVerified).toBe(false);
+    expect(r.verdict).toBe('needs review');
+  });
+
+  it('checks the SSD spine field with the PDD formalism and the four-field box with TPR', () => {
+    expect(beams(check(importOrThrow(clinic('spine-ssd.dcm')), demo))[0]!.calculation!.factors.map((f) => f.key)).toContain('PDD');
+    const box = check(importOrThrow(clinic('pelvis-box.dcm')), demo);
+    expect(beams(box).every((b) => b.calculation!.setup === 'SAD' && b.verdict === 'within tolerance')).toBe(true);
+    expect(box.fullyVerified).toBe(true);
+    expect(box.fractionGroups[0]!.totals[0]!.prescriptionPerFractionCGy).toBeCloseTo(200, 10);
+  });
+
+  it('says "approximated" for the MLC-shaped field and puts it in the irregular category', () => {
+    const b = beams(check(importOrThrow(clinic('lung-mlc.dcm')), demo))[0]!;
+    expect(b.calculation!.approximations.join(' ')).toMatch(/approximated by its equivalent square/);
+    expect(b.category).toBe('irregular-or-small');
+  });
+});
+
+describe('the calculation point', () => {
+  const brain = importOrThrow(clinic('brain-laterals.dcm'));
+  it('a point 1 cm inside the field edge is flagged, a better point suggested, and with --suggest-point checked there', () => {
+    // Lateral beams at gantry 90/270 with Y jaws ±70 mm: Yb runs along the patient's head-foot axis, so z = 120 + 60 mm is 1 cm inside.
+    const r = check(brain, demo, { point: [0, 0, 180], suggest: true });
+    const b = beams(r)[0]!;
+    expect(b.point!.source).toBe('user');
+    expect(b.fitness!.flags.join(' ')).toMatch(/1\.\d cm from the field edge/);
+    expect(b.fitness!.suggestion!.patientMm[2]).toBeCloseTo(120, 0);
+    expect(b.suggestedPoint!.independentDoseCGy).toBeGreaterThan(0);
+    expect(b.verdict).not.toBe('within tolerance');
+  });
+
+  it('a beam giving little to the point is judged on its share of the point dose', () => {
+    const plan = structuredClone(brain) as any;
+    plan.fractionGroups[0].beams[1].beamDoseGy = 0.08; // 7.4 % of the point dose
+    plan.fractionGroups[0].beams[1].beamMeterset = 9.5;
+    const b = beams(check(plan, demo))[1]!;
+    expect(b.judgedOn).toBe('share of the point dose');
+    expect(b.verdictReasons.join(' ')).toMatch(/judged on its share/);
+    expect(Math.abs(b.judgedDeviationPercent!)).toBeLessThan(Math.abs(b.calculation!.doseDeviationPercent!));
+  });
+
+  it('a plan machine the beam data do not know is an input error naming it, never other data', () => {
+    const r = check(brain, demo, { aliases: { NG_LINAC1: 'OTHER' } });
+    expect(r.issues[0]!.message).toMatch(/no beam data for machine "NG_LINAC1" \(mapped to "OTHER"\)/);
+    expect(beams(r).every((b) => b.status === 'not checked')).toBe(true);
+  });
+});

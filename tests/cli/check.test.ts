@@ -1,0 +1,79 @@
+import { spawnSync } from 'node:child_process';
+import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { CheckDocument } from '../../src/report/check-json.js';
+import { runPython } from '../../scripts/lib/find-python.js';
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const CLINIC = join(ROOT, 'fixtures/demo/clinic');
+const plumbline = (...args: string[]) =>
+  spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+
+describe('plumbline check', () => {
+  it('exit 0 when every beam of every plan is within tolerance', () => {
+    const r = plumbline('check', join(CLINIC, 'pelvis-box.dcm'), join(CLINIC, 'brain-laterals.dcm'), '--beam-data', 'demo');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/summary: 2 plan\(s\), 6 beam\(s\) checked, 0 not checked; 2 within tolerance/);
+    expect(r.stdout).toMatch(/deviation = \(independent − planning system\) \/ planning system/);
+    expect(r.stdout).toMatch(/an aid to, never a replacement for/);
+  });
+
+  it('exit 1 for the demo clinic: a plan beyond the action level and one not fully verified', () => {
+    const r = plumbline('check', CLINIC, '--beam-data', 'demo');
+    expect(r.status).toBe(1);
+    expect(r.stdout).toMatch(/RT Plan "L BREAST TG".*BEYOND ACTION LEVEL/);
+    expect(r.stdout).toMatch(/beam 1 E9 SCAR: not checked: electron beams/);
+  });
+
+  it('--json: one document its schema accepts, with the SHA-256 of each plan as sha256sum computes it', () => {
+    const r = plumbline('check', CLINIC, '--beam-data', 'demo', '--json');
+    const doc = CheckDocument.parse(JSON.parse(r.stdout));
+    expect(doc.plans).toHaveLength(6);
+    const file = doc.plans[0]!.file;
+    const reference = spawnSync('sha256sum', [file], { encoding: 'utf8' }).stdout.split(' ')[0]; // coreutils
+    expect(doc.plans[0]!.fileSha256).toBe(reference);
+    expect(doc.beamData.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(doc.beamData.invented).toBe(true);
+  });
+
+  it('--html writes one self-contained page with the caution, the chart and every hand calculation', () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'plumbline-html-')), 'report.html');
+    const r = plumbline('check', CLINIC, '--beam-data', 'demo', '--html', out);
+    expect(r.status).toBe(1);
+    const html = readFileSync(out, 'utf8');
+    expect(html).toMatch(/^<!doctype html>/);
+    expect(html).not.toMatch(/(src|href)=["']?(https?:)?\/\//);
+    expect(html).not.toMatch(/<(script|link)\b/);
+    expect(html.match(/<svg /g)!.length).toBeGreaterThanOrEqual(5);
+    expect(html.match(/dose per MU \(cGy\/MU\)/g)).toHaveLength(10);
+    expect(html).toMatch(/an aid to, never a replacement for/);
+    expect(html).toMatch(/@page \{ size: A4/);
+  });
+
+  it('goes on past a bad file in a batch, reports it, and exits 2', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-batch-'));
+    copyFileSync(join(CLINIC, 'spine-ssd.dcm'), join(dir, 'good.dcm'));
+    const samples = runPython('import pydicom, os; print(os.path.join(os.path.dirname(pydicom.__file__), "data", "test_files"))').trim();
+    copyFileSync(join(samples, 'rtplan_truncated.dcm'), join(dir, 'truncated.dcm'));
+    writeFileSync(join(dir, 'notes.txt'), 'not a plan');
+    const r = plumbline('check', dir, '--beam-data', 'demo');
+    expect(r.status).toBe(2);
+    expect(r.stdout).toMatch(/RT Plan "SPINE PA".*WITHIN TOLERANCE/);
+    expect(r.stdout).toMatch(/1 file\(s\) refused/);
+    expect(r.stderr).toMatch(/truncated\.dcm: the file .* ends before the data it declares/);
+  });
+
+  it('a plan whose energy the beam data lack is refused with exit 2, naming what is missing', () => {
+    const r = plumbline('check', join(ROOT, 'fixtures/demo/plans/four-field-box.dcm'), '--beam-data', 'demo');
+    expect(r.status).toBe(2);
+    expect(r.stdout).toMatch(/no 18 MV photon beam in its beam data; expected 6 MV, 10 MV, 15 MV/);
+  });
+
+  it('refuses bad options', () => {
+    expect(plumbline('check', CLINIC, '--beam-data', 'demo', '--point', '1,2').stderr).toMatch(/--point must be x,y,z/);
+    expect(plumbline('check', CLINIC, '--beam-data', 'demo', '--machine-alias', 'X').stderr).toMatch(/PLANNAME=DATANAME/);
+  });
+});

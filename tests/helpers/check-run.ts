@@ -1,0 +1,34 @@
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
+import { importPlanFile } from '../../src/dicom/index.js';
+import type { MachineModel, Plan, PlanCheck } from '../../src/model/index.js';
+import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
+import { type PlanSpec, planDataset } from '../../scripts/fixtures/plan-parts.js';
+
+const work = mkdtempSync(join(tmpdir(), 'plumbline-check-'));
+
+/** Writes a plan from a specification with dcmjs and reads it back with the importer. */
+export function planFromSpec(spec: PlanSpec): { file: string; plan: Plan } {
+  const file = join(work, spec.file);
+  writeDataset(file, planDataset(spec), RT_PLAN_STORAGE);
+  const r = importPlanFile(file);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return { file, plan: r.value.plan };
+}
+
+export function importOrThrow(file: string): Plan {
+  const r = importPlanFile(file);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return r.value.plan;
+}
+
+export function check(plan: Plan, machine: MachineModel, options: { aliases?: Record<string, string>; point?: [number, number, number]; suggest?: boolean } = {}): PlanCheck {
+  return checkPlan(plan, { path: 'test.dcm', sha256: '0' }, {
+    machine, policy: DEFAULT_POLICY, aliases: new Map(Object.entries(options.aliases ?? {})),
+    ...(options.point ? { pointPatientMm: options.point } : {}), suggestPoint: options.suggest ?? false,
+  });
+}
+
+export const beams = (r: PlanCheck) => r.fractionGroups.flatMap((g) => g.beams);
