@@ -14,34 +14,43 @@ export type NumberListResult =
 
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i); // exact up to 1e22
 
+/** The same for a string (tests and callers outside the reader). */
 export function parseNumberList(text: string, integerOnly: boolean): NumberListResult {
-  const values: number[] = [];
-  const n = text.length;
-  let start = 0;
-  let index = 0;
-  while (start <= n) {
-    let end = text.indexOf('\\', start);
-    if (end < 0) end = n;
+  const bytes = new TextEncoder().encode(text);
+  return parseNumberBytes(bytes, 0, bytes.length, integerOnly);
+}
+
+/** The same, straight from the element's bytes [from, to): no string is built for a valid value. */
+export function parseNumberBytes(bytes: Uint8Array, from: number, to: number, integerOnly: boolean): NumberListResult {
+  let count = 1;
+  for (let i = from; i < to; i++) if (bytes[i] === BACKSLASH) count++;
+  const values = new Array<number>(count);
+  let start = from;
+  for (let index = 0; index < count; index++) {
+    let end = start;
+    while (end < to && bytes[end] !== BACKSLASH) end++;
     let a = start;
     let b = end;
-    while (a < b && isPad(text.charCodeAt(a))) a++;
-    while (b > a && isPad(text.charCodeAt(b - 1))) b--;
-    const v = parseOne(text, a, b, integerOnly);
-    if (Number.isNaN(v)) return { ok: false, index, count: countValues(text), text: text.slice(a, b) };
-    values.push(v);
-    index++;
+    while (a < b && isPad(bytes[a]!)) a++;
+    while (b > a && isPad(bytes[b - 1]!)) b--;
+    const v = parseOne(bytes, a, b, integerOnly);
+    if (Number.isNaN(v)) return { ok: false, index, count, text: latin1(bytes, a, b) };
+    values[index] = v;
     start = end + 1;
   }
   return { ok: true, values };
 }
 
+const BACKSLASH = 0x5c;
+const latin1 = (b: Uint8Array, a: number, e: number) => String.fromCharCode(...b.subarray(a, e));
+
 const isPad = (c: number) => c === 0x20 || c === 0x00;
 
 /** The value of s[a, b), or NaN when it is not a valid DS (or IS) value. */
-function parseOne(s: string, a: number, b: number, integerOnly: boolean): number {
+function parseOne(s: Uint8Array, a: number, b: number, integerOnly: boolean): number {
   let i = a;
   let negative = false;
-  let c = s.charCodeAt(i);
+  let c = s[i]!;
   if (i < b && (c === 0x2b || c === 0x2d)) {
     negative = c === 0x2d;
     i++;
@@ -50,7 +59,7 @@ function parseOne(s: string, a: number, b: number, integerOnly: boolean): number
   let significant = 0; // digits accumulated into mantissa, leading zeros excluded
   let digits = 0;
   let scale = 0; // decimal exponent of the mantissa's last digit
-  while (i < b && (c = s.charCodeAt(i)) >= 0x30 && c <= 0x39) {
+  while (i < b && (c = s[i]!) >= 0x30 && c <= 0x39) {
     if (mantissa !== 0 || c !== 0x30) {
       mantissa = mantissa * 10 + (c - 0x30);
       significant++;
@@ -62,9 +71,9 @@ function parseOne(s: string, a: number, b: number, integerOnly: boolean): number
     if (digits === 0 || i !== b) return NaN;
     return significant > 15 ? slow(s, a, b) : negative ? -mantissa : mantissa;
   }
-  if (i < b && s.charCodeAt(i) === 0x2e) {
+  if (i < b && s[i]! === 0x2e) {
     i++;
-    while (i < b && (c = s.charCodeAt(i)) >= 0x30 && c <= 0x39) {
+    while (i < b && (c = s[i]!) >= 0x30 && c <= 0x39) {
       if (mantissa !== 0 || c !== 0x30) {
         mantissa = mantissa * 10 + (c - 0x30);
         significant++;
@@ -75,17 +84,17 @@ function parseOne(s: string, a: number, b: number, integerOnly: boolean): number
     }
   }
   if (digits === 0) return NaN;
-  if (i < b && ((c = s.charCodeAt(i)) === 0x65 || c === 0x45)) {
+  if (i < b && ((c = s[i]!) === 0x65 || c === 0x45)) {
     i++;
     let expNegative = false;
-    c = s.charCodeAt(i);
+    c = s[i]!;
     if (i < b && (c === 0x2b || c === 0x2d)) {
       expNegative = c === 0x2d;
       i++;
     }
     let exp = 0;
     let expDigits = 0;
-    while (i < b && (c = s.charCodeAt(i)) >= 0x30 && c <= 0x39) {
+    while (i < b && (c = s[i]!) >= 0x30 && c <= 0x39) {
       exp = exp * 10 + (c - 0x30);
       expDigits++;
       i++;
@@ -100,14 +109,8 @@ function parseOne(s: string, a: number, b: number, integerOnly: boolean): number
   return negative ? -magnitude : magnitude;
 }
 
-function slow(s: string, a: number, b: number): number {
-  const v = Number(s.slice(a, b));
+function slow(s: Uint8Array, a: number, b: number): number {
+  const v = Number(latin1(s, a, b));
   // A valid DS can still overflow a double (1e999): that is not a usable number either.
   return Number.isFinite(v) ? v : NaN;
-}
-
-function countValues(s: string): number {
-  let c = 1;
-  for (let i = 0; i < s.length; i++) if (s.charCodeAt(i) === 0x5c) c++;
-  return c;
 }

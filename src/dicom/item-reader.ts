@@ -1,6 +1,6 @@
 import type { DataSet, Element } from 'dicom-parser';
 import type { Issue, IssueCode, IssueSeverity } from '../model/issue.js';
-import { parseNumberList } from './decimal-string.js';
+import { parseNumberBytes } from './decimal-string.js';
 import { ATTRIBUTES, type Keyword } from './dictionary.js';
 
 /** Where an item sits, for messages: the file, the attribute path, and the beam / control point. */
@@ -101,7 +101,8 @@ export class ItemReader {
     if (!el) return undefined;
     const vr = el.vr ?? ATTRIBUTES[kw].vr;
     if (vr === 'DS' || vr === 'IS') {
-      const parsed = parseNumberList(this.rawText(el), vr === 'IS');
+      const b = this.ds.byteArray;
+      const parsed = parseNumberBytes(b, el.dataOffset, Math.min(el.dataOffset + el.length, b.length), vr === 'IS');
       if (parsed.ok) return parsed.values;
       const where = parsed.count > 1 ? `value ${parsed.index + 1} of ${parsed.count}` : 'value';
       this.report('error', 'invalid-number', kw, `${where} cannot be read as a number`,
