@@ -1,4 +1,5 @@
 import { Command, CommanderError } from 'commander';
+import { DEFAULT_POLICY } from '../check/policy.js';
 import { BeamDataError, InputError } from '../errors.js';
 import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
@@ -66,6 +67,13 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--json', 'print one versioned JSON document')
     .action((opts: Record<string, unknown>) => {
       outcome = runCalc(opts);
+    });
+
+  program
+    .command('policy')
+    .description('print the shipped action-level policy as JSON, to start a clinic policy file from')
+    .action(() => {
+      outcome = { stdout: [JSON.stringify(DEFAULT_POLICY, null, 2)], stderr: [], exitCode: 0 };
     });
 
   program
