@@ -8,15 +8,17 @@ import { resolveBeamDataPath } from './beam-data-path.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
 
-const positive = (what: string) =>
+/** A number option: finite, and > 0 (or >= 0 when zero is allowed), else a message naming the option. */
+const numberOption = (what: string, zeroAllowed: boolean) =>
   z.string().transform((s, ctx) => {
     const v = Number(s);
-    if (s.trim() === '' || !Number.isFinite(v) || v <= 0) {
-      ctx.addIssue({ code: 'custom', message: `${what} must be a positive number, found "${s}"` });
+    if (s.trim() === '' || !Number.isFinite(v) || v < 0 || (!zeroAllowed && v === 0)) {
+      ctx.addIssue({ code: 'custom', message: `${what} must be a ${zeroAllowed ? 'number >= 0' : 'positive number'}, found "${s}"` });
       return z.NEVER;
     }
     return v;
   });
+const positive = (what: string) => numberOption(what, false);
 
 /** The options of `plumbline calc`, validated before anything is computed. */
 export const CalcOptions = z
@@ -34,25 +36,11 @@ export const CalcOptions = z
       return { x: Number(m[1]), y: Number(m[2] ?? m[1]) };
     }),
     irradiated: positive('--irradiated (equivalent square, cm)').optional(),
-    depth: z.string().transform((s, ctx) => {
-      const v = Number(s);
-      if (s.trim() === '' || !Number.isFinite(v) || v < 0) {
-        ctx.addIssue({ code: 'custom', message: `--depth must be a number >= 0 (cm), found "${s}"` });
-        return z.NEVER;
-      }
-      return v;
-    }),
+    depth: numberOption('--depth (cm)', true),
     mu: positive('--mu').optional(),
     dose: positive('--dose (cGy)').optional(),
     ssd: positive('--ssd (cm)').optional(),
-    offAxis: z.string().transform((s, ctx) => {
-      const v = Number(s);
-      if (s.trim() === '' || !Number.isFinite(v) || v < 0) {
-        ctx.addIssue({ code: 'custom', message: `--off-axis must be a number >= 0 (cm), found "${s}"` });
-        return z.NEVER;
-      }
-      return v;
-    }).optional(),
+    offAxis: numberOption('--off-axis (cm)', true).optional(),
     wedge: z.string().min(1).optional(),
     tray: z.union([z.boolean(), z.string().min(1)]).optional(),
     json: z.boolean().default(false),
