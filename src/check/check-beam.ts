@@ -58,7 +58,10 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   if (!aperture || aperture.areaMm2 <= 0) return notChecked('the beam has no open aperture');
 
   // Geometry (mm) hands over to physics (cm) here, once.
-  const j = aperture.jawsMm;
+  // Sc follows the collimating opening: the jaws, or the leaves' extent along an axis without jaws.
+  const e = aperture.openExtentMm;
+  const j = { x1: aperture.hasJaws.x ? aperture.jawsMm.x1 : e.x1, x2: aperture.hasJaws.x ? aperture.jawsMm.x2 : e.x2,
+    y1: aperture.hasJaws.y ? aperture.jawsMm.y1 : e.y1, y2: aperture.hasJaws.y ? aperture.jawsMm.y2 : e.y2 };
   const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
   const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
   const irradiatedSquareCm = (4 * aperture.areaMm2) / aperture.perimeterMm / MM_PER_CM;
@@ -153,8 +156,8 @@ function suggest(aperture: NonNullable<ReturnType<typeof apertureAt>>, at: Retur
   let best = aperture.edgeDistanceMm(bx, by);
   const scale = at.sourceToPointAxialMm / sadMm;
   if (best * scale < policy.point.edgeMarginCm * MM_PER_CM) {
-    const j = aperture.jawsMm;
-    const x0 = Math.max(j.x1, -200), x1 = Math.min(j.x2, 200), y0 = Math.max(j.y1, -200), y1 = Math.min(j.y2, 200);
+    const j = aperture.openExtentMm;
+    const [x0, x1, y0, y1] = [j.x1, j.x2, j.y1, j.y2];
     for (let x = x0; x <= x1; x += 2) {
       for (let y = y0; y <= y1; y += 2) {
         const d = aperture.edgeDistanceMm(x, y);

@@ -139,7 +139,8 @@ function totals(plan: Plan, g: FractionGroup, beams: readonly BeamCheck[]): Tota
       pointPatientMm: point, beams: checked.map((b) => b.beamNumber), independentDoseCGy: ind, planningSystemDoseCGy: tps,
       deviationPercent: (100 * (ind - tps)) / tps,
       ...(rx !== undefined ? { prescriptionPerFractionCGy: rx, independentVsPrescriptionPercent: (100 * (ind - rx)) / rx, planningSystemVsPrescriptionPercent: (100 * (tps - rx)) / rx } : {}),
-      complete: checked.length === at.length,
+      // Beams not checked have no point of ours: any of them makes the group's totals incomplete.
+      complete: checked.length === at.length && beams.every((b) => b.status === 'checked'),
     });
   }
   return out;

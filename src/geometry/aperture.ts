@@ -27,6 +27,10 @@ export interface Aperture {
   readonly areaMm2: number;
   readonly perimeterMm: number;
   readonly centroidMm: readonly [number, number];
+  /** Bounding box of the open area: the collimating opening along an axis that has no jaws. */
+  readonly openExtentMm: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number };
+  /** Whether real jaws bound the opening along X and along Y. */
+  readonly hasJaws: { readonly x: boolean; readonly y: boolean };
   /** Signed distance from (x, y) to the nearest edge: positive inside the opening. */
   edgeDistanceMm(x: number, y: number): number;
 }
@@ -77,12 +81,18 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   }
   const perimeter = segments.reduce((s, g) => s + Math.hypot(g.bx - g.ax, g.by - g.ay), 0);
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
+  const open = bands.filter((band) => band.x1 > band.x0);
+  const u = [Math.min(...open.map((b) => b.x0)), Math.max(...open.map((b) => b.x1))];
+  const v = [Math.min(...open.map((b) => b.y0)), Math.max(...open.map((b) => b.y1))];
+  const [bx, by] = swapped ? [v, u] : [u, v];
   return {
     jawsMm: jaws,
     leaves: !!(mlc && leaves),
     areaMm2: area,
     perimeterMm: perimeter,
     centroidMm: centroid,
+    openExtentMm: open.length ? { x1: bx[0]!, x2: bx[1]!, y1: by[0]!, y2: by[1]! } : { x1: 0, x2: 0, y1: 0, y2: 0 },
+    hasJaws: { x: !!xj, y: !!yj },
     edgeDistanceMm(x: number, y: number): number {
       const [u, v] = swapped ? [y, x] : [x, y];
       let d = Infinity;

@@ -51,3 +51,13 @@ describe('aperture of jaws and leaves', () => {
     expect(a.perimeterMm).toBe(100);
   });
 });
+
+describe('an MLC without X jaws', () => {
+  it('takes the collimating extent along X from the leaves', () => {
+    const b: Beam = { ...beam({ pairs: 4, width: 10 }), limitingDevices: beam({ pairs: 4, width: 10 }).limitingDevices.filter((d) => d.type !== 'ASYMX') };
+    const c: ControlPoint = { ...cp([-1, 1], [-20, 20], [-30, -40, -30, 0, 30, 10, 30, 0]) };
+    const a = apertureAt(b, { ...c, devices: c.devices.filter((d) => d.type !== 'ASYMX') })!;
+    expect(a.hasJaws).toEqual({ x: false, y: true });
+    expect(a.openExtentMm).toEqual({ x1: -40, x2: 30, y1: -20, y2: 10 }); // the top pair is closed
+  });
+});
