@@ -60,6 +60,10 @@ const KEYWORDS = [
   'TableTopLateralPosition', 'TableTopPitchAngle', 'TableTopRollAngle', 'IsocenterPosition',
   'SurfaceEntryPoint', 'SourceToSurfaceDistance', 'CumulativeMetersetWeight',
   'CumulativeDoseReferenceCoefficient',
+  // CT Image
+  'ImagePositionPatient', 'ImageOrientationPatient', 'PixelSpacing', 'SliceThickness', 'Rows', 'Columns',
+  'BitsAllocated', 'BitsStored', 'PixelRepresentation', 'SamplesPerPixel', 'RescaleSlope', 'RescaleIntercept',
+  'InstanceNumber', 'PixelData',
 ] as const;
 
 const PY = `

@@ -5,3 +5,4 @@ export * from './load-machine.js';
 export * from './validate-tables.js';
 export * from './find-beam.js';
 export * from './manifest-json-schema.js';
+export * from './density-table.js';

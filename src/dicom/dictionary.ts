@@ -166,6 +166,20 @@ export const ATTRIBUTES = {
   SourceToSurfaceDistance: { tag: 'x300a0130', vr: 'DS', vm: '1', retired: false },
   CumulativeMetersetWeight: { tag: 'x300a0134', vr: 'DS', vm: '1', retired: false },
   CumulativeDoseReferenceCoefficient: { tag: 'x300a010c', vr: 'DS', vm: '1', retired: false },
+  ImagePositionPatient: { tag: 'x00200032', vr: 'DS', vm: '3', retired: false },
+  ImageOrientationPatient: { tag: 'x00200037', vr: 'DS', vm: '6', retired: false },
+  PixelSpacing: { tag: 'x00280030', vr: 'DS', vm: '2', retired: false },
+  SliceThickness: { tag: 'x00180050', vr: 'DS', vm: '1', retired: false },
+  Rows: { tag: 'x00280010', vr: 'US', vm: '1', retired: false },
+  Columns: { tag: 'x00280011', vr: 'US', vm: '1', retired: false },
+  BitsAllocated: { tag: 'x00280100', vr: 'US', vm: '1', retired: false },
+  BitsStored: { tag: 'x00280101', vr: 'US', vm: '1', retired: false },
+  PixelRepresentation: { tag: 'x00280103', vr: 'US', vm: '1', retired: false },
+  SamplesPerPixel: { tag: 'x00280002', vr: 'US', vm: '1', retired: false },
+  RescaleSlope: { tag: 'x00281053', vr: 'DS', vm: '1', retired: false },
+  RescaleIntercept: { tag: 'x00281052', vr: 'DS', vm: '1', retired: false },
+  InstanceNumber: { tag: 'x00200013', vr: 'IS', vm: '1', retired: false },
+  PixelData: { tag: 'x7fe00010', vr: 'OB or OW', vm: '1', retired: false },
 } as const satisfies Record<string, AttributeEntry>;
 
 export type Keyword = keyof typeof ATTRIBUTES;

@@ -10,3 +10,4 @@ export * from './beam-model.js';
 export * from './point-dose.js';
 export * from './check-result.js';
 export * from './factor-label.js';
+export * from './ct-volume.js';

@@ -1,0 +1,126 @@
+/**
+ * Depths through analytic phantoms written as DICOM CT series (scripts/fixtures/ct-phantom.ts),
+ * compared with depths computed by hand from the phantom's geometry (exact: the phantom's faces lie
+ * on voxel boundaries). HU to density for these tests (test data, not a calibration):
+ * −1000 → 0, 0 → 1, 1000 → 1.5, 3000 → 2.5.
+ */
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { loadDensityTable } from '../../src/beamdata/index.js';
+import { readCtSeries } from '../../src/dicom/index.js';
+import { beamFrame, ctDepth, ctSsdAlongAxisMm, traceRay, type Vec3 } from '../../src/geometry/index.js';
+import type { ControlPoint, CtVolume, PatientPosition } from '../../src/model/index.js';
+import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
+
+const work = mkdtempSync(join(tmpdir(), 'plumbline-ct-'));
+const tableFile = join(work, 'hu-density.csv');
+writeFileSync(tableFile, '# test data\nhu,rho\n-1000,0\n0,1\n1000,1.5\n3000,2.5\n');
+const table = (() => { const t = loadDensityTable(tableFile); if (!t.ok) throw new Error('table'); return t.value; })();
+const opts = { bodyThresholdHu: -500, density: table.density };
+
+/** 64³ voxels of 4 mm centred on the origin: faces at multiples of 4 mm, so ±100 mm lies on a boundary. */
+function phantom(name: string, hu: (x: number, y: number, z: number) => number): CtVolume {
+  const dir = join(work, name);
+  mkdirSync(dir);
+  const files = writeCtPhantom(dir, { name, columns: 64, rows: 64, slices: 64, spacingMm: [4, 4, 4], originMm: [-126, -126, -126], frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.1', hu });
+  const r = readCtSeries(files);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return r.value;
+}
+const inBox = (x: number, y: number, z: number) => Math.abs(x) < 100 && Math.abs(y) < 100 && Math.abs(z) < 100;
+const water = phantom('water', (x, y, z) => (inBox(x, y, z) ? 0 : -1000));
+const lung = phantom('lung', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > -40 && y < 0 ? -750 : 0));
+const bone = phantom('bone', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > 20 && y < 40 ? 1000 : 0));
+
+const cp = (gantry: number, collimator = 0, couch = 0): ControlPoint => ({ index: 0, gantryAngleDeg: gantry, collimatorAngleDeg: collimator, couchAngleDeg: couch,
+  cumulativeMetersetWeight: 0, isocenterPatientMm: [0, 0, 0], devices: [], wedgePositions: [], doseReferenceCoefficients: [] });
+const depth = (v: CtVolume, pos: PatientPosition, c: ControlPoint, point: Vec3) => {
+  const f = beamFrame(c, pos, 1000)!;
+  const r = ctDepth(v, f.sourcePatientMm, point, opts);
+  if (!r.ok) throw new Error(r.message);
+  return r.value;
+};
+
+describe('the ray tracer', () => {
+  it('the pieces of a ray through the volume add up to its length inside, each in the voxel it crosses', () => {
+    let sum = 0;
+    traceRay(water, [-300, 1, 2], [300, 1, 2], (voxel, _start, length) => { sum += length; expect(voxel).toBeGreaterThanOrEqual(0); });
+    expect(sum).toBeCloseTo(256, 9); // 64 voxels of 4 mm
+    let diagonal = 0;
+    traceRay(water, [-128, -128, -128], [128, 128, 128], (_v, _s, l) => { diagonal += l; });
+    expect(diagonal).toBeCloseTo(256 * Math.sqrt(3), 9);
+  });
+});
+
+describe('depths through the water box (faces at ±100 mm)', () => {
+  it('HFS gantry 0, point 50 mm posterior: SSD 900, depth 150 mm, radiological 150 mm', () => {
+    const d = depth(water, 'HFS', cp(0), [0, 50, 0]);
+    expect(d.ssdMm).toBeCloseTo(900, 1);
+    expect(d.geometricDepthMm).toBeCloseTo(150, 1);
+    expect(d.radiologicalDepthMm).toBeCloseTo(150, 1);
+  });
+  it("HFS gantry 90 (source at the patient's left), point 30 mm to the right: SSD 900, depth 130 mm", () => {
+    const d = depth(water, 'HFS', cp(90, 30), [-30, 0, 0]);
+    expect([d.ssdMm, d.geometricDepthMm]).toEqual([expect.closeTo(900, 1), expect.closeTo(130, 1)]);
+  });
+  it('FFS gantry 90 (the source at the right), point 30 mm to the left: depth 130 mm', () => {
+    expect(depth(water, 'FFS', cp(90), [30, 0, 0]).geometricDepthMm).toBeCloseTo(130, 1);
+  });
+  it('HFS gantry 90, couch 90 (the source inferior), point 20 mm superior: SSD 900, depth 120 mm', () => {
+    const d = depth(water, 'HFS', cp(90, 0, 90), [0, 0, 20]);
+    expect([d.ssdMm, d.geometricDepthMm]).toEqual([expect.closeTo(900, 1), expect.closeTo(120, 1)]);
+  });
+  it('HFP gantry 0 (the source posterior), point 40 mm anterior: depth 140 mm', () => {
+    expect(depth(water, 'HFP', cp(0), [0, -40, 0]).geometricDepthMm).toBeCloseTo(140, 1);
+  });
+  it('an off-axis point, HFS gantry 0, (30, 20, 0): the slant path to the surface y = −100', () => {
+    // Source (0, −1000, 0); the ray meets y = −100 at 900/1020 of its length (hand calculation).
+    const total = Math.hypot(30, 1020);
+    const d = depth(water, 'HFS', cp(0), [30, 20, 0]);
+    expect(d.ssdMm).toBeCloseTo((total * 900) / 1020, 1);
+    expect(d.geometricDepthMm).toBeCloseTo((total * 120) / 1020, 1);
+  });
+  it('the SSD along the central axis matches a plan written for the phantom (isocenter 100 mm deep: SSD 900 mm)', () => {
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    expect(ctSsdAlongAxisMm(water, f.sourcePatientMm, f.directionPatient, 2000, -500)).toBeCloseTo(900, 1);
+  });
+});
+
+describe('heterogeneous phantoms', () => {
+  it('a lung slab (ρ 0.25) from y = −40 to 0: radiological depth 60 + 40·0.25 + 50 = 120 mm, interface 50 mm upstream', () => {
+    const d = depth(lung, 'HFS', cp(0), [0, 50, 0]);
+    expect(d.geometricDepthMm).toBeCloseTo(150, 1);
+    expect(d.radiologicalDepthMm).toBeCloseTo(120, 1);
+    expect(d.nearestInterfaceMm).toBeCloseTo(50, 1);
+    expect(d.densityRange).toEqual([0.25, 1]);
+  });
+  it('a bone slab (ρ 1.5) from y = 20 to 40: radiological depth 120 + 20·1.5 + 10 = 160 mm', () => {
+    expect(depth(bone, 'HFS', cp(0), [0, 50, 0]).radiologicalDepthMm).toBeCloseTo(160, 1);
+  });
+  it('refuses HU outside the density table rather than extrapolating', () => {
+    const narrow = join(work, 'narrow.csv');
+    writeFileSync(narrow, 'hu,rho\n-1000,0\n500,1.3\n');
+    const t = loadDensityTable(narrow);
+    if (!t.ok) throw new Error('table');
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    const r = ctDepth(bone, f.sourcePatientMm, [0, 50, 0], { bodyThresholdHu: -500, density: t.value.density });
+    expect(!r.ok && r.message).toMatch(/HU 1000 on the ray lies outside the HU to electron density table/);
+  });
+});
+
+describe('reading a CT series', () => {
+  it('sorts slices along the normal, not by file name (the phantom names them in reverse)', () => {
+    expect(water.originMm[2]).toBe(-126);
+    expect(water.sliceSpacingMm).toBe(4);
+  });
+  it('refuses a series with a missing slice, naming the slices around the gap', () => {
+    const dir = join(work, 'gap');
+    mkdirSync(dir);
+    const files = writeCtPhantom(dir, { name: 'gap', columns: 8, rows: 8, slices: 6, spacingMm: [4, 4, 4], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.3', hu: () => 0 });
+    rmSync(files[3]!);
+    const r = readCtSeries(files.filter((_, i) => i !== 3));
+    expect(!r.ok && r.issues[0]!.message).toMatch(/not evenly spaced: 8\.000 mm between .*gap-0003\.dcm and .*gap-0001\.dcm/);
+  });
+});
