@@ -4,6 +4,8 @@
  * so each beam's planned MU give the stated Beam Dose within a small invented difference from the
  * demo machine's own dose per MU, as a planning system with another algorithm would. One plan has
  * an MU mis-typed by 10 % so the check flags it; one has an electron field, listed as not checked.
+ * The pelvis plan's "planning system" corrected for heterogeneity with the demo CT (npm run demo-ct
+ * first), so checking it without the CT shows what ignoring the bone in the PA beam costs.
  * Run: npm run demo-clinic
  */
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -12,6 +14,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadMachine } from '../src/beamdata/index.js';
 import { checkPlan, DEFAULT_POLICY } from '../src/check/index.js';
+import { loadPatientCts } from '../src/cli/patient-ct.js';
 import { importPlanFile } from '../src/dicom/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from './lib/dcmjs-writer.js';
 import { type PlanSpec, coordinatesDoseReference, ellipseLeaves, planDataset, round, staticBeam } from './fixtures/plan-parts.js';
@@ -25,6 +28,8 @@ interface DemoPlan {
   tpsDifference: number[];
   /** Per beam: a factor the MU were mis-typed by (1 = typed correctly). */
   misTyped?: number[];
+  /** The planning system corrected for heterogeneity with this patient's demo CT. */
+  withCt?: boolean;
 }
 
 const fg = (fractions: number, rxGy: number, beams: { number: number; doseGy: number; point: Point }[]) =>
@@ -47,6 +52,7 @@ function pelvisBox(): DemoPlan {
       ],
     },
     tpsDifference: [0.006, -0.004, 0.011, -0.008],
+    withCt: true,
   };
 }
 
@@ -131,6 +137,8 @@ function chestwallElectron(): DemoPlan {
 
 const loaded = loadMachine(fileURLToPath(new URL('../fixtures/demo/beam-data/manifest.json', import.meta.url)));
 if (!loaded.ok) throw new Error(loaded.issues.map((i) => i.message).join('; '));
+const cts = loadPatientCts([fileURLToPath(new URL('../fixtures/demo/clinic-ct/', import.meta.url))], fileURLToPath(new URL('../fixtures/demo/ct/hu-to-density.csv', import.meta.url)), DEFAULT_POLICY.ct.bodyThresholdHu);
+if (!cts.ok) throw new Error(cts.issues.map((i) => i.message).join('; '));
 const work = mkdtempSync(join(tmpdir(), 'plumbline-clinic-'));
 try {
   for (const demo of [pelvisBox(), brainLaterals(), spineSsd(), breastTangentsMistyped(), lungMlc(), chestwallElectron()]) {
@@ -139,7 +147,9 @@ try {
     writeDataset(draft, planDataset(demo.spec), RT_PLAN_STORAGE);
     const imported = importPlanFile(draft);
     if (!imported.ok) throw new Error(imported.issues.map((i) => i.message).join('; '));
-    const result = checkPlan(imported.value.plan, { path: draft, sha256: '' }, { machine: loaded.value.machine, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false });
+    const ct = demo.withCt ? cts.value.find((c) => c.volume.frameOfReferenceUid === imported.value.plan.frameOfReferenceUid) : undefined;
+    if (demo.withCt && !ct) throw new Error(`no demo CT for ${demo.spec.file}: run npm run demo-ct first`);
+    const result = checkPlan(imported.value.plan, { path: draft, sha256: '' }, { machine: loaded.value.machine, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ...(ct ? { ct } : {}) });
     const beams = result.fractionGroups.flatMap((g) => g.beams);
     // Second pass: MU such that the beam dose is the planning system's, which differs by tpsDifference.
     const spec: PlanSpec = {

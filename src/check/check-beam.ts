@@ -1,7 +1,8 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { apertureAt, beamFrame, bldToPatient, flatDepth, type Vec3 } from '../geometry/index.js';
+import { apertureAt, beamFrame, bldToPatient, ctDepth, ctSsdAlongAxisMm, flatDepth, type Vec3 } from '../geometry/index.js';
 import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type Issue, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
-import { photonDosePerMu } from '../physics/index.js';
+import { photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
+import type { PatientCt } from './patient-ct.js';
 
 import type { Policy } from './policy.js';
 
@@ -13,6 +14,8 @@ export interface BeamCheckContext {
   readonly machine: MachineModel;
   readonly policy: Policy;
   readonly suggestPoint: boolean;
+  /** The patient's CT, when given: depths and SSD traced through it, heterogeneity corrected. */
+  readonly ct?: PatientCt;
 }
 
 const MM_PER_CM = 10;
@@ -50,10 +53,10 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   }
   const sadMm = beam.sourceAxisDistanceMm ?? machine.sadCm * MM_PER_CM;
   if (Math.abs(sadMm - machine.sadCm * MM_PER_CM) > 1) return notChecked(`the beam's SAD (${sadMm} mm) is not the machine's (${machine.sadCm} cm)`);
-  if (cp0.ssdMm === undefined) return notChecked('the plan gives no SSD, so without the CT the depth cannot be found');
+  if (cp0.ssdMm === undefined && !ctx.ct) return notChecked('the plan gives no SSD, so without the CT the depth cannot be found');
   const frame = beamFrame(cp0, ctx.patientPosition as never, sadMm)!;
-  const at = flatDepth(frame, point.patientMm, cp0.ssdMm);
-  if (at.depthMm < 0) return notChecked(`the calculation point lies ${(-at.depthMm / MM_PER_CM).toFixed(1)} cm above the surface`);
+  const at = flatDepth(frame, point.patientMm, cp0.ssdMm ?? 0);
+  if (!ctx.ct && at.depthMm < 0) return notChecked(`the calculation point lies ${(-at.depthMm / MM_PER_CM).toFixed(1)} cm above the surface`);
   const aperture = apertureAt(beam, cp0);
   if (!aperture || aperture.areaMm2 <= 0) return notChecked('the beam has no open aperture');
 
@@ -65,11 +68,20 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
   const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
   const irradiatedSquareCm = (4 * aperture.areaMm2) / aperture.perimeterMm / MM_PER_CM;
-  const depthCm = at.depthMm / MM_PER_CM;
+  // With the CT: SSD and depth along the ray to the point, traced through the patient.
+  let traced: ReturnType<typeof ctDepth> | undefined;
+  let ssdAlongAxisMm: number | undefined;
+  if (ctx.ct) {
+    traced = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density });
+    if (!traced.ok) return notChecked(`CT: ${traced.message}`);
+    ssdAlongAxisMm = ctSsdAlongAxisMm(ctx.ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ctx.ct.bodyThresholdHu);
+  }
+  const depthCm = (traced?.ok ? traced.value.geometricDepthMm : at.depthMm) / MM_PER_CM;
   const offAxisCm = at.offAxisMm / MM_PER_CM;
-  const ssdCm = cp0.ssdMm / MM_PER_CM;
-  const setup: 'SSD' | 'SAD' = Math.abs(cp0.ssdMm - sadMm) <= policy.classification.ssdSetupWithinMm ? 'SSD' : 'SAD';
-  const setupReason = setup === 'SSD' ? `the SSD (${ssdCm.toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - cp0.ssdMm) / MM_PER_CM).toFixed(1)} cm deep`;
+  const ssdCm = (traced?.ok ? traced.value.ssdMm : cp0.ssdMm!) / MM_PER_CM;
+  const axisSsdMm = ssdAlongAxisMm ?? cp0.ssdMm!;
+  const setup: 'SSD' | 'SAD' = Math.abs(axisSsdMm - sadMm) <= policy.classification.ssdSetupWithinMm ? 'SSD' : 'SAD';
+  const setupReason = setup === 'SSD' ? `the SSD (${(axisSsdMm / MM_PER_CM).toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - axisSsdMm) / MM_PER_CM).toFixed(1)} cm deep`;
   const approximations: string[] = [];
   const openFraction = aperture.areaMm2 / jawAreaMm2;
   if (aperture.leaves && openFraction < 0.99) {
@@ -85,9 +97,26 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const r = photonDosePerMu(data, machine.sadCm, input);
   if (!r.ok) return notChecked(r.issues.map((i) => i.message).join('; '));
   const mu = entry.beamMeterset!;
-  const independentDoseCGy = mu * r.value.dosePerMuCGy;
+  let correction = 1;
+  let ctResult: NonNullable<BeamCheck['calculation']>['ct'];
+  if (traced?.ok && ctx.ct) {
+    const t = traced.value;
+    const log: import('../model/index.js').LookupNote[] = [];
+    correction = tprRatioCorrection(data, depthCm, t.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, ssdCm + depthCm), log);
+    if (!Number.isFinite(correction)) return notChecked(`the heterogeneity correction needs TPR at ${(t.radiologicalDepthMm / MM_PER_CM).toFixed(2)} cm, outside the tables`);
+    ctResult = {
+      ...(ssdAlongAxisMm !== undefined ? { ssdAlongAxisMm } : {}),
+      ...(ssdAlongAxisMm !== undefined && cp0.ssdMm !== undefined ? { ssdDifferenceMm: ssdAlongAxisMm - cp0.ssdMm } : {}),
+      ...(cp0.ssdMm !== undefined ? { planSsdMm: cp0.ssdMm } : {}), ssdAlongRayMm: t.ssdMm, geometricDepthMm: t.geometricDepthMm, radiologicalDepthMm: t.radiologicalDepthMm,
+      entryPatientMm: [...t.entryPatientMm] as [number, number, number], densityRange: [...t.densityRange] as [number, number],
+      ...(t.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: t.nearestInterfaceMm } : {}),
+      correctionFactor: correction, homogeneousDoseCGy: mu * r.value.dosePerMuCGy, bodyThresholdHu: ctx.ct.bodyThresholdHu,
+    };
+  }
+  const dosePerMuCGy = r.value.dosePerMuCGy * correction;
+  const independentDoseCGy = mu * dosePerMuCGy;
   const tps = base.planningSystemDoseCGy;
-  const independentMu = tps !== undefined ? tps / r.value.dosePerMuCGy : undefined;
+  const independentMu = tps !== undefined ? tps / dosePerMuCGy : undefined;
 
   // Is the point fit for a point check? Edge distance at the point's depth, build-up region.
   const depthScale = at.sourceToPointAxialMm / sadMm;
@@ -97,14 +126,19 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     flags.push(edgeDistanceCm < 0 ? `the point lies outside the field (${(-edgeDistanceCm).toFixed(1)} cm beyond its edge)` : `the point is ${edgeDistanceCm.toFixed(1)} cm from the field edge (margin ${policy.point.edgeMarginCm} cm)`);
   }
   if (depthCm < data.calibration.dmaxCm) flags.push(`the point is in the build-up region (${depthCm.toFixed(1)} cm, shallower than dmax ${data.calibration.dmaxCm} cm)`);
-  const suggestion = flags.length ? suggest(aperture, at, frame, sadMm, cp0.ssdMm, policy) : undefined;
+  if (ctResult?.nearestInterfaceMm !== undefined && ctResult.nearestInterfaceMm < policy.point.interfaceMarginCm * MM_PER_CM) {
+    flags.push(`the point is ${(ctResult.nearestInterfaceMm / MM_PER_CM).toFixed(1)} cm past a density interface along the ray (margin ${policy.point.interfaceMarginCm} cm)`);
+  }
+  const suggestion = flags.length ? suggest(aperture, at, frame, sadMm, axisSsdMm, policy) : undefined;
   let suggestedPoint: BeamCheck['suggestedPoint'];
   if (suggestion && ctx.suggestPoint) {
     const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: suggestion.depthCm });
     if (s.ok) suggestedPoint = { patientMm: suggestion.patientMm, depthCm: suggestion.depthCm, offAxisCm: suggestion.offAxisCm, independentDoseCGy: mu * s.value.dosePerMuCGy };
   }
 
-  const category = categorize(policy, { wedged: !!wedge, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, leaves: aperture.leaves });
+  const heterogeneous = !!ctResult && (ctResult.densityRange[0] < policy.ct.waterLikeDensity[0] || ctResult.densityRange[1] > policy.ct.waterLikeDensity[1]);
+  const category = categorize(policy, { wedged: !!wedge, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, leaves: aperture.leaves, heterogeneous });
+  const planningSystemDepths = theirDepths(beam, entry, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
     ok: true,
     value: {
@@ -123,12 +157,14 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         ...(wedge?.id ? { wedgeId: wedge.id } : {}),
         approximations,
         factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
-        dosePerMuCGy: r.value.dosePerMuCGy,
+        dosePerMuCGy,
         independentDoseCGy,
         ...(independentMu !== undefined ? { independentMu } : {}),
         ...(tps !== undefined && tps > 0 ? { doseDeviationPercent: (100 * (independentDoseCGy - tps)) / tps } : {}),
         ...(independentMu !== undefined ? { muDeviationPercent: (100 * (independentMu - mu)) / mu } : {}),
         clamps: r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`),
+        ...(ctResult ? { ct: ctResult } : {}),
+        ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },
       category,
       tolerancePercent: policy.levels[category]!.tolerancePercent,
@@ -140,12 +176,13 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
 }
 
 /** The most demanding category that applies (the one with the widest action level). */
-function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; leaves: boolean }): CaseCategory {
+function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; leaves: boolean; heterogeneous: boolean }): CaseCategory {
   const cls = policy.classification;
   const applicable: CaseCategory[] = ['on-axis-open'];
   if (c.wedged || c.offAxisCm > cls.offAxisCm) applicable.push('off-axis-or-wedged');
   if (c.irradiatedSquareCm < cls.smallFieldCm || (c.leaves && c.openFraction < cls.openFractionBelow)) applicable.push('irregular-or-small');
   if (c.ssdCm > cls.largeSsdCm) applicable.push('large-ssd');
+  if (c.heterogeneous) applicable.push('heterogeneous');
   return applicable.reduce((a, b) => (policy.levels[b]!.actionPercent > policy.levels[a]!.actionPercent ? b : a));
 }
 
@@ -171,3 +208,20 @@ function suggest(aperture: NonNullable<ReturnType<typeof apertureAt>>, at: Retur
   return { patientMm, depthCm: (at.sourceToPointAxialMm - ssdMm) / MM_PER_CM, offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
 }
 
+
+/**
+ * The planning system's Beam Dose Point Depth, Equivalent Depth and SSD for this beam (the current
+ * verification sequence, else the retired per-beam attributes), beside ours.
+ */
+function theirDepths(beam: Beam, entry: ReferencedBeam, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
+  const v = beam.doseVerification.flatMap((d) => d.points).find((p) => p.pointDepthMm !== undefined || p.ssdMm !== undefined);
+  const depth = v?.pointDepthMm ?? entry.pointDepthMm;
+  const equivalent = v?.equivalentDepthMm ?? entry.equivalentDepthMm;
+  const ssd = v?.ssdMm ?? entry.pointSsdMm;
+  if (depth === undefined && equivalent === undefined && ssd === undefined) return undefined;
+  return {
+    ...(depth !== undefined ? { depthMm: depth, depthDifferenceMm: depthMm - depth } : {}),
+    ...(equivalent !== undefined ? { equivalentDepthMm: equivalent, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - equivalent } : {}) } : {}),
+    ...(ssd !== undefined ? { ssdMm: ssd, ssdDifferenceMm: ssdMm - ssd } : {}),
+  };
+}

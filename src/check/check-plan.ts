@@ -3,6 +3,7 @@ import { unsupportedReason } from './beam-support.js';
 import { checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
 import { matchMachine } from './match-machine.js';
+import type { PatientCt } from './patient-ct.js';
 import type { Policy } from './policy.js';
 import { verdictFor, worst } from './verdict.js';
 
@@ -13,6 +14,7 @@ export interface CheckOptions {
   readonly aliases: ReadonlyMap<string, string>;
   readonly pointPatientMm?: [number, number, number];
   readonly suggestPoint: boolean;
+  readonly ct?: PatientCt;
 }
 
 type Total = PlanCheck['courseTotals'][number];
@@ -27,6 +29,12 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
   const issues: Issue[] = [];
   const warnings: string[] = [];
   let machineMatch: PlanCheck['machine'];
+  const ctFrame = o.ct?.volume.frameOfReferenceUid;
+  if (o.ct && ctFrame !== plan.frameOfReferenceUid) {
+    issues.push({ severity: 'error', code: 'inconsistent', file: file.path, path: 'FrameOfReferenceUID',
+      message: 'the CT and the plan are in different frames of reference: the CT cannot be this plan\'s', expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`, found: `the CT's ${ctFrame}` });
+  }
+  const ct = issues.length ? undefined : o.ct;
   const groups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry): BeamCheck => {
       const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
@@ -44,7 +52,8 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       machineMatch ??= { planName: beam.machineName!, dataName: o.machine.name, via: m.via };
       const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
       if (!point) return { ...stub, reason: 'no calculation point: the plan names none and the beam has no isocenter' };
-      const r = checkBeam({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint });
+      if (o.ct && !ct) return { ...stub, reason: 'the CT does not belong to this plan' };
+      const r = checkBeam({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
       if (!r.ok) {
         issues.push({ ...r.issue, file: file.path });
         return { ...stub, reason: r.issue.message };
@@ -118,10 +127,26 @@ function judge(beams: BeamCheck[], policy: Policy): BeamCheck[] {
       verdict = worst(verdict, 'needs review');
       reasons.push(`the point is not fit for a point check: ${b.fitness.flags.join('; ')}`);
     }
+    const ct = b.calculation.ct;
+    if (ct) {
+      reasons.push(`CT depths: heterogeneity corrected by the TPR ratio, CF = ${ct.correctionFactor.toFixed(4)} (homogeneous dose ${ct.homogeneousDoseCGy.toFixed(1)} cGy)`);
+      if (ct.ssdDifferenceMm !== undefined && Math.abs(ct.ssdDifferenceMm) > policy.ct.ssdToleranceMm) {
+        verdict = worst(verdict, 'needs review');
+        reasons.push(`the SSD from the CT (${(ct.ssdAlongAxisMm! / 10).toFixed(1)} cm) differs from the plan's (${(ct.planSsdMm! / 10).toFixed(1)} cm) by ${ct.ssdDifferenceMm.toFixed(1)} mm (tolerance ${policy.ct.ssdToleranceMm} mm): bolus missing, wrong CT or wrong isocenter?`);
+      }
+    }
+    const theirs = b.calculation.planningSystemDepths;
+    if (theirs) {
+      reasons.push(`the planning system's own depth data: ${[theirs.depthMm !== undefined ? `depth ${theirs.depthMm.toFixed(1)} mm (ours ${signedMm(theirs.depthDifferenceMm)})` : '',
+        theirs.equivalentDepthMm !== undefined ? `equivalent depth ${theirs.equivalentDepthMm.toFixed(1)} mm${theirs.equivalentDepthDifferenceMm !== undefined ? ` (ours ${signedMm(theirs.equivalentDepthDifferenceMm)})` : ''}` : '',
+        theirs.ssdMm !== undefined ? `SSD ${theirs.ssdMm.toFixed(1)} mm (ours ${signedMm(theirs.ssdDifferenceMm)})` : ''].filter(Boolean).join(', ')}`);
+    }
     if (b.calculation.approximations.length) reasons.push(...b.calculation.approximations);
     return { ...b, verdict, verdictReasons: reasons, ...(judgedDeviationPercent !== undefined ? { judgedDeviationPercent } : {}), ...(judgedOn ? { judgedOn } : {}) };
   });
 }
+
+const signedMm = (v: number | undefined) => (v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(1)} mm`);
 
 /** Per point of one fraction group: the sum of the checked beams, against the planning system and the prescription. */
 function totals(plan: Plan, g: FractionGroup, beams: readonly BeamCheck[]): Total[] {

@@ -31,7 +31,17 @@ export const Policy = z
         ssdSetupWithinMm: z.number().nonnegative(),
       })
       .strict(),
-    point: z.object({ edgeMarginCm: z.number().nonnegative() }).strict(),
+    point: z.object({ edgeMarginCm: z.number().nonnegative(), interfaceMarginCm: z.number().nonnegative() }).strict(),
+    ct: z
+      .object({
+        /** The CT's SSD and the plan's may differ by this before it is a finding (bolus, wrong CT, wrong isocenter). */
+        ssdToleranceMm: z.number().nonnegative(),
+        /** Voxels at or above this HU are the body when no EXTERNAL contour is given. */
+        bodyThresholdHu: z.number(),
+        /** Densities met on the ray outside this range make the case heterogeneous. */
+        waterLikeDensity: z.tuple([z.number(), z.number()]),
+      })
+      .strict(),
     /** A beam giving less than this share of its point's total dose is judged on its share. */
     lowContributionShare: z.number().min(0).max(1),
   })
@@ -55,6 +65,7 @@ export const DEFAULT_POLICY: Policy = {
     modulated: { tolerancePercent: 4, actionPercent: 5 },
   },
   classification: { offAxisCm: 2, smallFieldCm: 4, largeSsdCm: 110, openFractionBelow: 0.8, ssdSetupWithinMm: 5 },
-  point: { edgeMarginCm: 1.5 },
+  point: { edgeMarginCm: 1.5, interfaceMarginCm: 1 },
+  ct: { ssdToleranceMm: 5, bodyThresholdHu: -400, waterLikeDensity: [0.9, 1.1] },
   lowContributionShare: 0.1,
 };

@@ -3,10 +3,14 @@ import { existsSync } from 'node:fs';
 
 /** `demo` names the bundled invented machine; anything else is a manifest path. */
 export function resolveBeamDataPath(arg: string): string {
-  if (arg !== 'demo') return arg;
-  for (const rel of ['../fixtures/demo/beam-data/manifest.json', '../../fixtures/demo/beam-data/manifest.json', '../../../fixtures/demo/beam-data/manifest.json']) {
-    const p = fileURLToPath(new URL(rel, import.meta.url));
+  return arg === 'demo' ? resolveDemoFile('beam-data/manifest.json') : arg;
+}
+
+/** A file of the bundled demo scenario, found from src/cli (tsx), dist/src/cli (tsc) or dist/ (the bundle). */
+export function resolveDemoFile(rel: string): string {
+  for (const up of ['../', '../../', '../../../']) {
+    const p = fileURLToPath(new URL(`${up}fixtures/demo/${rel}`, import.meta.url));
     if (existsSync(p)) return p;
   }
-  return 'fixtures/demo/beam-data/manifest.json';
+  return `fixtures/demo/${rel}`;
 }

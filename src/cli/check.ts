@@ -15,6 +15,7 @@ import { checkText } from '../report/check-text.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { resolveBeamDataPath } from './beam-data-path.js';
 import { collectFiles } from './collect-files.js';
+import { loadPatientCts } from './patient-ct.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
 
@@ -35,6 +36,9 @@ export const CheckOptionsSchema = z.object({
   json: z.boolean().default(false),
   html: z.string().min(1).optional(),
   suggestPoint: z.boolean().default(false),
+  ct: z.array(z.string().min(1)).optional(),
+  density: z.string().min(1).optional(),
+  bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
 });
 
 /** `plumbline check`: read every plan, check it against the beam data, report; batch runs go on past bad files. */
@@ -47,6 +51,8 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   const policy = loadPolicy(o.policy);
   if (!policy.ok) return refuse(policy.issues);
   const aliases = new Map(o.machineAlias.map((a) => a.split('=') as [string, string]));
+  const ct = o.ct ? loadPatientCts(o.ct, o.density, o.bodyThreshold ?? policy.value.ct.bodyThresholdHu) : undefined;
+  if (ct && !ct.ok) return refuse(ct.issues);
 
   const files = collectFiles(paths);
   const bar = process.stderr.isTTY && files.length > 1 ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic) : undefined;
@@ -70,9 +76,16 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
       continue;
     }
     const sha256 = createHash('sha256').update(bytes).digest('hex');
-    plans.push(checkPlan(r.value.plan, { path: f.path, sha256 }, {
+    // The CT in the plan's frame of reference; with a single CT series given for a single plan, a
+    // mismatch is the user's error and the check says so (naming both frames).
+    const cts = ct?.ok ? ct.value : [];
+    const own = cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && files.length === 1 ? cts[0] : undefined);
+    const planWarnings = cts.length && !own ? [`no CT series in this plan's frame of reference among --ct: checked without CT`] : [];
+    const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, {
       machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
-    }));
+      ...(own ? { ct: own } : {}),
+    });
+    plans.push(planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked);
   }
   bar?.stop();
   if (plans.length === 0 && refused.length === 0) refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });

@@ -5,6 +5,7 @@ import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
 import { runCheck } from './check.js';
+import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
@@ -44,6 +45,9 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--suggest-point', 'also calculate at the suggested point when a point is unfit')
     .option('--json', 'print one versioned JSON document')
     .option('--html <file>', 'write a self-contained HTML report')
+    .option('--ct <path...>', "the patient's CT series (a folder or files): depths and SSD traced through it, heterogeneity corrected")
+    .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo' for the invented demo table")
+    .option('--body-threshold <HU>', 'HU at or above which a voxel is the body (default from the policy)')
     .action((paths: string[], opts: Record<string, unknown>) => {
       outcome = runCheck(paths, opts);
     });
@@ -67,6 +71,18 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--json', 'print one versioned JSON document')
     .action((opts: Record<string, unknown>) => {
       outcome = runCalc(opts);
+    });
+
+  program
+    .command('depth')
+    .description("per beam: the SSD from the plan and from the CT, geometric and radiological depth, entry point and densities met")
+    .argument('<plan>', 'RT Plan file')
+    .requiredOption('--ct <path...>', "the patient's CT series (a folder or files)")
+    .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo'")
+    .option('--body-threshold <HU>', 'HU at or above which a voxel is the body')
+    .option('--json', 'print one versioned JSON document')
+    .action((plan: string, opts: Record<string, unknown>) => {
+      outcome = runDepth(plan, opts);
     });
 
   program

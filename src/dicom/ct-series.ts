@@ -140,3 +140,33 @@ function cross(a: readonly [number, number, number], b: readonly [number, number
 function dot(a: readonly [number, number, number], b: readonly [number, number, number]): number {
   return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 }
+
+/**
+ * Every CT series among the files (a folder exported with plans of several patients), one volume
+ * each; other objects are skipped. A broken series is an issue, not a reason to drop the others.
+ */
+export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; issues: Issue[] } {
+  const bySeries = new Map<string, string[]>();
+  const issues: Issue[] = [];
+  for (const file of files) {
+    let bytes: Buffer;
+    try {
+      bytes = readFileSync(file);
+    } catch {
+      continue;
+    }
+    const parsed = parseDicomBytes(bytes, file);
+    if (!parsed.ok) continue;
+    const ds = parsed.value.dataSet;
+    if (ds.string('x00080016') !== CT_IMAGE_STORAGE) continue;
+    const series = ds.string('x0020000e') ?? '';
+    bySeries.set(series, [...(bySeries.get(series) ?? []), file]);
+  }
+  const volumes: CtVolume[] = [];
+  for (const group of bySeries.values()) {
+    const r = readCtSeries(group);
+    if (r.ok) volumes.push(r.value);
+    else issues.push(...r.issues);
+  }
+  return { volumes, issues };
+}

@@ -1,4 +1,4 @@
 export { importPlanBytes, importPlanFile, type ImportedPlan, type ReadPlanOptions } from './read-plan-file.js';
 export { parseDicomBytes } from './parse-bytes.js';
 export { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
-export { readCtSeries, CT_IMAGE_STORAGE } from './ct-series.js';
+export { readCtSeries, readCtVolumes, CT_IMAGE_STORAGE } from './ct-series.js';

@@ -65,6 +65,28 @@ export const BeamCheck = z.object({
       doseDeviationPercent: z.number().optional(),
       muDeviationPercent: z.number().optional(),
       clamps: z.array(z.string()),
+      /** With the patient's CT: the traced geometry and the heterogeneity correction. */
+      ct: z
+        .object({
+          ssdAlongAxisMm: z.number().optional(),
+          planSsdMm: z.number().optional(),
+          ssdDifferenceMm: z.number().optional(),
+          ssdAlongRayMm: z.number(),
+          geometricDepthMm: z.number(),
+          radiologicalDepthMm: z.number(),
+          entryPatientMm: z.tuple([z.number(), z.number(), z.number()]),
+          densityRange: z.tuple([z.number(), z.number()]),
+          nearestInterfaceMm: z.number().optional(),
+          correctionFactor: z.number(),
+          homogeneousDoseCGy: z.number(),
+          bodyThresholdHu: z.number(),
+        })
+        .optional(),
+      /** The planning system's own depth data for the point, where the plan carries them, beside ours. */
+      planningSystemDepths: z
+        .object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional(),
+          depthDifferenceMm: z.number().optional(), equivalentDepthDifferenceMm: z.number().optional(), ssdDifferenceMm: z.number().optional() })
+        .optional(),
     })
     .optional(),
   category: CaseCategory.optional(),

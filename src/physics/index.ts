@@ -5,3 +5,4 @@ export * from './pdd-tpr.js';
 export * from './beam-factors.js';
 export * from './photon-dose.js';
 export * from './beam-data-consistency.js';
+export * from './heterogeneity.js';

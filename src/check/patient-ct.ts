@@ -1,0 +1,9 @@
+import type { CtVolume } from '../model/index.js';
+
+/** The patient's CT as the check uses it: the volume, the clinic's HU → density table, the body threshold. */
+export interface PatientCt {
+  readonly volume: CtVolume;
+  readonly density: (hu: number) => number;
+  readonly densityTable: string;
+  readonly bodyThresholdHu: number;
+}

@@ -1,0 +1,23 @@
+import { loadDensityTable } from '../beamdata/index.js';
+import type { PatientCt } from '../check/patient-ct.js';
+import { readCtVolumes } from '../dicom/index.js';
+import type { Issue } from '../model/index.js';
+import { collectFiles } from './collect-files.js';
+import { resolveDemoFile } from './beam-data-path.js';
+
+/**
+ * Reads `--ct` (folders or files; every CT series among them) with `--density` (a CSV, or `demo`
+ * for the invented demo table). Each plan then uses the series in its own frame of reference.
+ */
+export function loadPatientCts(ctPaths: readonly string[], density: string | undefined, bodyThresholdHu: number): { ok: true; value: PatientCt[] } | { ok: false; issues: readonly Issue[] } {
+  if (!density) {
+    return { ok: false, issues: [{ severity: 'error', code: 'invalid-option', message: "--ct needs --density: the clinic's HU to relative electron density table (CSV)" }] };
+  }
+  const table = loadDensityTable(density === 'demo' ? resolveDemoFile('ct/hu-to-density.csv') : density);
+  if (!table.ok) return table;
+  const files = collectFiles(ctPaths).map((f) => f.path);
+  const { volumes, issues } = readCtVolumes(files);
+  if (issues.length) return { ok: false, issues };
+  if (!volumes.length) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: `no CT series found in ${ctPaths.join(', ')}` }] };
+  return { ok: true, value: volumes.map((volume) => ({ volume, density: table.value.density, densityTable: table.value.file, bodyThresholdHu })) };
+}

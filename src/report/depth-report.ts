@@ -1,0 +1,50 @@
+import { z } from 'zod';
+import type { CalculationPoint } from '../model/index.js';
+import { CAUTION } from './caution.js';
+import { textTable } from './table.js';
+
+export const DepthRow = z.object({
+  beamNumber: z.number(),
+  beamName: z.string().optional(),
+  gantryAngleDeg: z.number(),
+  point: z.object({ source: z.string(), reason: z.string(), patientMm: z.tuple([z.number(), z.number(), z.number()]) }),
+  planSsdMm: z.number().optional(),
+  ctSsdAlongAxisMm: z.number().optional(),
+  ssdDifferenceMm: z.number().optional(),
+  entryPatientMm: z.tuple([z.number(), z.number(), z.number()]).optional(),
+  geometricDepthMm: z.number().optional(),
+  radiologicalDepthMm: z.number().optional(),
+  densityRange: z.tuple([z.number(), z.number()]).optional(),
+  nearestInterfaceMm: z.number().optional(),
+  planningSystem: z.object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional() }).optional(),
+  problem: z.string().optional(),
+});
+export type DepthRow = z.infer<typeof DepthRow>;
+
+export const DepthDocument = z.object({
+  schemaVersion: z.literal(1),
+  kind: z.literal('plumbline.depth'),
+  tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
+  plan: z.string(),
+  ct: z.object({ seriesInstanceUid: z.string(), frameOfReferenceUid: z.string(), slices: z.number(), bodyThresholdHu: z.number(), densityTable: z.string() }),
+  beams: z.array(DepthRow),
+  caution: z.string(),
+});
+export type DepthDocument = z.infer<typeof DepthDocument>;
+
+const f1 = (v: number | undefined) => (v === undefined ? '—' : v.toFixed(1));
+
+export function depthText(doc: DepthDocument): string[] {
+  const rows = doc.beams.map((b) => [String(b.beamNumber), b.beamName ?? '—', f1(b.gantryAngleDeg), f1(b.planSsdMm), f1(b.ctSsdAlongAxisMm), f1(b.ssdDifferenceMm),
+    f1(b.geometricDepthMm), f1(b.radiologicalDepthMm), b.densityRange ? `${b.densityRange[0].toFixed(2)}–${b.densityRange[1].toFixed(2)}` : '—',
+    f1(b.nearestInterfaceMm), f1(b.planningSystem?.depthMm), f1(b.planningSystem?.equivalentDepthMm), f1(b.planningSystem?.ssdMm), b.problem ?? '']);
+  return [
+    `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body from HU >= ${doc.ct.bodyThresholdHu}, densities from ${doc.ct.densityTable}`,
+    ...textTable(['beam', 'name', 'gantry', 'SSD plan mm', 'SSD CT mm', 'diff mm', 'depth mm', 'radiological mm', 'density', 'interface mm', 'TPS depth', 'TPS equiv', 'TPS SSD', ''], rows).map((l) => `  ${l}`),
+    ...doc.beams.map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${b.point.reason})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
+    '',
+    CAUTION,
+  ];
+}
+
+export type { CalculationPoint };

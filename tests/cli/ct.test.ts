@@ -1,0 +1,76 @@
+/**
+ * `plumbline depth` and `check --ct` on the demo pelvis patient, whose CT is an analytic phantom
+ * (scripts/make-demo-ct.ts: a water box with faces at x = −165 and 170 mm, y = −90 and 130 mm, and a
+ * 700 HU bone block from y = 80 to 110 mm), so every depth below is a hand calculation.
+ */
+import { spawnSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { DepthDocument } from '../../src/report/depth-report.js';
+import { CheckDocument } from '../../src/report/check-json.js';
+import { staticBeam, coordinatesDoseReference } from '../../scripts/fixtures/plan-parts.js';
+import { planFromSpec } from '../helpers/check-run.js';
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const run = (...args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+const CT = ['--ct', 'fixtures/demo/clinic-ct', '--density', 'demo'];
+
+describe('plumbline depth', () => {
+  it('gives the SSDs and depths of the four fields through the phantom', () => {
+    const r = run('depth', 'fixtures/demo/clinic/pelvis-box.dcm', ...CT, '--json');
+    expect(r.status).toBe(0);
+    const doc = DepthDocument.parse(JSON.parse(r.stdout));
+    // Isocenter (0, 10, −80): AP surface y = −90, PA y = 130, left x = 170, right x = −165.
+    expect(doc.beams.map((b) => Math.round(b.ctSsdAlongAxisMm! * 10) / 10)).toEqual([900, 880, 830, 835]);
+    expect(doc.beams.map((b) => Math.round(b.geometricDepthMm! * 10) / 10)).toEqual([100, 120, 170, 165]);
+    // PA: 30 mm of bone at 700 HU; the demo table gives 1.16 + (400/700)·0.39 (linear between 300 and 1000 HU).
+    expect(doc.beams[1]!.radiologicalDepthMm).toBeCloseTo(120 + 30 * (1.16 + (400 / 700) * 0.39 - 1), 1);
+    expect(doc.beams[1]!.nearestInterfaceMm).toBeCloseTo(70, 1);
+    expect(doc.beams.every((b) => b.ssdDifferenceMm !== undefined && Math.abs(b.ssdDifferenceMm) < 0.1)).toBe(true);
+  });
+
+  it('refuses --ct without a density table, and a CT of another patient', () => {
+    expect(run('depth', 'fixtures/demo/clinic/pelvis-box.dcm', '--ct', 'fixtures/demo/clinic-ct').stderr).toMatch(/--ct needs --density/);
+    const other = run('depth', 'fixtures/demo/clinic/brain-laterals.dcm', ...CT);
+    expect(other.status).toBe(2);
+    expect(other.stderr).toMatch(/no CT series in the plan's frame of reference/);
+  });
+});
+
+describe('plumbline check --ct', () => {
+  it('corrects the PA beam for the bone (CF < 1), calls it heterogeneous, and the others stay water', () => {
+    const doc = CheckDocument.parse(JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--json').stdout));
+    const beams = doc.plans[0]!.fractionGroups[0]!.beams;
+    expect(beams[1]!.category).toBe('heterogeneous');
+    expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
+    expect(beams.filter((b) => b.beamNumber !== 2).every((b) => b.calculation!.ct!.correctionFactor === 1)).toBe(true);
+    expect(doc.plans[0]!.verdict).toBe('within tolerance');
+  });
+
+  it('reports an SSD that differs from the CT by more than 5 mm as a finding', () => {
+    const iso: [number, number, number] = [0, 10, -80];
+    const { file } = planFromSpec({
+      file: 'pelvis-wrong-ssd.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS AP', name: 'AP with a wrong SSD', description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+      beams: [staticBeam(1, 'AP', 15, 0, 910, iso, { first: { jawsX: [-75, 75], jawsY: [-90, 90] } })],
+    });
+    const doc = CheckDocument.parse(JSON.parse(run('check', file, '--beam-data', 'demo', ...CT, '--json').stdout));
+    const b = doc.plans[0]!.fractionGroups[0]!.beams[0]!;
+    expect(b.calculation!.ct!.ssdDifferenceMm).toBeCloseTo(-10, 1);
+    expect(b.verdictReasons.join(' ')).toMatch(/the SSD from the CT \(90\.0 cm\) differs from the plan's \(91\.0 cm\) by -10\.0 mm/);
+    expect(b.verdict).not.toBe('within tolerance');
+  });
+
+  it("refuses one plan with one CT of another frame of reference, naming both", () => {
+    const r = run('check', 'fixtures/demo/clinic/brain-laterals.dcm', '--beam-data', 'demo', ...CT);
+    expect(r.status).toBe(2);
+    expect(r.stdout).toMatch(/the CT and the plan are in different frames of reference.*expected the plan's 2\.25\.\d+, found the CT's 2\.25\.\d+/);
+  });
+
+  it("in a batch, plans without their own CT are checked without it and say so", () => {
+    const r = run('check', 'fixtures/demo/clinic', '--beam-data', 'demo', ...CT);
+    expect(r.status).toBe(1);
+    expect(r.stdout.match(/no CT series in this plan's frame of reference among --ct: checked without CT/g)).toHaveLength(5);
+  });
+});
