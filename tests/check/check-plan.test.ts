@@ -44,9 +44,10 @@ describe('checking the demo clinic', () => {
   it('checks the SSD spine field with the PDD formalism and the four-field box with TPR', () => {
     expect(beams(check(importOrThrow(clinic('spine-ssd.dcm')), demo))[0]!.calculation!.factors.map((f) => f.key)).toContain('PDD');
     const box = check(importOrThrow(clinic('pelvis-box.dcm')), demo);
-    expect(beams(box).every((b) => b.calculation!.setup === 'SAD' && b.verdict === 'within tolerance')).toBe(true);
-    expect(box.fullyVerified).toBe(true);
+    expect(beams(box).every((b) => b.calculation!.setup === 'SAD')).toBe(true);
     expect(box.fractionGroups[0]!.totals[0]!.prescriptionPerFractionCGy).toBeCloseTo(200, 10);
+    // Its planning system corrected for the bone in the PA beam; without the CT, that beam stands out.
+    expect(beams(box).map((b) => b.verdict)).toEqual(['within tolerance', 'needs review', 'within tolerance', 'within tolerance']);
   });
 
   it('says "approximated" for the MLC-shaped field and puts it in the irregular category', () => {

@@ -14,9 +14,9 @@ const plumbline = (...args: string[]) =>
 
 describe('plumbline check', () => {
   it('exit 0 when every beam of every plan is within tolerance', () => {
-    const r = plumbline('check', join(CLINIC, 'pelvis-box.dcm'), join(CLINIC, 'brain-laterals.dcm'), '--beam-data', 'demo');
+    const r = plumbline('check', join(CLINIC, 'spine-ssd.dcm'), join(CLINIC, 'brain-laterals.dcm'), '--beam-data', 'demo');
     expect(r.status).toBe(0);
-    expect(r.stdout).toMatch(/summary: 2 plan\(s\), 6 beam\(s\) checked, 0 not checked; 2 within tolerance/);
+    expect(r.stdout).toMatch(/summary: 2 plan\(s\), 3 beam\(s\) checked, 0 not checked; 2 within tolerance/);
     expect(r.stdout).toMatch(/deviation = \(independent − planning system\) \/ planning system/);
     expect(r.stdout).toMatch(/an aid to, never a replacement for/);
   });
