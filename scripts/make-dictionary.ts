@@ -64,6 +64,9 @@ const KEYWORDS = [
   'ImagePositionPatient', 'ImageOrientationPatient', 'PixelSpacing', 'SliceThickness', 'Rows', 'Columns',
   'BitsAllocated', 'BitsStored', 'PixelRepresentation', 'SamplesPerPixel', 'RescaleSlope', 'RescaleIntercept',
   'InstanceNumber', 'PixelData',
+  // RT Dose
+  'NumberOfFrames', 'GridFrameOffsetVector', 'DoseGridScaling', 'DoseUnits', 'DoseType', 'DoseSummationType',
+  'ReferencedRTPlanSequence', 'ReferencedFractionGroupSequence', 'ReferencedFractionGroupNumber',
 ] as const;
 
 const PY = `

@@ -1,4 +1,5 @@
-import type { BeamCheck, FractionGroup, FractionGroupCheck, Issue, MachineModel, Plan, PlanCheck, Verdict } from '../model/index.js';
+import { doseAtPointGy } from '../geometry/index.js';
+import type { BeamCheck, DoseGrid, FractionGroup, FractionGroupCheck, Issue, MachineModel, Plan, PlanCheck, Verdict } from '../model/index.js';
 import { unsupportedReason } from './beam-support.js';
 import { checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
@@ -15,6 +16,8 @@ export interface CheckOptions {
   readonly pointPatientMm?: [number, number, number];
   readonly suggestPoint: boolean;
   readonly ct?: PatientCt;
+  /** The planning system's RT Dose grids for this plan (any summation type). */
+  readonly doseGrids?: readonly DoseGrid[];
 }
 
 type Total = PlanCheck['courseTotals'][number];
@@ -64,6 +67,9 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
     return { number: g.number, ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}), beams: judged, totals: totals(plan, g, judged) };
   });
 
+  const grids = (o.doseGrids ?? []).filter((g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid));
+  const withGrids = attachDoseGrids(groups, grids);
+  groups.splice(0, groups.length, ...withGrids);
   const checked = groups.flatMap((g) => g.beams).filter((b) => b.status === 'checked');
   const notChecked = groups.flatMap((g) => g.beams).filter((b) => b.status !== 'checked');
   let verdict: Verdict = 'within tolerance';
@@ -84,7 +90,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
     ...(plan.approvalStatus ? { approvalStatus: plan.approvalStatus } : {}),
     ...(machineMatch ? { machine: machineMatch } : {}),
     fractionGroups: groups,
-    courseTotals: courseTotals(groups),
+    courseTotals: courseTotals(groups).map((t) => withGrid(t, grids.find((g) => g.summationType === 'PLAN'))),
     verdict,
     fullyVerified: notChecked.length === 0 && issues.length === 0 && checked.length > 0,
     issues,
@@ -201,4 +207,24 @@ function courseTotals(groups: readonly FractionGroupCheck[]): Total[] {
     }
   }
   return [...byPoint.values()];
+}
+
+/** The grid's dose at a total's point, when the grid is of the matching summation. */
+function withGrid<T extends { pointPatientMm: readonly number[] }>(t: T, grid: DoseGrid | undefined): T {
+  const gy = grid ? doseAtPointGy(grid, t.pointPatientMm as [number, number, number]) : undefined;
+  return gy === undefined ? t : { ...t, doseGridCGy: gy * 100, doseGridSummation: grid!.summationType };
+}
+
+/** Per-beam grids (BEAM) to their beams, per-fraction grids (FRACTION) to the group totals. */
+function attachDoseGrids(groups: readonly FractionGroupCheck[], grids: readonly DoseGrid[]): FractionGroupCheck[] {
+  if (!grids.length) return [...groups];
+  return groups.map((g) => ({
+    ...g,
+    beams: g.beams.map((b) => {
+      const grid = grids.find((x) => x.summationType === 'BEAM' && x.referencedBeamNumber === b.beamNumber);
+      const gy = grid && b.point ? doseAtPointGy(grid, b.point.patientMm) : undefined;
+      return gy === undefined ? b : { ...b, doseGridCGy: gy * 100 };
+    }),
+    totals: g.totals.map((t) => withGrid(t, grids.find((x) => x.summationType === 'FRACTION'))),
+  }));
 }

@@ -4,8 +4,8 @@ import cliProgress from 'cli-progress';
 import { z } from 'zod';
 import { loadMachine, type LoadedMachine } from '../beamdata/index.js';
 import { checkPlan, DEFAULT_POLICY, Policy } from '../check/index.js';
-import { importPlanBytes } from '../dicom/index.js';
-import type { Issue, PlanCheck } from '../model/index.js';
+import { importPlanBytes, readRtDose } from '../dicom/index.js';
+import type { DoseGrid, Issue, PlanCheck } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { CheckDocument } from '../report/check-json.js';
@@ -37,6 +37,7 @@ export const CheckOptionsSchema = z.object({
   html: z.string().min(1).optional(),
   suggestPoint: z.boolean().default(false),
   ct: z.array(z.string().min(1)).optional(),
+  dose: z.array(z.string().min(1)).optional(),
   density: z.string().min(1).optional(),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
 });
@@ -53,6 +54,12 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   const aliases = new Map(o.machineAlias.map((a) => a.split('=') as [string, string]));
   const ct = o.ct ? loadPatientCts(o.ct, o.density, o.bodyThreshold ?? policy.value.ct.bodyThresholdHu) : undefined;
   if (ct && !ct.ok) return refuse(ct.issues);
+  const doseGrids: DoseGrid[] = [];
+  for (const f of o.dose ?? []) {
+    const g = readRtDose(f);
+    if (!g.ok) return refuse(g.issues);
+    doseGrids.push(g.value);
+  }
 
   const files = collectFiles(paths);
   const bar = process.stderr.isTTY && files.length > 1 ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic) : undefined;
@@ -84,6 +91,7 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
     const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, {
       machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
       ...(own ? { ct: own } : {}),
+      ...(doseGrids.length ? { doseGrids } : {}),
     });
     plans.push(planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked);
   }

@@ -180,6 +180,15 @@ export const ATTRIBUTES = {
   RescaleIntercept: { tag: 'x00281052', vr: 'DS', vm: '1', retired: false },
   InstanceNumber: { tag: 'x00200013', vr: 'IS', vm: '1', retired: false },
   PixelData: { tag: 'x7fe00010', vr: 'OB or OW', vm: '1', retired: false },
+  NumberOfFrames: { tag: 'x00280008', vr: 'IS', vm: '1', retired: false },
+  GridFrameOffsetVector: { tag: 'x3004000c', vr: 'DS', vm: '2-n', retired: false },
+  DoseGridScaling: { tag: 'x3004000e', vr: 'DS', vm: '1', retired: false },
+  DoseUnits: { tag: 'x30040002', vr: 'CS', vm: '1', retired: false },
+  DoseType: { tag: 'x30040004', vr: 'CS', vm: '1', retired: false },
+  DoseSummationType: { tag: 'x3004000a', vr: 'CS', vm: '1', retired: false },
+  ReferencedRTPlanSequence: { tag: 'x300c0002', vr: 'SQ', vm: '1', retired: false },
+  ReferencedFractionGroupSequence: { tag: 'x300c0020', vr: 'SQ', vm: '1', retired: false },
+  ReferencedFractionGroupNumber: { tag: 'x300c0022', vr: 'IS', vm: '1', retired: false },
 } as const satisfies Record<string, AttributeEntry>;
 
 export type Keyword = keyof typeof ATTRIBUTES;

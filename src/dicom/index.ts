@@ -2,3 +2,4 @@ export { importPlanBytes, importPlanFile, type ImportedPlan, type ReadPlanOption
 export { parseDicomBytes } from './parse-bytes.js';
 export { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
 export { readCtSeries, readCtVolumes, CT_IMAGE_STORAGE } from './ct-series.js';
+export { readRtDose, RT_DOSE_STORAGE } from './rt-dose.js';

@@ -4,3 +4,4 @@ export * from './flat-depth.js';
 export * from './aperture.js';
 export * from './ray-trace.js';
 export * from './ct-depth.js';
+export * from './dose-at-point.js';

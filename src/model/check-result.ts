@@ -99,6 +99,8 @@ export const BeamCheck = z.object({
   suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number() }).optional(),
   verdict: Verdict.optional(),
   verdictReasons: z.array(z.string()),
+  /** A per-beam RT Dose grid at the point (summation BEAM), beside the Beam Dose and our dose. */
+  doseGridCGy: z.number().optional(),
 });
 export type BeamCheck = z.infer<typeof BeamCheck>;
 
@@ -112,6 +114,9 @@ export const PointTotal = z.object({
   independentVsPrescriptionPercent: z.number().optional(),
   planningSystemVsPrescriptionPercent: z.number().optional(),
   complete: z.boolean(),
+  /** The planning system's own dose grid (RT Dose) at the point, and which summation it is. */
+  doseGridCGy: z.number().optional(),
+  doseGridSummation: z.string().optional(),
 });
 
 export const FractionGroupCheck = z.object({

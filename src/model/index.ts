@@ -11,3 +11,4 @@ export * from './point-dose.js';
 export * from './check-result.js';
 export * from './factor-label.js';
 export * from './ct-volume.js';
+export * from './dose-grid.js';

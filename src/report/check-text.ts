@@ -34,11 +34,13 @@ export function planCheckText(p: PlanCheck): string[] {
     for (const t of g.totals) {
       const rx = t.prescriptionPerFractionCGy !== undefined
         ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy (independent ${signed(t.independentVsPrescriptionPercent)} %, planning system ${signed(t.planningSystemVsPrescriptionPercent)} %)` : '';
-      out.push(`    total at ${mm(t.pointPatientMm)}, beams ${t.beams.join(', ')}: independent ${t.independentDoseCGy.toFixed(1)} cGy, planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy, ${signed(t.deviationPercent)} %${rx}${t.complete ? '' : ' (incomplete: some beams at this point not checked)'}`);
+      const grid = t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${t.doseGridCGy.toFixed(1)} cGy` : '';
+      out.push(`    total at ${mm(t.pointPatientMm)}, beams ${t.beams.join(', ')}: independent ${t.independentDoseCGy.toFixed(1)} cGy, planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy, ${signed(t.deviationPercent)} %${rx}${grid}${t.complete ? '' : ' (incomplete: some beams at this point not checked)'}`);
     }
   }
   for (const t of p.courseTotals) {
-    out.push(`  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / 100).toFixed(2)} Gy, planning system ${(t.planningSystemDoseCGy / 100).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${t.complete ? '' : ' (incomplete)'}`);
+    const grid = t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${(t.doseGridCGy / 100).toFixed(2)} Gy` : '';
+    out.push(`  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / 100).toFixed(2)} Gy, planning system ${(t.planningSystemDoseCGy / 100).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`);
   }
   const notes: string[] = [];
   for (const b of p.fractionGroups.flatMap((g) => g.beams)) {
@@ -49,6 +51,7 @@ export function planCheckText(p: PlanCheck): string[] {
     }
     if (b.point) notes.push(`${who}: point ${mm(b.point.patientMm)}: ${b.point.reason}; ${b.calculation!.setup} setup, ${b.calculation!.setupReason}; category ${b.category}`);
     for (const r of b.verdictReasons) notes.push(`${who}: ${r}`);
+    if (b.doseGridCGy !== undefined) notes.push(`${who}: the planning system's per-beam dose grid gives ${b.doseGridCGy.toFixed(1)} cGy at the point`);
     if (b.fitness?.suggestion) {
       const s = b.fitness.suggestion;
       notes.push(`${who}: a better point at the same depth: ${mm(s.patientMm)} (${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${b.suggestedPoint ? `: independent dose there ${b.suggestedPoint.independentDoseCGy.toFixed(1)} cGy (the planning system's dose there is not in the plan)` : ''}`);

@@ -74,3 +74,25 @@ describe('plumbline check --ct', () => {
     expect(r.stdout.match(/no CT series in this plan's frame of reference among --ct: checked without CT/g)).toHaveLength(5);
   });
 });
+
+describe('plumbline check --dose', () => {
+  it("shows the planning system's dose grid at the point beside the totals (PLAN: the course; FRACTION: one fraction)", async () => {
+    const { writeRtDose } = await import('../../scripts/fixtures/rt-dose.js');
+    const { fixtureUid } = await import('../../scripts/lib/dcmjs-writer.js');
+    const { mkdtempSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-dose-'));
+    const common = { planSopInstanceUid: fixtureUid('plan:brain-laterals.dcm'), frameOfReferenceUid: fixtureUid('for:NG-1002'),
+      columns: 21, rows: 21, frames: 21, spacingMm: 5, originMm: [-50, -50, 70] as const };
+    // A dose falling linearly along x: at the isocenter (0, 0, 120) it is exactly the stated value.
+    writeRtDose(join(dir, 'plan.dcm'), { ...common, name: 'plan', summation: 'PLAN', doseGy: (x) => 60.3 + 0.01 * x });
+    writeRtDose(join(dir, 'fraction.dcm'), { ...common, name: 'fraction', summation: 'FRACTION', doseGy: (x) => 2.01 + 0.001 * x });
+    const r = run('check', 'fixtures/demo/clinic/brain-laterals.dcm', '--beam-data', 'demo', '--dose', join(dir, 'plan.dcm'), join(dir, 'fraction.dcm'), '--json');
+    const doc = CheckDocument.parse(JSON.parse(r.stdout));
+    const plan = doc.plans[0]!;
+    expect(plan.courseTotals[0]!.doseGridSummation).toBe('PLAN');
+    expect(plan.courseTotals[0]!.doseGridCGy).toBeCloseTo(6030, 1);
+    expect(plan.fractionGroups[0]!.totals[0]!.doseGridCGy).toBeCloseTo(201, 1);
+  });
+});
