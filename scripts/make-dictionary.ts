@@ -67,6 +67,10 @@ const KEYWORDS = [
   // RT Dose
   'NumberOfFrames', 'GridFrameOffsetVector', 'DoseGridScaling', 'DoseUnits', 'DoseType', 'DoseSummationType',
   'ReferencedRTPlanSequence', 'ReferencedFractionGroupSequence', 'ReferencedFractionGroupNumber',
+  // RT Structure Set
+  'StructureSetLabel', 'StructureSetROISequence', 'ROINumber', 'ROIName', 'ReferencedFrameOfReferenceUID',
+  'RTROIObservationsSequence', 'RTROIInterpretedType', 'ROIContourSequence', 'ContourSequence', 'ContourGeometricType',
+  'NumberOfContourPoints', 'ContourData',
 ] as const;
 
 const PY = `

@@ -72,9 +72,9 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   let traced: ReturnType<typeof ctDepth> | undefined;
   let ssdAlongAxisMm: number | undefined;
   if (ctx.ct) {
-    traced = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density });
+    traced = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density, ...(ctx.ct.bodyMask ? { bodyMask: ctx.ct.bodyMask } : {}) });
     if (!traced.ok) return notChecked(`CT: ${traced.message}`);
-    ssdAlongAxisMm = ctSsdAlongAxisMm(ctx.ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ctx.ct.bodyThresholdHu);
+    ssdAlongAxisMm = ctSsdAlongAxisMm(ctx.ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ctx.ct.bodyThresholdHu, ctx.ct.bodyMask);
   }
   const depthCm = (traced?.ok ? traced.value.geometricDepthMm : at.depthMm) / MM_PER_CM;
   const offAxisCm = at.offAxisMm / MM_PER_CM;
@@ -110,7 +110,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
       ...(cp0.ssdMm !== undefined ? { planSsdMm: cp0.ssdMm } : {}), ssdAlongRayMm: t.ssdMm, geometricDepthMm: t.geometricDepthMm, radiologicalDepthMm: t.radiologicalDepthMm,
       entryPatientMm: [...t.entryPatientMm] as [number, number, number], densityRange: [...t.densityRange] as [number, number],
       ...(t.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: t.nearestInterfaceMm } : {}),
-      correctionFactor: correction, homogeneousDoseCGy: mu * r.value.dosePerMuCGy, bodyThresholdHu: ctx.ct.bodyThresholdHu,
+      correctionFactor: correction, homogeneousDoseCGy: mu * r.value.dosePerMuCGy, bodyThresholdHu: ctx.ct.bodyThresholdHu, body: ctx.ct.bodySource,
     };
   }
   const dosePerMuCGy = r.value.dosePerMuCGy * correction;

@@ -6,4 +6,8 @@ export interface PatientCt {
   readonly density: (hu: number) => number;
   readonly densityTable: string;
   readonly bodyThresholdHu: number;
+  /** The body from an EXTERNAL structure, when given (else the threshold). */
+  readonly bodyMask?: Uint8Array;
+  /** How the body surface was found, for the result: `EXTERNAL "Body"` or `HU >= -400`. */
+  readonly bodySource: string;
 }

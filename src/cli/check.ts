@@ -38,6 +38,7 @@ export const CheckOptionsSchema = z.object({
   suggestPoint: z.boolean().default(false),
   ct: z.array(z.string().min(1)).optional(),
   dose: z.array(z.string().min(1)).optional(),
+  structures: z.string().min(1).optional(),
   density: z.string().min(1).optional(),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
 });
@@ -52,7 +53,7 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   const policy = loadPolicy(o.policy);
   if (!policy.ok) return refuse(policy.issues);
   const aliases = new Map(o.machineAlias.map((a) => a.split('=') as [string, string]));
-  const ct = o.ct ? loadPatientCts(o.ct, o.density, o.bodyThreshold ?? policy.value.ct.bodyThresholdHu) : undefined;
+  const ct = o.ct ? loadPatientCts(o.ct, o.density, o.bodyThreshold ?? policy.value.ct.bodyThresholdHu, o.structures) : undefined;
   if (ct && !ct.ok) return refuse(ct.issues);
   const doseGrids: DoseGrid[] = [];
   for (const f of o.dose ?? []) {

@@ -16,6 +16,7 @@ const Options = z.object({
   density: z.string().min(1).optional(),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
   json: z.boolean().default(false),
+  structures: z.string().min(1).optional(),
 });
 
 /** `plumbline depth`: per beam, the SSD from the plan and from the CT, geometric and radiological depth. */
@@ -27,7 +28,7 @@ export function runDepth(planFile: string, raw: Record<string, unknown>): Comman
   if (!imported.ok) return refuse(imported.issues);
   const plan = imported.value.plan;
   const threshold = o.bodyThreshold ?? DEFAULT_POLICY.ct.bodyThresholdHu;
-  const cts = loadPatientCts(o.ct, o.density, threshold);
+  const cts = loadPatientCts(o.ct, o.density, threshold, o.structures);
   if (!cts.ok) return refuse(cts.issues);
   const ct = cts.value.find((c) => c.volume.frameOfReferenceUid === plan.frameOfReferenceUid);
   if (!ct) {
@@ -48,8 +49,8 @@ export function runDepth(planFile: string, raw: Record<string, unknown>): Comman
         rows.push({ ...base, point: { source: 'none', reason: '', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
         continue;
       }
-      const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * (beam.sourceAxisDistanceMm ?? 1000), threshold);
-      const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: threshold, density: ct.density });
+      const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * (beam.sourceAxisDistanceMm ?? 1000), threshold, ct.bodyMask);
+      const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: threshold, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) });
       const v = beam.doseVerification.flatMap((x) => x.points).find((p) => p.pointDepthMm !== undefined || p.ssdMm !== undefined);
       const theirs = { ...(v?.pointDepthMm ?? entry.pointDepthMm) !== undefined ? { depthMm: (v?.pointDepthMm ?? entry.pointDepthMm)! } : {},
         ...(v?.equivalentDepthMm ?? entry.equivalentDepthMm) !== undefined ? { equivalentDepthMm: (v?.equivalentDepthMm ?? entry.equivalentDepthMm)! } : {},
@@ -67,7 +68,7 @@ export function runDepth(planFile: string, raw: Record<string, unknown>): Comman
   }
   const doc = DepthDocument.parse({
     schemaVersion: 1, kind: 'plumbline.depth', tool: { name: 'plumbline', version: VERSION }, plan: planFile,
-    ct: { seriesInstanceUid: ct.volume.seriesInstanceUid, frameOfReferenceUid: ct.volume.frameOfReferenceUid, slices: ct.volume.slices, bodyThresholdHu: threshold, densityTable: ct.densityTable },
+    ct: { seriesInstanceUid: ct.volume.seriesInstanceUid, frameOfReferenceUid: ct.volume.frameOfReferenceUid, slices: ct.volume.slices, bodyThresholdHu: threshold, body: ct.bodySource, densityTable: ct.densityTable },
     beams: rows, caution: CAUTION,
   });
   return { stdout: o.json ? [JSON.stringify(doc, null, 2)] : depthText(doc), stderr: [], exitCode: rows.some((r) => r.problem) ? 2 : 0 };

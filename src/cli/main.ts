@@ -48,6 +48,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--ct <path...>', "the patient's CT series (a folder or files): depths and SSD traced through it, heterogeneity corrected")
     .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo' for the invented demo table")
     .option('--body-threshold <HU>', 'HU at or above which a voxel is the body (default from the policy)')
+    .option('--structures <rs.dcm>', 'RT Structure Set: its EXTERNAL structure is the body surface (else the HU threshold)')
     .option('--dose <file...>', "the planning system's RT Dose (any summation type): its dose at the point, shown beside")
     .action((paths: string[], opts: Record<string, unknown>) => {
       outcome = runCheck(paths, opts);
@@ -81,6 +82,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .requiredOption('--ct <path...>', "the patient's CT series (a folder or files)")
     .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo'")
     .option('--body-threshold <HU>', 'HU at or above which a voxel is the body')
+    .option('--structures <rs.dcm>', 'RT Structure Set: its EXTERNAL structure is the body surface')
     .option('--json', 'print one versioned JSON document')
     .action((plan: string, opts: Record<string, unknown>) => {
       outcome = runDepth(plan, opts);

@@ -189,6 +189,18 @@ export const ATTRIBUTES = {
   ReferencedRTPlanSequence: { tag: 'x300c0002', vr: 'SQ', vm: '1', retired: false },
   ReferencedFractionGroupSequence: { tag: 'x300c0020', vr: 'SQ', vm: '1', retired: false },
   ReferencedFractionGroupNumber: { tag: 'x300c0022', vr: 'IS', vm: '1', retired: false },
+  StructureSetLabel: { tag: 'x30060002', vr: 'SH', vm: '1', retired: false },
+  StructureSetROISequence: { tag: 'x30060020', vr: 'SQ', vm: '1', retired: false },
+  ROINumber: { tag: 'x30060022', vr: 'IS', vm: '1', retired: false },
+  ROIName: { tag: 'x30060026', vr: 'LO', vm: '1', retired: false },
+  ReferencedFrameOfReferenceUID: { tag: 'x30060024', vr: 'UI', vm: '1', retired: false },
+  RTROIObservationsSequence: { tag: 'x30060080', vr: 'SQ', vm: '1', retired: false },
+  RTROIInterpretedType: { tag: 'x300600a4', vr: 'CS', vm: '1', retired: false },
+  ROIContourSequence: { tag: 'x30060039', vr: 'SQ', vm: '1', retired: false },
+  ContourSequence: { tag: 'x30060040', vr: 'SQ', vm: '1', retired: false },
+  ContourGeometricType: { tag: 'x30060042', vr: 'CS', vm: '1', retired: false },
+  NumberOfContourPoints: { tag: 'x30060046', vr: 'IS', vm: '1', retired: false },
+  ContourData: { tag: 'x30060050', vr: 'DS', vm: '3-3n', retired: false },
 } as const satisfies Record<string, AttributeEntry>;
 
 export type Keyword = keyof typeof ATTRIBUTES;

@@ -3,3 +3,4 @@ export { parseDicomBytes } from './parse-bytes.js';
 export { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
 export { readCtSeries, readCtVolumes, CT_IMAGE_STORAGE } from './ct-series.js';
 export { readRtDose, RT_DOSE_STORAGE } from './rt-dose.js';
+export { readRtStruct, RT_STRUCTURE_SET_STORAGE } from './rt-struct.js';

@@ -5,6 +5,8 @@ import { type Vec3, add, norm, scale, sub } from './vector.js';
 export interface CtDepthOptions {
   /** Voxels at or above this HU are the body (used when no EXTERNAL contour is given). */
   readonly bodyThresholdHu: number;
+  /** The body from the EXTERNAL contour, one byte per voxel; overrides the threshold. */
+  readonly bodyMask?: Uint8Array;
   /** Relative electron density for an HU value; NaN when the clinic's table does not cover it. */
   readonly density: (hu: number) => number;
   /** A density step larger than this along the ray is an interface. */
@@ -44,7 +46,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
     if (refused !== undefined) return;
     const hu = volume.hu[voxel]!;
     if (entry < 0) {
-      if (hu < o.bodyThresholdHu) return;
+      if (o.bodyMask ? o.bodyMask[voxel] === 0 : hu < o.bodyThresholdHu) return;
       entry = start;
     }
     const rho = o.density(hu);
@@ -76,10 +78,10 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
 }
 
 /** Source to the body surface along the central axis (for the SSD cross-check with the plan). */
-export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPatient: Vec3, maxMm: number, bodyThresholdHu: number): number | undefined {
+export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPatient: Vec3, maxMm: number, bodyThresholdHu: number, bodyMask?: Uint8Array): number | undefined {
   let entry: number | undefined;
   traceRay(volume, sourceMm, add(sourceMm, scale(directionPatient, maxMm)), (voxel, start) => {
-    if (entry === undefined && volume.hu[voxel]! >= bodyThresholdHu) entry = start;
+    if (entry === undefined && (bodyMask ? bodyMask[voxel] === 1 : volume.hu[voxel]! >= bodyThresholdHu)) entry = start;
   });
   return entry;
 }

@@ -5,3 +5,4 @@ export * from './aperture.js';
 export * from './ray-trace.js';
 export * from './ct-depth.js';
 export * from './dose-at-point.js';
+export * from './body-mask.js';

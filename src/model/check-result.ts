@@ -80,6 +80,8 @@ export const BeamCheck = z.object({
           correctionFactor: z.number(),
           homogeneousDoseCGy: z.number(),
           bodyThresholdHu: z.number(),
+          /** How the surface was found: the EXTERNAL structure or the HU threshold. */
+          body: z.string(),
         })
         .optional(),
       /** The planning system's own depth data for the point, where the plan carries them, beside ours. */

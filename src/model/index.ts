@@ -12,3 +12,4 @@ export * from './check-result.js';
 export * from './factor-label.js';
 export * from './ct-volume.js';
 export * from './dose-grid.js';
+export * from './structure.js';

@@ -51,7 +51,7 @@ function handCalculation(b: BeamCheck): string {
 ${c.offAxisCm.toFixed(2)} cm off axis. Collimator ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
 irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
 ${c.ct ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
-geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body from ${c.ct.bodyThresholdHu} HU);
+geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
 heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>` : ''}
 <table class="calc">${lines}${c.ct ? `<tr><td>heterogeneity correction CF</td><td class="num">${c.ct.correctionFactor.toFixed(4)}</td></tr>` : ''}<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
 <p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>

@@ -26,7 +26,7 @@ export const DepthDocument = z.object({
   kind: z.literal('plumbline.depth'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   plan: z.string(),
-  ct: z.object({ seriesInstanceUid: z.string(), frameOfReferenceUid: z.string(), slices: z.number(), bodyThresholdHu: z.number(), densityTable: z.string() }),
+  ct: z.object({ seriesInstanceUid: z.string(), frameOfReferenceUid: z.string(), slices: z.number(), bodyThresholdHu: z.number(), body: z.string(), densityTable: z.string() }),
   beams: z.array(DepthRow),
   caution: z.string(),
 });
@@ -39,7 +39,7 @@ export function depthText(doc: DepthDocument): string[] {
     f1(b.geometricDepthMm), f1(b.radiologicalDepthMm), b.densityRange ? `${b.densityRange[0].toFixed(2)}–${b.densityRange[1].toFixed(2)}` : '—',
     f1(b.nearestInterfaceMm), f1(b.planningSystem?.depthMm), f1(b.planningSystem?.equivalentDepthMm), f1(b.planningSystem?.ssdMm), b.problem ?? '']);
   return [
-    `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body from HU >= ${doc.ct.bodyThresholdHu}, densities from ${doc.ct.densityTable}`,
+    `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ${doc.ct.densityTable}`,
     ...textTable(['beam', 'name', 'gantry', 'SSD plan mm', 'SSD CT mm', 'diff mm', 'depth mm', 'radiological mm', 'density', 'interface mm', 'TPS depth', 'TPS equiv', 'TPS SSD', ''], rows).map((l) => `  ${l}`),
     ...doc.beams.map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${b.point.reason})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
     '',

@@ -124,3 +124,24 @@ describe('reading a CT series', () => {
     expect(!r.ok && r.issues[0]!.message).toMatch(/not evenly spaced: 8\.000 mm between .*gap-0003\.dcm and .*gap-0001\.dcm/);
   });
 });
+
+describe('the body from an EXTERNAL contour', () => {
+  it('overrides the HU threshold: a body drawn 20 mm inside the anterior face gives SSD 920 mm', async () => {
+    const { writeRtStruct } = await import('../../scripts/fixtures/rt-struct.js');
+    const { readRtStruct } = await import('../../src/dicom/index.js');
+    const { bodyMask } = await import('../../src/geometry/index.js');
+    const file = join(work, 'rs.dcm');
+    // One square contour per slice from z = −98 to 98 (slice centres), y from −80 to 100, x ±100.
+    const contours = Array.from({ length: 50 }, (_, k) => -98 + 4 * k).map((z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]] as const);
+    writeRtStruct(file, 'body', '1.2.826.0.1.3680043.2.1125.1', [{ number: 1, name: 'Body', type: 'EXTERNAL', contours }]);
+    const rs = readRtStruct(file);
+    if (!rs.ok) throw new Error(rs.issues.map((i) => i.message).join('; '));
+    const mask = bodyMask(water, rs.value.structures[0]!);
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    const d = ctDepth(water, f.sourcePatientMm, [0, 50, 0], { ...opts, bodyMask: mask });
+    if (!d.ok) throw new Error(d.message);
+    // Voxel centres inside the contour: y from −78 upwards, so the first body voxel starts at y = −80.
+    expect(d.value.ssdMm).toBeCloseTo(920, 1);
+    expect(d.value.geometricDepthMm).toBeCloseTo(130, 1);
+  });
+});

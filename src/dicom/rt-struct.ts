@@ -1,0 +1,42 @@
+import { readFileSync } from 'node:fs';
+import type { Issue, Result, Structure, StructureSet } from '../model/index.js';
+import { ItemReader, need } from './item-reader.js';
+import { parseDicomBytes } from './parse-bytes.js';
+
+export const RT_STRUCTURE_SET_STORAGE = '1.2.840.10008.5.1.4.1.1.481.3';
+
+/** Reads an RT Structure Set: ROIs with names, interpreted types and closed planar (or point) contours. */
+export function readRtStruct(file: string): Result<StructureSet> {
+  const issues: Issue[] = [];
+  let bytes: Buffer;
+  try {
+    bytes = readFileSync(file);
+  } catch (e) {
+    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+  }
+  const parsed = parseDicomBytes(bytes, file);
+  if (!parsed.ok) return parsed;
+  const r = new ItemReader(parsed.value.dataSet, { file, path: '' }, issues, 'latin1');
+  if (r.string('SOPClassUID') !== RT_STRUCTURE_SET_STORAGE) {
+    return { ok: false, issues: [{ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not an RT Structure Set', expected: RT_STRUCTURE_SET_STORAGE, found: r.string('SOPClassUID') ?? 'none' }] };
+  }
+  const rois = r.sequence('StructureSetROISequence').map((x) => ({
+    number: need(x, 'ROINumber', x.integer('ROINumber'), 'the ROI number'),
+    name: x.string('ROIName') ?? '',
+    frame: x.string('ReferencedFrameOfReferenceUID'),
+  }));
+  const types = new Map(r.sequence('RTROIObservationsSequence').map((o) => [o.integer('ReferencedROINumber'), o.string('RTROIInterpretedType')] as const));
+  const contours = new Map(r.sequence('ROIContourSequence').map((c) => [c.integer('ReferencedROINumber'), c.sequence('ContourSequence').map((k) => {
+    const n = need(k, 'NumberOfContourPoints', k.integer('NumberOfContourPoints'), 'the number of points') ?? 0;
+    const data = need(k, 'ContourData', k.tuple('ContourData', 3 * n), `${3 * n} coordinates (mm)`) ?? [];
+    const pointsMm: [number, number, number][] = [];
+    for (let i = 0; i + 2 < data.length; i += 3) pointsMm.push([data[i]!, data[i + 1]!, data[i + 2]!]);
+    return { geometricType: k.string('ContourGeometricType') ?? '', pointsMm };
+  })] as const));
+  if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
+  const structures: Structure[] = rois.filter((x) => x.number !== undefined).map((x) => ({
+    number: x.number!, name: x.name, ...(types.get(x.number!) ? { type: types.get(x.number!)! } : {}),
+    ...(x.frame ? { frameOfReferenceUid: x.frame } : {}), contours: contours.get(x.number!) ?? [],
+  }));
+  return { ok: true, value: { file, sopInstanceUid: r.string('SOPInstanceUID') ?? '', ...(r.string('StructureSetLabel') ? { label: r.string('StructureSetLabel')! } : {}), structures }, warnings: issues };
+}
