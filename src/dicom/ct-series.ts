@@ -2,143 +2,55 @@ import { readFileSync } from 'node:fs';
 import type { CtVolume, Issue, Result } from '../model/index.js';
 import { ItemReader, need } from './item-reader.js';
 import { parseDicomBytes } from './parse-bytes.js';
-import { EXPLICIT_VR_BE } from './transfer-syntax.js';
+import { DEFLATED_EXPLICIT_VR_LE, EXPLICIT_VR_BE } from './transfer-syntax.js';
 
 export const CT_IMAGE_STORAGE = '1.2.840.10008.5.1.4.1.1.2';
 
-interface Slice {
-  readonly file: string;
-  readonly position: [number, number, number];
-  readonly distanceMm: number;
-  readonly hu: Int16Array;
-}
-
+const PIXEL_DATA = 'x7fe00010';
 /** Geometry tolerance between slices: direction cosines, spacing, and gap regularity. */
 const COSINE_TOLERANCE = 1e-4;
 const SPACING_TOLERANCE_MM = 0.01;
 
+/** What the first pass learns of a slice: its geometry and where its pixels are, not the pixels. */
+interface SliceHeader {
+  readonly file: string;
+  readonly sopClassUid: string | undefined;
+  readonly series: string;
+  readonly frame: string;
+  readonly position: [number, number, number];
+  readonly iop: number[];
+  readonly spacing: number[];
+  readonly rows: number;
+  readonly columns: number;
+  readonly signed: boolean;
+  readonly slope: number;
+  readonly intercept: number;
+  readonly bigEndian: boolean;
+  readonly pixelOffset: number;
+  /** Deflated files only: the inflated pixel bytes (their offset in the file is meaningless). */
+  readonly pixels?: Uint8Array;
+}
+
 /**
  * Reads a CT series into one Int16 volume of HU: slices sorted along the slice normal (never by file
  * name or instance number), orientation, size and spacing the same for all, gaps and tilts refused
- * naming the slices, rescale applied. Files that are not CT images are issues.
+ * naming the slices, rescale applied. Two passes: the headers first (parsing stops at the pixel
+ * data), then each slice's pixels straight into the volume, so memory stays near one volume.
  */
 export function readCtSeries(files: readonly string[]): Result<CtVolume> {
   const issues: Issue[] = [];
-  const slices: Slice[] = [];
-  let ref: { iop: number[]; rows: number; columns: number; spacing: number[]; frame: string; series: string } | undefined;
+  const headers: SliceHeader[] = [];
   for (const file of files) {
-    let bytes: Buffer;
-    try {
-      bytes = readFileSync(file);
-    } catch (e) {
-      issues.push({ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+    const h = readHeader(file, issues);
+    if (!h) continue;
+    if (h.sopClassUid !== CT_IMAGE_STORAGE) {
+      issues.push({ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not a CT image', expected: `CT Image Storage (${CT_IMAGE_STORAGE})`, found: h.sopClassUid ?? 'none' });
       continue;
     }
-    const parsed = parseDicomBytes(bytes, file);
-    if (!parsed.ok) {
-      issues.push(...parsed.issues);
-      continue;
-    }
-    const ds = parsed.value.dataSet;
-    const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
-    const sop = r.string('SOPClassUID');
-    if (sop !== CT_IMAGE_STORAGE) {
-      issues.push({ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not a CT image', expected: `CT Image Storage (${CT_IMAGE_STORAGE})`, found: sop ?? 'none' });
-      continue;
-    }
-    const ipp = need(r, 'ImagePositionPatient', r.tuple('ImagePositionPatient', 3), 'the position of the first voxel (mm)');
-    const iop = need(r, 'ImageOrientationPatient', r.tuple('ImageOrientationPatient', 6), 'the row and column direction cosines');
-    const spacing = need(r, 'PixelSpacing', r.tuple('PixelSpacing', 2), 'the row and column spacing (mm)');
-    const rows = need(r, 'Rows', r.integer('Rows'), 'the number of rows');
-    const columns = need(r, 'Columns', r.integer('Columns'), 'the number of columns');
-    const frame = need(r, 'FrameOfReferenceUID', r.string('FrameOfReferenceUID'), 'the frame of reference UID');
-    const series = r.string('SeriesInstanceUID') ?? '';
-    const bits = r.integer('BitsAllocated');
-    const signed = r.integer('PixelRepresentation') === 1;
-    const slope = r.number('RescaleSlope') ?? 1;
-    const intercept = r.number('RescaleIntercept') ?? 0;
-    const el = ds.elements.x7fe00010;
-    if (!ipp || !iop || !spacing || rows === undefined || columns === undefined || !frame) continue;
-    if (!el || el.encapsulatedPixelData) {
-      issues.push({ severity: 'error', code: el ? 'unsupported-transfer-syntax' : 'missing-attribute', file, path: 'PixelData',
-        message: el ? 'the pixel data are compressed; only uncompressed CT is read' : 'the image has no pixel data' });
-      continue;
-    }
-    if (bits !== 16 || r.integer('SamplesPerPixel') !== 1) {
-      issues.push({ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'only 16-bit greyscale CT is read', expected: '16 bits, 1 sample', found: `${bits} bits` });
-      continue;
-    }
-    if (el.length !== rows * columns * 2) {
-      issues.push({ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match Rows × Columns', expected: `${rows * columns * 2} bytes`, found: `${el.length}` });
-      continue;
-    }
-    if (!ref) ref = { iop, rows, columns, spacing, frame, series };
-    else {
-      const mismatch = iop.some((v, i) => Math.abs(v - ref!.iop[i]!) > COSINE_TOLERANCE) ? 'orientation'
-        : rows !== ref.rows || columns !== ref.columns ? 'size'
-        : spacing.some((v, i) => Math.abs(v - ref!.spacing[i]!) > SPACING_TOLERANCE_MM) ? 'pixel spacing'
-        : frame !== ref.frame ? 'frame of reference' : series !== ref.series ? 'series' : undefined;
-      if (mismatch) {
-        issues.push({ severity: 'error', code: 'inconsistent', file, message: `the slice's ${mismatch} differs from the first slice's (${files[0]})` });
-        continue;
-      }
-    }
-    // Pixel values with the rescale applied, as HU in Int16 (rounded when the slope is not 1).
-    const bigEndian = parsed.value.transferSyntaxUid === EXPLICIT_VR_BE;
-    const view = new DataView(ds.byteArray.buffer, ds.byteArray.byteOffset + el.dataOffset, el.length);
-    const hu = new Int16Array(rows * columns);
-    for (let k = 0; k < hu.length; k++) {
-      const raw = signed ? view.getInt16(2 * k, !bigEndian) : view.getUint16(2 * k, !bigEndian);
-      hu[k] = Math.max(-32768, Math.min(32767, Math.round(raw * slope + intercept)));
-    }
-    const normal = cross(iop.slice(0, 3) as [number, number, number], iop.slice(3) as [number, number, number]);
-    slices.push({ file, position: ipp as [number, number, number], distanceMm: dot(ipp as [number, number, number], normal), hu });
+    headers.push(h);
   }
   if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
-  if (!ref || slices.length === 0) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: 'no CT slices were given' }] };
-  slices.sort((a, b) => a.distanceMm - b.distanceMm);
-  const rowDir = ref.iop.slice(0, 3) as [number, number, number];
-  const colDir = ref.iop.slice(3) as [number, number, number];
-  const normal = cross(rowDir, colDir);
-  const first = slices[0]!;
-  const gap = slices.length > 1 ? slices[1]!.distanceMm - first.distanceMm : 1;
-  for (let k = 1; k < slices.length; k++) {
-    const a = slices[k - 1]!;
-    const b = slices[k]!;
-    const step = b.distanceMm - a.distanceMm;
-    if (step < SPACING_TOLERANCE_MM) {
-      issues.push({ severity: 'error', code: 'duplicate', file: b.file, message: `two slices at the same position (${a.file} and ${b.file})` });
-    } else if (Math.abs(step - gap) > Math.max(SPACING_TOLERANCE_MM, 0.01 * gap)) {
-      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are not evenly spaced: ${step.toFixed(3)} mm between ${a.file} and ${b.file}, ${gap.toFixed(3)} mm elsewhere (a missing slice?)` });
-    }
-    // A tilted (gantry-tilt) series: successive positions not along the normal.
-    const d = [b.position[0] - a.position[0], b.position[1] - a.position[1], b.position[2] - a.position[2]];
-    const along = dot(d as [number, number, number], normal);
-    const off = Math.hypot(d[0]! - along * normal[0], d[1]! - along * normal[1], d[2]! - along * normal[2]);
-    if (off > SPACING_TOLERANCE_MM * 10) {
-      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are tilted: ${b.file} is offset ${off.toFixed(2)} mm across the slice normal from ${a.file}` });
-    }
-  }
-  if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
-  const n = ref.rows * ref.columns;
-  const hu = new Int16Array(n * slices.length);
-  slices.forEach((s, k) => hu.set(s.hu, k * n));
-  return {
-    ok: true,
-    value: {
-      frameOfReferenceUid: ref.frame, seriesInstanceUid: ref.series, columns: ref.columns, rows: ref.rows, slices: slices.length,
-      originMm: first.position, rowDirection: rowDir, columnDirection: colDir, normal,
-      columnSpacingMm: ref.spacing[1]!, rowSpacingMm: ref.spacing[0]!, sliceSpacingMm: gap, hu,
-    },
-    warnings: issues,
-  };
-}
-
-function cross(a: readonly [number, number, number], b: readonly [number, number, number]): [number, number, number] {
-  return [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-}
-function dot(a: readonly [number, number, number], b: readonly [number, number, number]): number {
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+  return assemble(headers);
 }
 
 /**
@@ -146,27 +58,156 @@ function dot(a: readonly [number, number, number], b: readonly [number, number, 
  * each; other objects are skipped. A broken series is an issue, not a reason to drop the others.
  */
 export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; issues: Issue[] } {
-  const bySeries = new Map<string, string[]>();
-  const issues: Issue[] = [];
+  const bySeries = new Map<string, SliceHeader[]>();
   for (const file of files) {
-    let bytes: Buffer;
-    try {
-      bytes = readFileSync(file);
-    } catch {
-      continue;
-    }
-    const parsed = parseDicomBytes(bytes, file);
-    if (!parsed.ok) continue;
-    const ds = parsed.value.dataSet;
-    if (ds.string('x00080016') !== CT_IMAGE_STORAGE) continue;
-    const series = ds.string('x0020000e') ?? '';
-    bySeries.set(series, [...(bySeries.get(series) ?? []), file]);
+    const ignored: Issue[] = [];
+    const h = readHeader(file, ignored);
+    if (!h || h.sopClassUid !== CT_IMAGE_STORAGE) continue;
+    if (ignored.some((i) => i.severity === 'error')) continue;
+    bySeries.set(h.series, [...(bySeries.get(h.series) ?? []), h]);
   }
   const volumes: CtVolume[] = [];
+  const issues: Issue[] = [];
   for (const group of bySeries.values()) {
-    const r = readCtSeries(group);
+    const r = assemble(group);
     if (r.ok) volumes.push(r.value);
     else issues.push(...r.issues);
   }
   return { volumes, issues };
+}
+
+function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
+  let bytes: Buffer;
+  try {
+    bytes = readFileSync(file);
+  } catch (e) {
+    issues.push({ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+    return undefined;
+  }
+  const parsed = parseDicomBytes(bytes, file, { untilTag: PIXEL_DATA });
+  if (!parsed.ok) {
+    issues.push(...parsed.issues);
+    return undefined;
+  }
+  const ds = parsed.value.dataSet;
+  const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
+  const sopClassUid = r.string('SOPClassUID');
+  if (sopClassUid !== CT_IMAGE_STORAGE) return { sopClassUid } as SliceHeader;
+  const ipp = need(r, 'ImagePositionPatient', r.tuple('ImagePositionPatient', 3), 'the position of the first voxel (mm)');
+  const iop = need(r, 'ImageOrientationPatient', r.tuple('ImageOrientationPatient', 6), 'the row and column direction cosines');
+  const spacing = need(r, 'PixelSpacing', r.tuple('PixelSpacing', 2), 'the row and column spacing (mm)');
+  const rows = need(r, 'Rows', r.integer('Rows'), 'the number of rows');
+  const columns = need(r, 'Columns', r.integer('Columns'), 'the number of columns');
+  const frame = need(r, 'FrameOfReferenceUID', r.string('FrameOfReferenceUID'), 'the frame of reference UID');
+  const bits = r.integer('BitsAllocated');
+  const el = ds.elements[PIXEL_DATA];
+  if (!ipp || !iop || !spacing || rows === undefined || columns === undefined || !frame) return undefined;
+  if (!el) {
+    issues.push({ severity: 'error', code: 'missing-attribute', file, path: 'PixelData', message: 'the image has no pixel data' });
+    return undefined;
+  }
+  if (el.length === 0xffffffff) {
+    issues.push({ severity: 'error', code: 'unsupported-transfer-syntax', file, path: 'PixelData', message: 'the pixel data are compressed; only uncompressed CT is read' });
+    return undefined;
+  }
+  if (bits !== 16 || r.integer('SamplesPerPixel') !== 1) {
+    issues.push({ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'only 16-bit greyscale CT is read', expected: '16 bits, 1 sample', found: `${bits} bits` });
+    return undefined;
+  }
+  if (el.length !== rows * columns * 2 || el.dataOffset + el.length > ds.byteArray.length) {
+    issues.push({ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match Rows × Columns or run past the end of the file', expected: `${rows * columns * 2} bytes`, found: `${el.length}` });
+    return undefined;
+  }
+  const deflated = parsed.value.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
+  return {
+    file, sopClassUid, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
+    signed: r.integer('PixelRepresentation') === 1, slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
+    bigEndian: parsed.value.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
+    ...(deflated ? { pixels: ds.byteArray.slice(el.dataOffset, el.dataOffset + el.length) } : {}),
+  };
+}
+
+function assemble(headers: readonly SliceHeader[]): Result<CtVolume> {
+  const issues: Issue[] = [];
+  if (headers.length === 0) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: 'no CT slices were given' }] };
+  const ref = headers[0]!;
+  for (const h of headers.slice(1)) {
+    const mismatch = h.iop.some((v, i) => Math.abs(v - ref.iop[i]!) > COSINE_TOLERANCE) ? 'orientation'
+      : h.rows !== ref.rows || h.columns !== ref.columns ? 'size'
+      : h.spacing.some((v, i) => Math.abs(v - ref.spacing[i]!) > SPACING_TOLERANCE_MM) ? 'pixel spacing'
+      : h.frame !== ref.frame ? 'frame of reference' : h.series !== ref.series ? 'series' : undefined;
+    if (mismatch) issues.push({ severity: 'error', code: 'inconsistent', file: h.file, message: `the slice's ${mismatch} differs from the first slice's (${ref.file})` });
+  }
+  if (issues.length) return { ok: false, issues };
+  const rowDir = ref.iop.slice(0, 3) as [number, number, number];
+  const colDir = ref.iop.slice(3) as [number, number, number];
+  const normal = cross(rowDir, colDir);
+  const sorted = [...headers].sort((a, b) => dot(a.position, normal) - dot(b.position, normal));
+  const gap = sorted.length > 1 ? dot(sorted[1]!.position, normal) - dot(sorted[0]!.position, normal) : 1;
+  for (let k = 1; k < sorted.length; k++) {
+    const a = sorted[k - 1]!;
+    const b = sorted[k]!;
+    const step = dot(b.position, normal) - dot(a.position, normal);
+    if (step < SPACING_TOLERANCE_MM) {
+      issues.push({ severity: 'error', code: 'duplicate', file: b.file, message: `two slices at the same position (${a.file} and ${b.file})` });
+    } else if (Math.abs(step - gap) > Math.max(SPACING_TOLERANCE_MM, 0.01 * gap)) {
+      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are not evenly spaced: ${step.toFixed(3)} mm between ${a.file} and ${b.file}, ${gap.toFixed(3)} mm elsewhere (a missing slice?)` });
+    }
+    // A tilted (gantry-tilt) series: successive positions not along the normal.
+    const d = [b.position[0] - a.position[0], b.position[1] - a.position[1], b.position[2] - a.position[2]] as [number, number, number];
+    const along = dot(d, normal);
+    const off = Math.hypot(d[0] - along * normal[0], d[1] - along * normal[1], d[2] - along * normal[2]);
+    if (off > SPACING_TOLERANCE_MM * 10) {
+      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are tilted: ${b.file} is offset ${off.toFixed(2)} mm across the slice normal from ${a.file}` });
+    }
+  }
+  if (issues.length) return { ok: false, issues };
+  const n = ref.rows * ref.columns;
+  const hu = new Int16Array(n * sorted.length);
+  for (let k = 0; k < sorted.length; k++) {
+    const h = sorted[k]!;
+    let bytes: Uint8Array;
+    try {
+      bytes = h.pixels ?? readFileSync(h.file).subarray(h.pixelOffset, h.pixelOffset + 2 * n);
+    } catch (e) {
+      return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file: h.file, message: `cannot read the file again (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+    }
+    toHu(bytes, h, hu.subarray(k * n, (k + 1) * n));
+  }
+  return {
+    ok: true,
+    value: {
+      frameOfReferenceUid: ref.frame, seriesInstanceUid: ref.series, columns: ref.columns, rows: ref.rows, slices: sorted.length,
+      originMm: sorted[0]!.position, rowDirection: rowDir, columnDirection: colDir, normal,
+      columnSpacingMm: ref.spacing[1]!, rowSpacingMm: ref.spacing[0]!, sliceSpacingMm: gap, hu,
+    },
+    warnings: [],
+  };
+}
+
+/** Stored values to HU with the rescale, clamped to Int16; a typed-array fast path for the common case. */
+function toHu(bytes: Uint8Array, h: SliceHeader, out: Int16Array): void {
+  const n = out.length;
+  const integerRescale = h.slope === 1 && Number.isInteger(h.intercept);
+  if (!h.bigEndian && integerRescale && bytes.byteOffset % 2 === 0) {
+    const src = h.signed ? new Int16Array(bytes.buffer, bytes.byteOffset, n) : new Uint16Array(bytes.buffer, bytes.byteOffset, n);
+    const b = h.intercept;
+    for (let i = 0; i < n; i++) {
+      const v = src[i]! + b;
+      out[i] = v < -32768 ? -32768 : v > 32767 ? 32767 : v;
+    }
+    return;
+  }
+  const view = new DataView(bytes.buffer, bytes.byteOffset, 2 * n);
+  for (let i = 0; i < n; i++) {
+    const raw = h.signed ? view.getInt16(2 * i, !h.bigEndian) : view.getUint16(2 * i, !h.bigEndian);
+    out[i] = Math.max(-32768, Math.min(32767, Math.round(raw * h.slope + h.intercept)));
+  }
+}
+
+function cross(a: readonly [number, number, number], b: readonly [number, number, number]): [number, number, number] {
+  return [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+}
+function dot(a: readonly [number, number, number], b: readonly [number, number, number]): number {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 }

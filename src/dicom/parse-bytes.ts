@@ -17,6 +17,8 @@ export interface ParsedDataset {
 export interface ParseOptions {
   /** Refuse a deflated dataset that inflates beyond this many bytes (a small file can expand enormously). */
   readonly maxInflatedBytes?: number;
+  /** Stop at this tag (e.g. `x7fe00010`, the pixel data: its offset is known without reading it). */
+  readonly untilTag?: string;
 }
 
 export type ParseOutcome =
@@ -79,8 +81,8 @@ export function parseDicomBytes(
   try {
     dataSet =
       layout === 'bare-implicit' || layout === 'bare-explicit'
-        ? dicomParser.parseDicom(input, { TransferSyntaxUID: bareSyntax, vrCallback, inflater } as never)
-        : dicomParser.parseDicom(input, { vrCallback, inflater } as never);
+        ? dicomParser.parseDicom(input, { TransferSyntaxUID: bareSyntax, vrCallback, inflater, ...(options.untilTag ? { untilTag: options.untilTag } : {}) } as never)
+        : dicomParser.parseDicom(input, { vrCallback, inflater, ...(options.untilTag ? { untilTag: options.untilTag } : {}) } as never);
   } catch (e) {
     if (inflateRefused) {
       return fail('too-large', `deflated dataset inflates beyond the limit of ${maxInflated} bytes`);
