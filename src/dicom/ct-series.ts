@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
 import type { CtVolume, Issue, Result } from '../model/index.js';
 import { ItemReader, need } from './item-reader.js';
 import { parseDicomBytes } from './parse-bytes.js';
@@ -76,15 +76,27 @@ export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; 
   return { volumes, issues };
 }
 
+/** Most CT headers fit in this many bytes: read them alone first, the whole file only when not. */
+const HEADER_BYTES = 64 * 1024;
+
 function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
-  let bytes: Buffer;
+  let head: Buffer;
+  let size: number;
   try {
-    bytes = readFileSync(file);
+    const fd = openSync(file, 'r');
+    try {
+      size = fstatSync(fd).size;
+      head = Buffer.allocUnsafe(Math.min(size, HEADER_BYTES));
+      readSync(fd, head, 0, head.length, 0);
+    } finally {
+      closeSync(fd);
+    }
   } catch (e) {
     issues.push({ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
     return undefined;
   }
-  const parsed = parseDicomBytes(bytes, file, { untilTag: PIXEL_DATA });
+  let parsed = parseDicomBytes(head, file, { untilTag: PIXEL_DATA });
+  if ((!parsed.ok || !parsed.value.dataSet.elements[PIXEL_DATA]) && size > head.length) parsed = parseDicomBytes(readFileSync(file), file, { untilTag: PIXEL_DATA });
   if (!parsed.ok) {
     issues.push(...parsed.issues);
     return undefined;
@@ -114,16 +126,18 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
     issues.push({ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'only 16-bit greyscale CT is read', expected: '16 bits, 1 sample', found: `${bits} bits` });
     return undefined;
   }
-  if (el.length !== rows * columns * 2 || el.dataOffset + el.length > ds.byteArray.length) {
+  const deflatedFile = parsed.value.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
+  if (el.length !== rows * columns * 2 || el.dataOffset + el.length > (deflatedFile ? ds.byteArray.length : size)) {
     issues.push({ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match Rows × Columns or run past the end of the file', expected: `${rows * columns * 2} bytes`, found: `${el.length}` });
     return undefined;
   }
-  const deflated = parsed.value.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
+  // A deflated file's offsets are in the inflated bytes: keep its pixels (inflate the whole file once).
+  const deflatedPixels = deflatedFile ? inflatedPixels(file, el.length) : undefined;
   return {
     file, sopClassUid, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
     signed: r.integer('PixelRepresentation') === 1, slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
     bigEndian: parsed.value.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
-    ...(deflated ? { pixels: ds.byteArray.slice(el.dataOffset, el.dataOffset + el.length) } : {}),
+    ...(deflatedPixels ? { pixels: deflatedPixels } : {}),
   };
 }
 
@@ -166,13 +180,21 @@ function assemble(headers: readonly SliceHeader[]): Result<CtVolume> {
   const hu = new Int16Array(n * sorted.length);
   for (let k = 0; k < sorted.length; k++) {
     const h = sorted[k]!;
-    let bytes: Uint8Array;
+    const slice = hu.subarray(k * n, (k + 1) * n);
     try {
-      bytes = h.pixels ?? readFileSync(h.file).subarray(h.pixelOffset, h.pixelOffset + 2 * n);
+      if (h.pixels) toHu(h.pixels, h, slice);
+      else if (!h.bigEndian && h.slope === 1 && Number.isInteger(h.intercept)) {
+        // The common case: the stored values land in the volume's own memory and are rescaled in place.
+        readInto(h.file, new Uint8Array(slice.buffer, slice.byteOffset, 2 * n), h.pixelOffset);
+        rescaleInPlace(slice, h.signed, h.intercept);
+      } else {
+        const raw = new Uint8Array(2 * n);
+        readInto(h.file, raw, h.pixelOffset);
+        toHu(raw, h, slice);
+      }
     } catch (e) {
-      return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file: h.file, message: `cannot read the file again (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+      return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file: h.file, message: `cannot read the pixel data (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
     }
-    toHu(bytes, h, hu.subarray(k * n, (k + 1) * n));
   }
   return {
     ok: true,
@@ -185,19 +207,39 @@ function assemble(headers: readonly SliceHeader[]): Result<CtVolume> {
   };
 }
 
-/** Stored values to HU with the rescale, clamped to Int16; a typed-array fast path for the common case. */
+function readInto(file: string, target: Uint8Array, position: number): void {
+  const fd = openSync(file, 'r');
+  try {
+    let done = 0;
+    while (done < target.length) {
+      const got = readSync(fd, target, done, target.length - done, position + done);
+      if (got === 0) throw Object.assign(new Error('the file ended early'), { code: 'truncated' });
+      done += got;
+    }
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** Little-endian stored values already in place: reinterpret (unsigned when so stored) and add the intercept. */
+function rescaleInPlace(slice: Int16Array, signed: boolean, intercept: number): void {
+  const stored = signed ? slice : new Uint16Array(slice.buffer, slice.byteOffset, slice.length);
+  for (let i = 0; i < slice.length; i++) {
+    const v = stored[i]! + intercept;
+    slice[i] = v < -32768 ? -32768 : v > 32767 ? 32767 : v;
+  }
+}
+
+function inflatedPixels(file: string, length: number): Uint8Array | undefined {
+  const parsed = parseDicomBytes(readFileSync(file), file);
+  if (!parsed.ok) return undefined;
+  const el = parsed.value.dataSet.elements[PIXEL_DATA];
+  return el ? parsed.value.dataSet.byteArray.slice(el.dataOffset, el.dataOffset + length) : undefined;
+}
+
+/** Stored values to HU with the rescale (any byte order or slope), clamped to Int16. */
 function toHu(bytes: Uint8Array, h: SliceHeader, out: Int16Array): void {
   const n = out.length;
-  const integerRescale = h.slope === 1 && Number.isInteger(h.intercept);
-  if (!h.bigEndian && integerRescale && bytes.byteOffset % 2 === 0) {
-    const src = h.signed ? new Int16Array(bytes.buffer, bytes.byteOffset, n) : new Uint16Array(bytes.buffer, bytes.byteOffset, n);
-    const b = h.intercept;
-    for (let i = 0; i < n; i++) {
-      const v = src[i]! + b;
-      out[i] = v < -32768 ? -32768 : v > 32767 ? 32767 : v;
-    }
-    return;
-  }
   const view = new DataView(bytes.buffer, bytes.byteOffset, 2 * n);
   for (let i = 0; i < n; i++) {
     const raw = h.signed ? view.getInt16(2 * i, !h.bigEndian) : view.getUint16(2 * i, !h.bigEndian);
