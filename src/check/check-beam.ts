@@ -1,7 +1,7 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { apertureAt, beamFrame, bldToPatient, ctDepth, ctSsdAlongAxisMm, flatDepth, type Vec3 } from '../geometry/index.js';
 import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type Issue, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
-import { photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
+import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
 import type { PatientCt } from './patient-ct.js';
 
 import type { Policy } from './policy.js';
@@ -67,7 +67,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     y1: aperture.hasJaws.y ? aperture.jawsMm.y1 : e.y1, y2: aperture.hasJaws.y ? aperture.jawsMm.y2 : e.y2 };
   const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
   const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
-  const irradiatedSquareCm = (4 * aperture.areaMm2) / aperture.perimeterMm / MM_PER_CM;
+  const irradiatedSquareCm = equivalentSquareOfOutlineCm(aperture.areaMm2 / (MM_PER_CM * MM_PER_CM), aperture.perimeterMm / MM_PER_CM);
   // With the CT: SSD and depth along the ray to the point, traced through the patient.
   let traced: ReturnType<typeof ctDepth> | undefined;
   let ssdAlongAxisMm: number | undefined;

@@ -6,6 +6,11 @@ export function equivalentSquareCm(xCm: number, yCm: number): number {
   return (2 * xCm * yCm) / (xCm + yCm);
 }
 
+/** The area-to-perimeter rule for any field outline (an MLC-shaped aperture): side = 4A/P. */
+export function equivalentSquareOfOutlineCm(areaCm2: number, perimeterCm: number): number {
+  return (4 * areaCm2) / perimeterCm;
+}
+
 /** Square of the same area as a circle of radius r: side = r·√π (equal-area rule). */
 export function equivalentSquareOfCircleCm(radiusCm: number): number {
   return radiusCm * Math.sqrt(Math.PI);
