@@ -6,3 +6,4 @@ export * from './beam-factors.js';
 export * from './photon-dose.js';
 export * from './beam-data-consistency.js';
 export * from './heterogeneity.js';
+export * from './clarkson.js';

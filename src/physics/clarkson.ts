@@ -1,0 +1,49 @@
+import type { LookupLog, PhotonBeamModel } from '../model/index.js';
+import { spAt, tprAt } from './beam-factors.js';
+import { equivalentSquareOfCircleCm } from './equivalent-square.js';
+
+export interface ClarksonResult {
+  /** Sp·TPR for the irregular field at the point: Sp(0)·[TPR(d, 0) + mean SPR(d, r_i)]. */
+  readonly spTpr: number;
+  readonly sp0: number;
+  readonly tpr0: number;
+  readonly meanSpr: number;
+  readonly sectors: number;
+}
+
+/**
+ * Clarkson sector integration (Clarkson 1941; Cunningham's scatter method), TPR form:
+ *   Sp(r)·TPR(d, r) = Sp(0)·[TPR(d, 0) + SPR(d, r)]
+ * The sectors' radii from the point to the field edge (at the point's depth) are turned into the
+ * equal-area squares of circles, SPR is averaged over the sectors, and the zero-field values are
+ * extrapolated linearly from the two smallest fields of the tables. Returns NaN (with notes) when a
+ * table refuses a lookup.
+ */
+export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadiiCm: readonly number[], log: LookupLog): ClarksonResult {
+  const [s1, s2] = smallestSides(beam);
+  const extrapolate = (f: (s: number) => number) => {
+    const a = f(s1);
+    const b = f(s2);
+    return a - (s1 * (b - a)) / (s2 - s1);
+  };
+  const sp0 = extrapolate((s) => spAt(beam, s, log));
+  const tpr0 = extrapolate((s) => tprAt(beam, depthCm, s, log));
+  const spr = (side: number) => (spAt(beam, side, log) * tprAt(beam, depthCm, side, log)) / sp0 - tpr0;
+  const spr1 = spr(s1);
+  let sum = 0;
+  for (const r of sectorRadiiCm) {
+    const side = equivalentSquareOfCircleCm(r);
+    // Below the smallest measured field, SPR falls linearly to 0 at zero field.
+    sum += side < s1 ? (spr1 * side) / s1 : spr(side);
+  }
+  const meanSpr = sectorRadiiCm.length ? sum / sectorRadiiCm.length : 0;
+  return { spTpr: sp0 * (tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };
+}
+
+/** The two smallest field sides that both the Sp (or Scp) table and the depth-dose table cover. */
+function smallestSides(beam: PhotonBeamModel): [number, number] {
+  const sp = (beam.sp ?? beam.scp)!.rows.values;
+  const dd = (beam.tpr ?? beam.pdd)!.columns!.values;
+  const common = [...sp].filter((s) => s >= dd[0]! - 1e-9).sort((a, b) => a - b);
+  return [common[0] ?? sp[0]!, common[1] ?? sp[1]!];
+}
