@@ -19,6 +19,8 @@ export interface BeamCheckContext {
 }
 
 const MM_PER_CM = 10;
+/** Sectors of the Clarkson integration (at least 36 are recommended; more near edges do no harm). */
+const CLARKSON_SECTORS = 72;
 const CGY_PER_GY = 100;
 
 /**
@@ -84,15 +86,23 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const setupReason = setup === 'SSD' ? `the SSD (${(axisSsdMm / MM_PER_CM).toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - axisSsdMm) / MM_PER_CM).toFixed(1)} cm deep`;
   const approximations: string[] = [];
   const openFraction = aperture.areaMm2 / jawAreaMm2;
-  if (aperture.leaves && openFraction < 0.99) {
-    approximations.push(`irregular (MLC-shaped) field approximated by its equivalent square 4A/P = ${irradiatedSquareCm.toFixed(2)} cm; sector integration comes in a later version`);
+  const irregular = aperture.leaves && openFraction < 0.99;
+  // Irregular fields in SAD setups: Clarkson sectors around the point, radii scaled to its depth.
+  const sectorCrossingsCm = irregular && setup === 'SAD'
+    ? aperture.sectorCrossingsMm(at.atIsocenterPlaneMm[0], at.atIsocenterPlaneMm[1], CLARKSON_SECTORS)
+      .map((xs) => xs.map((r) => (r * at.sourceToPointAxialMm) / sadMm / MM_PER_CM))
+    : undefined;
+  if (irregular && !sectorCrossingsCm) {
+    approximations.push(`irregular (MLC-shaped) field in an SSD setup approximated by its equivalent square 4A/P = ${irradiatedSquareCm.toFixed(2)} cm`);
   }
+  if (sectorCrossingsCm) approximations.push(`irregular (MLC-shaped) field by Clarkson integration over ${CLARKSON_SECTORS} sectors (leaf transmission not included)`);
   if (wedge && offAxisCm > policy.classification.offAxisCm) approximations.push('the wedge factor is the central-axis value; the wedge profile off axis is not applied');
   if (beam.bolusRoiNumbers.length) approximations.push("a bolus is referenced: the depth is taken from the plan's SSD, which must include it");
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push('table top pitch and roll are ignored');
 
   const input: PhotonPointInput = {
     setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
+    ...(sectorCrossingsCm ? { sectorCrossingsCm } : {}),
   };
   const r = photonDosePerMu(data, machine.sadCm, input);
   if (!r.ok) return notChecked(r.issues.map((i) => i.message).join('; '));

@@ -33,6 +33,11 @@ export interface Aperture {
   readonly hasJaws: { readonly x: boolean; readonly y: boolean };
   /** Signed distance from (x, y) to the nearest edge: positive inside the opening. */
   edgeDistanceMm(x: number, y: number): number;
+  /**
+   * For n equal sectors around (x, y) (mid-sector directions), the distances along each to where it
+   * crosses the outline, in order: leaving the opening, entering it again, …
+   */
+  sectorCrossingsMm(x: number, y: number, n: number): number[][];
 }
 
 /** The aperture at a control point, or undefined when the beam has no jaws along an axis and no leaves there. */
@@ -100,6 +105,24 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       const inside = bands.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
       return inside ? d : -d;
     },
+    sectorCrossingsMm(x: number, y: number, n: number): number[][] {
+      const [pu, pv] = swapped ? [y, x] : [x, y];
+      const out: number[][] = [];
+      for (let i = 0; i < n; i++) {
+        const t = ((i + 0.5) * 2 * Math.PI) / n;
+        // Direction in BLD (x, y), then in the band frame.
+        const [dx, dy] = [Math.cos(t), Math.sin(t)];
+        const [du, dv] = swapped ? [dy, dx] : [dx, dy];
+        const hits: number[] = [];
+        for (const g of segments) {
+          const h = raySegment(pu, pv, du, dv, g);
+          if (h !== undefined && h > 1e-9) hits.push(h);
+        }
+        hits.sort((a, b) => a - b);
+        out.push(hits.filter((h, k) => k === 0 || h - hits[k - 1]! > 1e-9));
+      }
+      return out;
+    },
   };
 }
 
@@ -136,6 +159,19 @@ function symmetricDifference(a: readonly [number, number], b: readonly [number, 
   if (a[0] !== b[0]) out.push([Math.min(a[0], b[0]), lo]);
   if (a[1] !== b[1]) out.push([hi, Math.max(a[1], b[1])]);
   return out;
+}
+
+/** Distance along the ray (u, v) + s·(du, dv) to where it crosses segment g, if it does. */
+function raySegment(u: number, v: number, du: number, dv: number, g: Segment): number | undefined {
+  const ex = g.bx - g.ax;
+  const ey = g.by - g.ay;
+  const den = du * ey - dv * ex;
+  if (Math.abs(den) < 1e-12) return undefined;
+  const wx = g.ax - u;
+  const wy = g.ay - v;
+  const s = (wx * ey - wy * ex) / den;
+  const q = (wx * dv - wy * du) / den;
+  return q >= 0 && q <= 1 ? s : undefined;
 }
 
 function segmentDistance(px: number, py: number, g: Segment): number {

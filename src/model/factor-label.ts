@@ -16,6 +16,8 @@ export function factorLabel(f: Factor): string {
       return `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
     case 'TPR':
       return `${f.name ?? 'TPR'}(${cm(a[0]!)}, ${cm(a[1]!)})`;
+    case 'SpTPR':
+      return `Sp·${f.name ?? 'TPR'} by Clarkson (${cm(a[0]!)}, ${a[1]} sectors; Sp(0) ${a[2]!.toFixed(3)}, TPR(d,0) ${a[3]!.toFixed(3)})`;
     case 'ISF':
       return `inverse square (${cm(a[0]!)} / ${cm(a[1]!)})²`;
     case 'OAR':

@@ -15,17 +15,24 @@ export interface PhotonPointInput {
   readonly offAxisCm?: number;
   readonly wedgeId?: string;
   readonly trayId?: string;
+  /**
+   * For an irregular field in an SAD setup: per sector around the point, the distances (cm, at the
+   * point's depth) where the sector crosses the field's outline. Sp·TPR then comes from Clarkson
+   * integration instead of the equivalent square.
+   */
+  readonly sectorCrossingsCm?: readonly (readonly number[])[];
 }
 
 /**
  * One factor of the product, with the arguments it was looked up at (cm), so a report can write it
  * as a physicist does: `Sp(10.15 cm)`, `PDD(10 cm, 10 cm, SSD 100 cm)/100`.
  *   D0: []   Sc, Sp: [side]   PDD: [depth, side at surface, SSD]   TPR: [depth, side at depth]
+ *   SpTPR (Clarkson): [depth, sectors, Sp(0), TPR(d, 0)]
  *   ISF: [numerator distance, denominator distance]   OAR: [depth, off-axis]   WF: [side] or [depth, side]   TF: []
  * `name`: TPR or TMR; the OAR's distance convention; the wedge or tray ID.
  */
 export interface Factor {
-  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'ISF' | 'OAR' | 'WF' | 'TF';
+  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF';
   readonly value: number;
   readonly args: readonly number[];
   readonly name?: string;

@@ -19,7 +19,7 @@ export interface ClarksonResult {
  * extrapolated linearly from the two smallest fields of the tables. Returns NaN (with notes) when a
  * table refuses a lookup.
  */
-export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadiiCm: readonly number[], log: LookupLog): ClarksonResult {
+export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadiiCm: readonly (number | readonly number[])[], log: LookupLog): ClarksonResult {
   const [s1, s2] = smallestSides(beam);
   const extrapolate = (f: (s: number) => number) => {
     const a = f(s1);
@@ -30,11 +30,19 @@ export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadi
   const tpr0 = extrapolate((s) => tprAt(beam, depthCm, s, log));
   const spr = (side: number) => (spAt(beam, side, log) * tprAt(beam, depthCm, side, log)) / sp0 - tpr0;
   const spr1 = spr(s1);
-  let sum = 0;
-  for (const r of sectorRadiiCm) {
+  // Below the smallest measured field, SPR falls linearly to 0 at zero field.
+  const sprOfRadius = (r: number) => {
     const side = equivalentSquareOfCircleCm(r);
-    // Below the smallest measured field, SPR falls linearly to 0 at zero field.
-    sum += side < s1 ? (spr1 * side) / s1 : spr(side);
+    return side < s1 ? (spr1 * side) / s1 : spr(side);
+  };
+  let sum = 0;
+  for (const sector of sectorRadiiCm) {
+    // A sector that leaves the field and enters it again (a re-entrant outline) adds the open
+    // segments and subtracts the blocked ones: SPR(r1) − SPR(r2) + SPR(r3) − …
+    const crossings = typeof sector === 'number' ? [sector] : sector;
+    crossings.forEach((r, k) => {
+      sum += (k % 2 === 0 ? 1 : -1) * sprOfRadius(r);
+    });
   }
   const meanSpr = sectorRadiiCm.length ? sum / sectorRadiiCm.length : 0;
   return { spTpr: sp0 * (tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };

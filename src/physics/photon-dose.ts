@@ -1,5 +1,6 @@
 import type { Factor, Issue, LookupNote, PhotonBeamModel, PhotonPointInput, PhotonPointOutcome, PhotonPointResult } from '../model/index.js';
 import { pddAt, spAt, tprAt } from './beam-factors.js';
+import { clarksonSpTpr } from './clarkson.js';
 import { collimatorEquivalentSquareCm, equivalentSquareCm } from './equivalent-square.js';
 import { inverseSquareFactor, projectFieldCm } from './inverse-square.js';
 
@@ -39,11 +40,16 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm), args: [cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm] },
     );
   } else {
-    factors.push(
-      { key: 'Sp', value: spAt(beam, squareAtDepth, log), args: [squareAtDepth] },
-      { key: 'TPR', value: tprAt(beam, d, squareAtDepth, log), args: [d, squareAtDepth], name: beam.tpr?.kind ?? 'TPR' },
-      { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, spd), args: [cal.ssd0Cm + cal.d0Cm, spd] },
-    );
+    if (input.sectorCrossingsCm) {
+      const c = clarksonSpTpr(beam, d, input.sectorCrossingsCm, log);
+      factors.push({ key: 'SpTPR', value: c.spTpr, args: [d, c.sectors, c.sp0, c.tpr0], name: beam.tpr?.kind ?? 'TPR' });
+    } else {
+      factors.push(
+        { key: 'Sp', value: spAt(beam, squareAtDepth, log), args: [squareAtDepth] },
+        { key: 'TPR', value: tprAt(beam, d, squareAtDepth, log), args: [d, squareAtDepth], name: beam.tpr?.kind ?? 'TPR' },
+      );
+    }
+    factors.push({ key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, spd), args: [cal.ssd0Cm + cal.d0Cm, spd] });
   }
   if (beam.oar) {
     const xAt = beam.oar.offAxisAt === 'depth' ? offAxis : projectFieldCm(offAxis, spd, sadCm);

@@ -16,8 +16,8 @@ function row(b: BeamCheck): string[] {
   if (!c) return [String(b.beamNumber), b.beamName ?? '—', energy, '—', '—', '—', '—', '—', '—', '—', '—', '—', '—', fixed(b.plannedMu, 1), '—', fixed(b.planningSystemDoseCGy, 1), '—', '—', '—', 'not checked'];
   return [
     String(b.beamNumber), b.beamName ?? '—', energy, c.setup, c.depthCm.toFixed(2), c.offAxisCm.toFixed(2), c.collimatorSquareCm.toFixed(2),
-    `${c.irradiatedSquareCm.toFixed(2)}${c.approximations.some((a) => a.startsWith('irregular')) ? '*' : ''}`,
-    fixed(f('Sc'), 3), fixed(f('Sp'), 3), fixed(f('TPR') ?? f('PDD'), 4), fixed(f('OAR'), 3), fixed(f('WF'), 3),
+    `${c.irradiatedSquareCm.toFixed(2)}${c.factors.some((x) => x.key === 'SpTPR') ? ' (Clarkson)' : c.approximations.some((a) => a.startsWith('irregular')) ? '*' : ''}`,
+    fixed(f('Sc'), 3), fixed(f('Sp'), 3), fixed(f('TPR') ?? f('PDD') ?? f('SpTPR'), 4), fixed(f('OAR'), 3), fixed(f('WF'), 3),
     fixed(b.plannedMu, 1), fixed(c.independentMu, 1), fixed(b.planningSystemDoseCGy, 1), c.independentDoseCGy.toFixed(1),
     signed(c.doseDeviationPercent), `${b.tolerancePercent}/${b.actionPercent}`, b.verdict ?? '—',
   ];

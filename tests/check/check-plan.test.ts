@@ -50,9 +50,10 @@ describe('checking the demo clinic', () => {
     expect(beams(box).map((b) => b.verdict)).toEqual(['within tolerance', 'needs review', 'within tolerance', 'within tolerance']);
   });
 
-  it('says "approximated" for the MLC-shaped field and puts it in the irregular category', () => {
+  it('integrates the MLC-shaped field by Clarkson sectors (SAD setup) and puts it in the irregular category', () => {
     const b = beams(check(importOrThrow(clinic('lung-mlc.dcm')), demo))[0]!;
-    expect(b.calculation!.approximations.join(' ')).toMatch(/approximated by its equivalent square/);
+    expect(b.calculation!.factors.map((f) => f.key)).toEqual(['D0', 'Sc', 'SpTPR', 'ISF', 'OAR']);
+    expect(b.calculation!.approximations.join(' ')).toMatch(/Clarkson integration over 72 sectors/);
     expect(b.category).toBe('irregular-or-small');
   });
 });

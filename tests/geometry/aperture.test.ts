@@ -61,3 +61,18 @@ describe('an MLC without X jaws', () => {
     expect(a.openExtentMm).toEqual({ x1: -40, x2: 30, y1: -20, y2: 10 }); // the top pair is closed
   });
 });
+
+describe('sector crossings for Clarkson integration', () => {
+  it('from the centre of a 100 x 100 mm jaw field: the distance to the edge in each sector', () => {
+    const a = apertureAt(beam(), cp([-50, 50], [-50, 50]))!;
+    const s = a.sectorCrossingsMm(0, 0, 8);
+    // Mid-sector directions 22.5°, 67.5°, …: the edge at 50 / cos 22.5° (hand calculation).
+    for (const xs of s) expect(xs).toEqual([expect.closeTo(50 / Math.cos(Math.PI / 8), 9)]);
+  });
+  it('a sector leaving a C-shaped opening and entering it again lists every crossing', () => {
+    // Three 10 mm pairs: the lower and upper open from −50 to 50, the middle only from −50 to −20.
+    const a = apertureAt(beam({ pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], [-50, -50, -50, 50, -20, 50]))!;
+    // From (30, −10) straight up (the first of two sectors points at 90°): out at y = −5, in at 5, out at 15.
+    expect(a.sectorCrossingsMm(30, -10, 2)[0]).toEqual([expect.closeTo(5, 9), expect.closeTo(15, 9), expect.closeTo(25, 9)]);
+  });
+});
