@@ -1,27 +1,15 @@
-import { readFileSync } from 'node:fs';
-import type { DoseGrid, Issue, Result } from '../model/index.js';
-import { ItemReader, need } from './item-reader.js';
-import { parseDicomBytes } from './parse-bytes.js';
+import type { DoseGrid, Result } from '../model/index.js';
+import { need } from './item-reader.js';
+import { readDicomObject } from './read-object.js';
 import { EXPLICIT_VR_BE } from './transfer-syntax.js';
 
 export const RT_DOSE_STORAGE = '1.2.840.10008.5.1.4.1.1.481.2';
 
 /** Reads an RT Dose file (any summation type) into a dose grid in Gy, Dose Grid Scaling applied. */
 export function readRtDose(file: string): Result<DoseGrid> {
-  const issues: Issue[] = [];
-  let bytes: Buffer;
-  try {
-    bytes = readFileSync(file);
-  } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
-  }
-  const parsed = parseDicomBytes(bytes, file);
-  if (!parsed.ok) return parsed;
-  const ds = parsed.value.dataSet;
-  const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
-  if (r.string('SOPClassUID') !== RT_DOSE_STORAGE) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not an RT Dose', expected: RT_DOSE_STORAGE, found: r.string('SOPClassUID') ?? 'none' }] };
-  }
+  const obj = readDicomObject(file, RT_DOSE_STORAGE, 'RT Dose');
+  if (!obj.ok) return obj;
+  const { reader: r, dataSet: ds, issues } = obj.value;
   const ipp = need(r, 'ImagePositionPatient', r.tuple('ImagePositionPatient', 3), 'the position of the first voxel (mm)');
   const iop = need(r, 'ImageOrientationPatient', r.tuple('ImageOrientationPatient', 6), 'the direction cosines');
   const spacing = need(r, 'PixelSpacing', r.tuple('PixelSpacing', 2), 'the pixel spacing (mm)');
@@ -39,7 +27,7 @@ export function readRtDose(file: string): Result<DoseGrid> {
   if (bits !== 16 && bits !== 32) return { ok: false, issues: [{ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'dose grids of 16 or 32 bits are read', found: `${bits}` }] };
   const n = rows * columns * frames;
   if (el.length !== (n * bits) / 8) return { ok: false, issues: [{ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match the grid', expected: `${(n * bits) / 8} bytes`, found: `${el.length}` }] };
-  const little = parsed.value.transferSyntaxUid !== EXPLICIT_VR_BE;
+  const little = obj.value.transferSyntaxUid !== EXPLICIT_VR_BE;
   const signed = r.integer('PixelRepresentation') === 1;
   const view = new DataView(ds.byteArray.buffer, ds.byteArray.byteOffset + el.dataOffset, el.length);
   const doseGy = new Float32Array(n);

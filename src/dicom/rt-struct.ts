@@ -1,25 +1,14 @@
-import { readFileSync } from 'node:fs';
-import type { Issue, Result, Structure, StructureSet } from '../model/index.js';
-import { ItemReader, need } from './item-reader.js';
-import { parseDicomBytes } from './parse-bytes.js';
+import type { Result, Structure, StructureSet } from '../model/index.js';
+import { need } from './item-reader.js';
+import { readDicomObject } from './read-object.js';
 
 export const RT_STRUCTURE_SET_STORAGE = '1.2.840.10008.5.1.4.1.1.481.3';
 
 /** Reads an RT Structure Set: ROIs with names, interpreted types and closed planar (or point) contours. */
 export function readRtStruct(file: string): Result<StructureSet> {
-  const issues: Issue[] = [];
-  let bytes: Buffer;
-  try {
-    bytes = readFileSync(file);
-  } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
-  }
-  const parsed = parseDicomBytes(bytes, file);
-  if (!parsed.ok) return parsed;
-  const r = new ItemReader(parsed.value.dataSet, { file, path: '' }, issues, 'latin1');
-  if (r.string('SOPClassUID') !== RT_STRUCTURE_SET_STORAGE) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not an RT Structure Set', expected: RT_STRUCTURE_SET_STORAGE, found: r.string('SOPClassUID') ?? 'none' }] };
-  }
+  const obj = readDicomObject(file, RT_STRUCTURE_SET_STORAGE, 'RT Structure Set');
+  if (!obj.ok) return obj;
+  const { reader: r, issues } = obj.value;
   const rois = r.sequence('StructureSetROISequence').map((x) => ({
     number: need(x, 'ROINumber', x.integer('ROINumber'), 'the ROI number'),
     name: x.string('ROIName') ?? '',
