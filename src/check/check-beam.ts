@@ -88,21 +88,25 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const openFraction = aperture.areaMm2 / jawAreaMm2;
   const irregular = aperture.leaves && openFraction < 0.99;
   // Irregular fields in SAD setups: Clarkson sectors around the point, radii scaled to its depth.
+  const toDepthCm = (rMm: number) => (rMm * at.sourceToPointAxialMm) / sadMm / MM_PER_CM;
+  const [px, py] = at.atIsocenterPlaneMm;
   const sectorCrossingsCm = irregular && setup === 'SAD'
-    ? aperture.sectorCrossingsMm(at.atIsocenterPlaneMm[0], at.atIsocenterPlaneMm[1], CLARKSON_SECTORS)
-      .map((xs) => xs.map((r) => (r * at.sourceToPointAxialMm) / sadMm / MM_PER_CM))
+    ? aperture.sectorCrossingsMm(px, py, CLARKSON_SECTORS).map((xs, i) => ({
+        crossingsCm: xs.map(toDepthCm),
+        jawLimitCm: toDepthCm(jawExitMm(aperture.jawsMm, px, py, ((i + 0.5) * 2 * Math.PI) / CLARKSON_SECTORS)),
+      }))
     : undefined;
   if (irregular && !sectorCrossingsCm) {
     approximations.push(`irregular (MLC-shaped) field in an SSD setup approximated by its equivalent square 4A/P = ${irradiatedSquareCm.toFixed(2)} cm`);
   }
-  if (sectorCrossingsCm) approximations.push(`irregular (MLC-shaped) field by Clarkson integration over ${CLARKSON_SECTORS} sectors (leaf transmission not included)`);
+  if (sectorCrossingsCm) approximations.push(`irregular (MLC-shaped) field by Clarkson integration over ${CLARKSON_SECTORS} sectors, leaf transmission ${data.mlcTransmission ?? 0} where the leaves block`);
   if (wedge && offAxisCm > policy.classification.offAxisCm) approximations.push('the wedge factor is the central-axis value; the wedge profile off axis is not applied');
   if (beam.bolusRoiNumbers.length) approximations.push("a bolus is referenced: the depth is taken from the plan's SSD, which must include it");
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push('table top pitch and roll are ignored');
 
   const input: PhotonPointInput = {
     setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
-    ...(sectorCrossingsCm ? { sectorCrossingsCm } : {}),
+    ...(sectorCrossingsCm ? { clarksonSectors: sectorCrossingsCm } : {}),
   };
   const r = photonDosePerMu(data, machine.sadCm, input);
   if (!r.ok) return notChecked(r.issues.map((i) => i.message).join('; '));
@@ -234,4 +238,13 @@ function theirDepths(beam: Beam, entry: ReferencedBeam, depthMm: number, radiolo
     ...(equivalent !== undefined ? { equivalentDepthMm: equivalent, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - equivalent } : {}) } : {}),
     ...(ssd !== undefined ? { ssdMm: ssd, ssdDifferenceMm: ssdMm - ssd } : {}),
   };
+}
+
+/** Distance from (x, y) inside the jaws to their edge in direction t (radians), isocenter plane. */
+function jawExitMm(j: { x1: number; x2: number; y1: number; y2: number }, x: number, y: number, t: number): number {
+  const dx = Math.cos(t);
+  const dy = Math.sin(t);
+  const tx = dx > 0 ? (j.x2 - x) / dx : dx < 0 ? (j.x1 - x) / dx : Infinity;
+  const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
+  return Math.max(0, Math.min(tx, ty));
 }

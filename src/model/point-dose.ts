@@ -16,11 +16,20 @@ export interface PhotonPointInput {
   readonly wedgeId?: string;
   readonly trayId?: string;
   /**
-   * For an irregular field in an SAD setup: per sector around the point, the distances (cm, at the
-   * point's depth) where the sector crosses the field's outline. Sp·TPR then comes from Clarkson
-   * integration instead of the equivalent square.
+   * For an irregular field in an SAD setup, the sectors around the point: Sp·TPR then comes from
+   * Clarkson integration instead of the equivalent square.
    */
-  readonly sectorCrossingsCm?: readonly (readonly number[])[];
+  readonly clarksonSectors?: readonly ClarksonSector[];
+}
+
+/**
+ * One sector around the point: where it crosses the field outline (cm, at the point's depth),
+ * alternately leaving and re-entering the opening, and where the jaws end it (beyond: nothing).
+ * Between a leaving and the next entering crossing, inside the jaws, the leaves transmit.
+ */
+export interface ClarksonSector {
+  readonly crossingsCm: readonly number[];
+  readonly jawLimitCm?: number;
 }
 
 /**

@@ -1,4 +1,4 @@
-import type { LookupLog, PhotonBeamModel } from '../model/index.js';
+import type { ClarksonSector, LookupLog, PhotonBeamModel } from '../model/index.js';
 import { spAt, tprAt } from './beam-factors.js';
 import { equivalentSquareOfCircleCm } from './equivalent-square.js';
 
@@ -19,7 +19,13 @@ export interface ClarksonResult {
  * extrapolated linearly from the two smallest fields of the tables. Returns NaN (with notes) when a
  * table refuses a lookup.
  */
-export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadiiCm: readonly (number | readonly number[])[], log: LookupLog): ClarksonResult {
+export function clarksonSpTpr(
+  beam: PhotonBeamModel,
+  depthCm: number,
+  sectorRadiiCm: readonly (number | readonly number[] | ClarksonSector)[],
+  log: LookupLog,
+  leafTransmission = 0,
+): ClarksonResult {
   const [s1, s2] = smallestSides(beam);
   const extrapolate = (f: (s: number) => number) => {
     const a = f(s1);
@@ -37,12 +43,18 @@ export function clarksonSpTpr(beam: PhotonBeamModel, depthCm: number, sectorRadi
   };
   let sum = 0;
   for (const sector of sectorRadiiCm) {
-    // A sector that leaves the field and enters it again (a re-entrant outline) adds the open
-    // segments and subtracts the blocked ones: SPR(r1) − SPR(r2) + SPR(r3) − …
-    const crossings = typeof sector === 'number' ? [sector] : sector;
-    crossings.forEach((r, k) => {
-      sum += (k % 2 === 0 ? 1 : -1) * sprOfRadius(r);
-    });
+    // Scatter-sum form: each ring [a, b) of the sector adds weight × (SPR(b) − SPR(a)), weight 1
+    // where open, the leaf transmission where the leaves block it inside the jaws, 0 beyond the jaws.
+    const s = typeof sector === 'number' ? { crossingsCm: [sector] } : Array.isArray(sector) ? { crossingsCm: sector as readonly number[] } : (sector as ClarksonSector);
+    const limit = s.jawLimitCm ?? s.crossingsCm[s.crossingsCm.length - 1] ?? 0;
+    let previous = 0;
+    let open = true;
+    for (const r of [...s.crossingsCm.filter((c) => c < limit), limit]) {
+      const value = sprOfRadius(r);
+      sum += (open ? 1 : leafTransmission) * (value - previous);
+      previous = value;
+      open = !open;
+    }
   }
   const meanSpr = sectorRadiiCm.length ? sum / sectorRadiiCm.length : 0;
   return { spTpr: sp0 * (tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };

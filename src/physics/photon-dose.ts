@@ -40,8 +40,8 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm), args: [cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm] },
     );
   } else {
-    if (input.sectorCrossingsCm) {
-      const c = clarksonSpTpr(beam, d, input.sectorCrossingsCm, log);
+    if (input.clarksonSectors) {
+      const c = clarksonSpTpr(beam, d, input.clarksonSectors, log, beam.mlcTransmission ?? 0);
       factors.push({ key: 'SpTPR', value: c.spTpr, args: [d, c.sectors, c.sp0, c.tpr0], name: beam.tpr?.kind ?? 'TPR' });
     } else {
       factors.push(

@@ -50,3 +50,15 @@ describe('Clarkson integration', () => {
     expect(blockedSpTpr).toBeGreaterThan(0);
   });
 });
+
+describe('leaf transmission in blocked rings', () => {
+  it('a sector blocked by leaves inside the jaws adds the transmitted share of that ring', () => {
+    // Open to 3 cm, leaves from 3 to 8 cm, jaws at 8 cm: SPR(3) + T·(SPR(8) − SPR(3)) per sector.
+    const t = 0.015;
+    const open = clarksonSpTpr(b10, 10, Array(36).fill({ crossingsCm: [3], jawLimitCm: 3 }), []);
+    const leaves = clarksonSpTpr(b10, 10, Array(36).fill({ crossingsCm: [3], jawLimitCm: 8 }), [], t);
+    const wide = clarksonSpTpr(b10, 10, Array(36).fill({ crossingsCm: [8], jawLimitCm: 8 }), []);
+    expect(leaves.meanSpr).toBeCloseTo(open.meanSpr + t * (wide.meanSpr - open.meanSpr), 12);
+    expect(clarksonSpTpr(b10, 10, Array(36).fill({ crossingsCm: [3], jawLimitCm: 8 }), [], 0).meanSpr).toBeCloseTo(open.meanSpr, 12);
+  });
+});
