@@ -15,7 +15,6 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   const cps = beam.controlPoints;
   if (cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg)) return 'an arc (the gantry moves): modulated and arc beams are checked in a later version';
   if (beam.beamType === 'DYNAMIC' || !sameAperture(cps)) return 'the aperture changes during delivery (modulated): checked in a later version';
-  if (beam.blocks.length) return 'shaped by blocks or a cutout: the irregular-field calculation comes in a later version';
   if (beam.compensators.length) return 'a compensator is in the beam';
   if (beam.wedges.some((w) => w.type && w.type !== 'STANDARD')) return `a ${beam.wedges.find((w) => w.type !== 'STANDARD')!.type!.toLowerCase()} wedge: only physical wedges are checked so far`;
   const cp0 = cps[0]!;

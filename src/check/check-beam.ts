@@ -1,5 +1,5 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { apertureAt, beamFrame, bldToPatient, ctDepth, ctSsdAlongAxisMm, flatDepth, type Vec3 } from '../geometry/index.js';
+import { apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
 import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type Issue, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
 import type { PatientCt } from './patient-ct.js';
@@ -86,27 +86,36 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const setupReason = setup === 'SSD' ? `the SSD (${(axisSsdMm / MM_PER_CM).toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - axisSsdMm) / MM_PER_CM).toFixed(1)} cm deep`;
   const approximations: string[] = [];
   const openFraction = aperture.areaMm2 / jawAreaMm2;
-  const irregular = aperture.leaves && openFraction < 0.99;
-  // Irregular fields in SAD setups: Clarkson sectors around the point, radii scaled to its depth.
+  const blocks: BlockOutline[] = beam.blocks.map((b) => ({ kind: b.type, outlineMm: b.outlineMm, transmission: b.transmission ?? 0 }));
+  const irregular = (aperture.leaves && openFraction < 0.99) || blocks.length > 0;
   const toDepthCm = (rMm: number) => (rMm * at.sourceToPointAxialMm) / sadMm / MM_PER_CM;
   const [px, py] = at.atIsocenterPlaneMm;
-  const sectorCrossingsCm = irregular && setup === 'SAD'
-    ? aperture.sectorCrossingsMm(px, py, CLARKSON_SECTORS).map((xs, i) => ({
-        crossingsCm: xs.map(toDepthCm),
-        jawLimitCm: toDepthCm(jawExitMm(aperture.jawsMm, px, py, ((i + 0.5) * 2 * Math.PI) / CLARKSON_SECTORS)),
-      }))
+  if (blocks.length && setup !== 'SAD') return notChecked('a blocked field in an SSD setup: only isocentric setups are integrated by sectors so far');
+  if (blocks.length && !pointIsOpen(aperture, blocks, px, py)) return notChecked('the calculation point lies under a block or the leaves: choose a point in the open field');
+  // Irregular fields in SAD setups: Clarkson rings around the point, radii scaled to its depth.
+  const clarksonSectors = irregular && setup === 'SAD'
+    ? sectorRings(aperture, blocks, px, py, CLARKSON_SECTORS, data.mlcTransmission ?? 0)
+      .map((rings) => ({ crossingsCm: [], rings: rings.map((r) => ({ outerCm: toDepthCm(r.outerMm), weight: r.weight })) }))
     : undefined;
-  if (irregular && !sectorCrossingsCm) {
+  if (irregular && !clarksonSectors) {
     approximations.push(`irregular (MLC-shaped) field in an SSD setup approximated by its equivalent square 4A/P = ${irradiatedSquareCm.toFixed(2)} cm`);
   }
-  if (sectorCrossingsCm) approximations.push(`irregular (MLC-shaped) field by Clarkson integration over ${CLARKSON_SECTORS} sectors, leaf transmission ${data.mlcTransmission ?? 0} where the leaves block`);
+  if (clarksonSectors) {
+    approximations.push(`irregular field (${[aperture.leaves && openFraction < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
+  }
+  const tray = blocks.length ? beam.blocks[0]!.trayId : undefined;
+  if (tray !== undefined && !data.trays.some((t) => t.id === tray)) {
+    return { ok: false, issue: { severity: 'error', code: 'missing-table', beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}),
+      message: `the beam data of ${machine.name} ${data.id} have no tray "${tray}"`, expected: data.trays.map((t) => t.id).join(', ') || 'no trays', found: tray } };
+  }
   if (wedge && offAxisCm > policy.classification.offAxisCm) approximations.push('the wedge factor is the central-axis value; the wedge profile off axis is not applied');
   if (beam.bolusRoiNumbers.length) approximations.push("a bolus is referenced: the depth is taken from the plan's SSD, which must include it");
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push('table top pitch and roll are ignored');
 
   const input: PhotonPointInput = {
     setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
-    ...(sectorCrossingsCm ? { clarksonSectors: sectorCrossingsCm } : {}),
+    ...(clarksonSectors ? { clarksonSectors } : {}),
+    ...(tray !== undefined ? { trayId: tray } : {}),
   };
   const r = photonDosePerMu(data, machine.sadCm, input);
   if (!r.ok) return notChecked(r.issues.map((i) => i.message).join('; '));
@@ -240,11 +249,3 @@ function theirDepths(beam: Beam, entry: ReferencedBeam, depthMm: number, radiolo
   };
 }
 
-/** Distance from (x, y) inside the jaws to their edge in direction t (radians), isocenter plane. */
-function jawExitMm(j: { x1: number; x2: number; y1: number; y2: number }, x: number, y: number, t: number): number {
-  const dx = Math.cos(t);
-  const dy = Math.sin(t);
-  const tx = dx > 0 ? (j.x2 - x) / dx : dx < 0 ? (j.x1 - x) / dx : Infinity;
-  const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
-  return Math.max(0, Math.min(tx, ty));
-}

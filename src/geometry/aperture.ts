@@ -31,6 +31,8 @@ export interface Aperture {
   readonly openExtentMm: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number };
   /** Whether real jaws bound the opening along X and along Y. */
   readonly hasJaws: { readonly x: boolean; readonly y: boolean };
+  /** Whether (x, y) lies in the opening of jaws and leaves. */
+  isOpen(x: number, y: number): boolean;
   /** Signed distance from (x, y) to the nearest edge: positive inside the opening. */
   edgeDistanceMm(x: number, y: number): number;
   /**
@@ -98,6 +100,10 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     centroidMm: centroid,
     openExtentMm: open.length ? { x1: bx[0]!, x2: bx[1]!, y1: by[0]!, y2: by[1]! } : { x1: 0, x2: 0, y1: 0, y2: 0 },
     hasJaws: { x: !!xj, y: !!yj },
+    isOpen(x: number, y: number): boolean {
+      const [u, v] = swapped ? [y, x] : [x, y];
+      return bands.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
+    },
     edgeDistanceMm(x: number, y: number): number {
       const [u, v] = swapped ? [y, x] : [x, y];
       let d = Infinity;

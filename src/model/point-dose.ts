@@ -30,6 +30,8 @@ export interface PhotonPointInput {
 export interface ClarksonSector {
   readonly crossingsCm: readonly number[];
   readonly jawLimitCm?: number;
+  /** Instead of crossings: rings out from the point, each with its weight (1 open, a transmission where blocked). */
+  readonly rings?: readonly { readonly outerCm: number; readonly weight: number }[];
 }
 
 /**

@@ -46,6 +46,15 @@ export function clarksonSpTpr(
     // Scatter-sum form: each ring [a, b) of the sector adds weight × (SPR(b) − SPR(a)), weight 1
     // where open, the leaf transmission where the leaves block it inside the jaws, 0 beyond the jaws.
     const s = typeof sector === 'number' ? { crossingsCm: [sector] } : Array.isArray(sector) ? { crossingsCm: sector as readonly number[] } : (sector as ClarksonSector);
+    if (s.rings) {
+      let before = 0;
+      for (const ring of s.rings) {
+        const value = sprOfRadius(ring.outerCm);
+        sum += ring.weight * (value - before);
+        before = value;
+      }
+      continue;
+    }
     const limit = s.jawLimitCm ?? s.crossingsCm[s.crossingsCm.length - 1] ?? 0;
     let previous = 0;
     let open = true;

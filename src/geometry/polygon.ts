@@ -1,0 +1,32 @@
+/** A closed polygon in a plane, (x, y) vertices in order (a block outline at the isocenter plane, mm). */
+export type Polygon = readonly (readonly [number, number])[];
+
+/** Even-odd rule: inside when a ray from the point crosses the outline an odd number of times. */
+export function insidePolygon(poly: Polygon, x: number, y: number): boolean {
+  let inside = false;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [xi, yi] = poly[i]!;
+    const [xj, yj] = poly[j]!;
+    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
+/** Distances along the ray (x, y) + s·(dx, dy), s > 0, where it crosses the polygon's edges. */
+export function polygonRayCrossings(poly: Polygon, x: number, y: number, dx: number, dy: number): number[] {
+  const out: number[] = [];
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [ax, ay] = poly[j]!;
+    const [bx, by] = poly[i]!;
+    const ex = bx - ax;
+    const ey = by - ay;
+    const den = dx * ey - dy * ex;
+    if (Math.abs(den) < 1e-12) continue;
+    const wx = ax - x;
+    const wy = ay - y;
+    const s = (wx * ey - wy * ex) / den;
+    const q = (wx * dy - wy * dx) / den;
+    if (s > 1e-9 && q >= 0 && q <= 1) out.push(s);
+  }
+  return out.sort((a, b) => a - b);
+}

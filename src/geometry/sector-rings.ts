@@ -1,0 +1,63 @@
+import type { Aperture } from './aperture.js';
+import { insidePolygon, polygonRayCrossings, type Polygon } from './polygon.js';
+
+export interface BlockOutline {
+  readonly kind: 'APERTURE' | 'SHIELDING';
+  readonly outlineMm: Polygon;
+  readonly transmission: number;
+}
+
+export interface Ring {
+  /** Outer radius of the ring from the point, mm at the isocenter plane. */
+  readonly outerMm: number;
+  /** 1 where open, the leaves' or the block's transmission where they block, 0 beyond the jaws. */
+  readonly weight: number;
+}
+
+/**
+ * The rings of each of n sectors around (x, y): every place the sector crosses an edge (of the
+ * jaws, the leaves or a block) starts a new ring, and each ring is weighed by what covers its
+ * middle. Handles any outline the three make together, re-entrant or not.
+ */
+export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
+  const j = aperture.jawsMm;
+  const inJaws = (px: number, py: number) => px >= j.x1 && px <= j.x2 && py >= j.y1 && py <= j.y2;
+  const weightAt = (px: number, py: number): number => {
+    if (!inJaws(px, py)) return 0;
+    let w = aperture.isOpen(px, py) ? 1 : leafTransmission;
+    for (const b of blocks) {
+      const inside = insidePolygon(b.outlineMm, px, py);
+      if ((b.kind === 'APERTURE' && !inside) || (b.kind === 'SHIELDING' && inside)) w = Math.min(w, b.transmission);
+    }
+    return w;
+  };
+  const crossings = aperture.sectorCrossingsMm(x, y, n);
+  return crossings.map((apertureCuts, i) => {
+    const t = ((i + 0.5) * 2 * Math.PI) / n;
+    const dx = Math.cos(t);
+    const dy = Math.sin(t);
+    const tx = dx > 0 ? (j.x2 - x) / dx : dx < 0 ? (j.x1 - x) / dx : Infinity;
+    const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
+    const jawExit = Math.max(0, Math.min(tx, ty));
+    const cuts = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy))]
+      .filter((c) => c > 1e-9 && c < jawExit)
+      .sort((a, b) => a - b);
+    const rings: Ring[] = [];
+    let from = 0;
+    for (const to of [...cuts, jawExit]) {
+      if (to - from < 1e-9) continue;
+      const mid = (from + to) / 2;
+      const weight = weightAt(x + mid * dx, y + mid * dy);
+      const last = rings[rings.length - 1];
+      if (last && last.weight === weight) rings[rings.length - 1] = { outerMm: to, weight };
+      else rings.push({ outerMm: to, weight });
+      from = to;
+    }
+    return rings;
+  });
+}
+
+/** Whether the point itself is open (not under a leaf, a jaw or a block). */
+export function pointIsOpen(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number): boolean {
+  return aperture.isOpen(x, y) && blocks.every((b) => (b.kind === 'APERTURE') === insidePolygon(b.outlineMm, x, y));
+}
