@@ -90,15 +90,14 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const irregular = (aperture.leaves && openFraction < 0.99) || blocks.length > 0;
   const toDepthCm = (rMm: number) => (rMm * at.sourceToPointAxialMm) / sadMm / MM_PER_CM;
   const [px, py] = at.atIsocenterPlaneMm;
-  if (blocks.length && setup !== 'SAD') return notChecked('a blocked field in an SSD setup: only isocentric setups are integrated by sectors so far');
   if (blocks.length && !pointIsOpen(aperture, blocks, px, py)) return notChecked('the calculation point lies under a block or the leaves: choose a point in the open field');
-  // Irregular fields in SAD setups: Clarkson rings around the point, radii scaled to its depth.
-  const clarksonSectors = irregular && setup === 'SAD'
+  // Irregular fields: Clarkson rings around the point, radii scaled to its depth.
+  const clarksonSectors = irregular
     ? sectorRings(aperture, blocks, px, py, CLARKSON_SECTORS, data.mlcTransmission ?? 0)
       .map((rings) => ({ crossingsCm: [], rings: rings.map((r) => ({ outerCm: toDepthCm(r.outerMm), weight: r.weight })) }))
     : undefined;
-  if (irregular && !clarksonSectors) {
-    approximations.push(`irregular (MLC-shaped) field in an SSD setup approximated by its equivalent square 4A/P = ${irradiatedSquareCm.toFixed(2)} cm`);
+  if (irregular && setup === 'SSD') {
+    approximations.push('SSD setup of an irregular field: calculated in the TPR form at the point (SPD = SSD + d), which equals the PDD form for consistent beam data');
   }
   if (clarksonSectors) {
     approximations.push(`irregular field (${[aperture.leaves && openFraction < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
@@ -113,7 +112,8 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push('table top pitch and roll are ignored');
 
   const input: PhotonPointInput = {
-    setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
+    // Clarkson integrates Sp·TPR, so irregular fields use the TPR form whatever the setup.
+    setup: clarksonSectors ? 'SAD' : setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
     ...(clarksonSectors ? { clarksonSectors } : {}),
     ...(tray !== undefined ? { trayId: tray } : {}),
   };

@@ -8,13 +8,16 @@ import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
 type BlockSpec = { type: 'APERTURE' | 'SHIELDING'; outline: readonly (readonly [number, number])[]; trayId: string; transmission: number };
-const plan = (name: string, block?: BlockSpec, ssd = 900): Plan =>
-  planFromSpec({
+/** One AP beam, HFS; at SSD 90 cm the point is the isocenter, at SSD 100 cm it is 10 cm below the surface. */
+const plan = (name: string, block?: BlockSpec, ssd = 900): Plan => {
+  const point: [number, number, number] = ssd === 1000 ? [0, 100, 0] : iso;
+  return planFromSpec({
     file: `${name}.dcm`, patientId: 'BLK-1', patientName: 'Block^Test', label: name, name, description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
     beams: [staticBeam(1, 'AP', 6, 0, ssd, iso, { ...(block ? { block } : {}), first: { jawsX: [-100, 100], jawsY: [-100, 100] } })],
   }).plan;
+};
 const dose = (p: Plan) => beams(check(p, demo))[0]!;
 const square = (lo: number, hi: number) => [[lo, lo], [hi, lo], [hi, hi], [lo, hi]] as const;
 
@@ -33,9 +36,14 @@ describe('blocked photon fields', () => {
     expect(d).toBeGreaterThan(0.97 * open.calculation!.independentDoseCGy);
     expect(blocked.calculation!.approximations.join(' ')).toMatch(/1 block\(s\)\) by Clarkson integration/);
   });
-  it('refuses a point under the block, a blocked field at SSD 100, and a tray the beam data do not know', () => {
+  it('a blocked field at SSD 100 is calculated in the TPR form at the point, and says so', () => {
+    const b = dose(plan('ssd', { type: 'SHIELDING', outline: square(40, 100), trayId: 'BLOCK_TRAY', transmission: 0 }, 1000));
+    expect(b.calculation!.setup).toBe('SSD');
+    expect(b.calculation!.factors.map((f) => f.key)).toContain('SpTPR');
+    expect(b.calculation!.approximations.join(' ')).toMatch(/TPR form at the point/);
+  });
+  it('refuses a point under the block and a tray the beam data do not know', () => {
     expect(dose(plan('under', { type: 'SHIELDING', outline: square(-20, 20), trayId: 'BLOCK_TRAY', transmission: 0 })).reason).toMatch(/under a block/);
-    expect(dose(plan('ssd', { type: 'SHIELDING', outline: square(40, 100), trayId: 'BLOCK_TRAY', transmission: 0 }, 1000)).reason).toMatch(/SSD setup/);
     const r = check(plan('tray', { type: 'SHIELDING', outline: square(40, 100), trayId: 'TRAY-9', transmission: 0 }), demo);
     expect(r.issues[0]!.message).toMatch(/no tray "TRAY-9"/);
   });
