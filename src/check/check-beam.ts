@@ -1,9 +1,8 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
-import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type Issue, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
+import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
+import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
 import type { PatientCt } from './patient-ct.js';
-
 import type { Policy } from './policy.js';
 
 export interface BeamCheckContext {
@@ -81,26 +80,30 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const depthCm = (traced?.ok ? traced.value.geometricDepthMm : at.depthMm) / MM_PER_CM;
   const offAxisCm = at.offAxisMm / MM_PER_CM;
   const ssdCm = (traced?.ok ? traced.value.ssdMm : cp0.ssdMm!) / MM_PER_CM;
-  const axisSsdMm = ssdAlongAxisMm ?? cp0.ssdMm!;
+  const axisSsdMm = ssdAlongAxisMm ?? cp0.ssdMm;
+  if (axisSsdMm === undefined) return notChecked('the central axis meets no body voxel in the CT and the plan gives no SSD');
   const setup: 'SSD' | 'SAD' = Math.abs(axisSsdMm - sadMm) <= policy.classification.ssdSetupWithinMm ? 'SSD' : 'SAD';
   const setupReason = setup === 'SSD' ? `the SSD (${(axisSsdMm / MM_PER_CM).toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - axisSsdMm) / MM_PER_CM).toFixed(1)} cm deep`;
   const approximations: string[] = [];
-  const openFraction = aperture.areaMm2 / jawAreaMm2;
   const blocks: BlockOutline[] = beam.blocks.map((b) => ({ kind: b.type, outlineMm: b.outlineMm, transmission: b.transmission ?? 0 }));
-  const irregular = (aperture.leaves && openFraction < 0.99) || blocks.length > 0;
   const toDepthCm = (rMm: number) => (rMm * at.sourceToPointAxialMm) / sadMm / MM_PER_CM;
   const [px, py] = at.atIsocenterPlaneMm;
   if (blocks.length && !pointIsOpen(aperture, blocks, px, py)) return notChecked('the calculation point lies under a block or the leaves: choose a point in the open field');
+  const ringsAt = (x: number, y: number) => sectorRings(aperture, blocks, x, y, CLARKSON_SECTORS, data.mlcTransmission ?? 0);
+  // With blocks the open area is the open rings' area around the point (sector by sector).
+  const pointRings = blocks.length ? ringsAt(px, py) : undefined;
+  const openAreaMm2 = pointRings ? openArea(pointRings) : aperture.areaMm2;
+  const openFraction = openAreaMm2 / jawAreaMm2;
+  const irregular = (aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99) || blocks.length > 0;
   // Irregular fields: Clarkson rings around the point, radii scaled to its depth.
-  const clarksonSectors = irregular
-    ? sectorRings(aperture, blocks, px, py, CLARKSON_SECTORS, data.mlcTransmission ?? 0)
-      .map((rings) => ({ crossingsCm: [], rings: rings.map((r) => ({ outerCm: toDepthCm(r.outerMm), weight: r.weight })) }))
-    : undefined;
+  const sectorsAt = (rings: ReturnType<typeof ringsAt>): ClarksonSector[] =>
+    rings.map((sector) => ({ crossingsCm: [], rings: sector.map((r) => ({ outerCm: toDepthCm(r.outerMm), weight: r.weight })) }));
+  const clarksonSectors = irregular ? sectorsAt(pointRings ?? ringsAt(px, py)) : undefined;
   if (irregular && setup === 'SSD') {
     approximations.push('SSD setup of an irregular field: calculated in the TPR form at the point (SPD = SSD + d), which equals the PDD form for consistent beam data');
   }
   if (clarksonSectors) {
-    approximations.push(`irregular field (${[aperture.leaves && openFraction < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
+    approximations.push(`irregular field (${[aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
   }
   const tray = blocks.length ? beam.blocks[0]!.trayId : undefined;
   if (tray !== undefined && !data.trays.some((t) => t.id === tray)) {
@@ -124,7 +127,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   let ctResult: NonNullable<BeamCheck['calculation']>['ct'];
   if (traced?.ok && ctx.ct) {
     const t = traced.value;
-    const log: import('../model/index.js').LookupNote[] = [];
+    const log: LookupNote[] = [];
     correction = tprRatioCorrection(data, depthCm, t.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, ssdCm + depthCm), log);
     if (!Number.isFinite(correction)) return notChecked(`the heterogeneity correction needs TPR at ${(t.radiologicalDepthMm / MM_PER_CM).toFixed(2)} cm, outside the tables`);
     ctResult = {
@@ -143,7 +146,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
 
   // Is the point fit for a point check? Edge distance at the point's depth, build-up region.
   const depthScale = at.sourceToPointAxialMm / sadMm;
-  const edgeDistanceCm = (aperture.edgeDistanceMm(at.atIsocenterPlaneMm[0], at.atIsocenterPlaneMm[1]) * depthScale) / MM_PER_CM;
+  const edgeDistanceCm = (fieldEdgeDistanceMm(aperture, blocks, px, py) * depthScale) / MM_PER_CM;
   const flags: string[] = [];
   if (edgeDistanceCm < policy.point.edgeMarginCm) {
     flags.push(edgeDistanceCm < 0 ? `the point lies outside the field (${(-edgeDistanceCm).toFixed(1)} cm beyond its edge)` : `the point is ${edgeDistanceCm.toFixed(1)} cm from the field edge (margin ${policy.point.edgeMarginCm} cm)`);
@@ -152,15 +155,23 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   if (ctResult?.nearestInterfaceMm !== undefined && ctResult.nearestInterfaceMm < policy.point.interfaceMarginCm * MM_PER_CM) {
     flags.push(`the point is ${(ctResult.nearestInterfaceMm / MM_PER_CM).toFixed(1)} cm past a density interface along the ray (margin ${policy.point.interfaceMarginCm} cm)`);
   }
-  const suggestion = flags.length ? suggest(aperture, at, frame, sadMm, axisSsdMm, policy) : undefined;
+  const suggestion = flags.length ? suggest(aperture, blocks, at, frame, sadMm, axisSsdMm, policy) : undefined;
   let suggestedPoint: BeamCheck['suggestedPoint'];
   if (suggestion && ctx.suggestPoint) {
-    const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: suggestion.depthCm });
-    if (s.ok) suggestedPoint = { patientMm: suggestion.patientMm, depthCm: suggestion.depthCm, offAxisCm: suggestion.offAxisCm, independentDoseCGy: mu * s.value.dosePerMuCGy };
+    // The suggested point gets its own sectors and, with the CT, its own traced depth and correction.
+    const there = ctx.ct ? ctDepth(ctx.ct.volume, frame.sourcePatientMm, suggestion.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density, ...(ctx.ct.bodyMask ? { bodyMask: ctx.ct.bodyMask } : {}) }) : undefined;
+    const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : suggestion.depthCm;
+    const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: depthThereCm,
+      ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
+      ...(clarksonSectors ? { clarksonSectors: sectorsAt(ringsAt(suggestion.atIsocenterPlaneMm[0], suggestion.atIsocenterPlaneMm[1])) } : {}) });
+    const cf = there?.ok ? tprRatioCorrection(data, depthThereCm, there.value.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM), []) : 1;
+    if (s.ok && Number.isFinite(cf)) {
+      suggestedPoint = { patientMm: suggestion.patientMm, depthCm: depthThereCm, offAxisCm: suggestion.offAxisCm, independentDoseCGy: mu * s.value.dosePerMuCGy * cf };
+    }
   }
 
   const heterogeneous = !!ctResult && (ctResult.densityRange[0] < policy.ct.waterLikeDensity[0] || ctResult.densityRange[1] > policy.ct.waterLikeDensity[1]);
-  const category = categorize(policy, { wedged: !!wedge, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, leaves: aperture.leaves, heterogeneous });
+  const category = categorize(policy, { wedged: !!wedge, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
   const planningSystemDepths = theirDepths(beam, entry, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
     ok: true,
@@ -192,35 +203,48 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
       category,
       tolerancePercent: policy.levels[category]!.tolerancePercent,
       actionPercent: policy.levels[category]!.actionPercent,
-      fitness: { edgeDistanceCm, flags, ...(suggestion ? { suggestion } : {}) },
+      fitness: { edgeDistanceCm, flags, ...(suggestion ? { suggestion: { patientMm: suggestion.patientMm, depthCm: suggestion.depthCm, offAxisCm: suggestion.offAxisCm, edgeDistanceCm: suggestion.edgeDistanceCm } } : {}) },
       ...(suggestedPoint ? { suggestedPoint } : {}),
     },
   };
 }
 
+/** Area of the open rings (weight 1) of n equal sectors: Σ (π/n)(r_out² − r_in²). */
+function openArea(sectors: readonly (readonly { outerMm: number; weight: number }[])[]): number {
+  let area = 0;
+  for (const rings of sectors) {
+    let inner = 0;
+    for (const r of rings) {
+      if (r.weight === 1) area += (Math.PI / sectors.length) * (r.outerMm * r.outerMm - inner * inner);
+      inner = r.outerMm;
+    }
+  }
+  return area;
+}
+
 /** The most demanding category that applies (the one with the widest action level). */
-function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; leaves: boolean; heterogeneous: boolean }): CaseCategory {
+function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; shaped: boolean; heterogeneous: boolean }): CaseCategory {
   const cls = policy.classification;
   const applicable: CaseCategory[] = ['on-axis-open'];
   if (c.wedged || c.offAxisCm > cls.offAxisCm) applicable.push('off-axis-or-wedged');
-  if (c.irradiatedSquareCm < cls.smallFieldCm || (c.leaves && c.openFraction < cls.openFractionBelow)) applicable.push('irregular-or-small');
+  if (c.irradiatedSquareCm < cls.smallFieldCm || (c.shaped && c.openFraction < cls.openFractionBelow)) applicable.push('irregular-or-small');
   if (c.ssdCm > cls.largeSsdCm) applicable.push('large-ssd');
   if (c.heterogeneous) applicable.push('heterogeneous');
   return applicable.reduce((a, b) => (policy.levels[b]!.actionPercent > policy.levels[a]!.actionPercent ? b : a));
 }
 
-/** A better point at the same depth: the aperture's centroid, or the open point farthest from every edge. */
-function suggest(aperture: NonNullable<ReturnType<typeof apertureAt>>, at: ReturnType<typeof flatDepth>, frame: ReturnType<typeof beamFrame> & object,
+/** A better point at the same depth: the open field's centroid, or the open point farthest from every edge. */
+function suggest(aperture: Aperture, blocks: readonly BlockOutline[], at: ReturnType<typeof flatDepth>, frame: NonNullable<ReturnType<typeof beamFrame>>,
   sadMm: number, ssdMm: number, policy: Policy) {
+  const distance = (x: number, y: number) => fieldEdgeDistanceMm(aperture, blocks, x, y);
   let [bx, by] = aperture.centroidMm;
-  let best = aperture.edgeDistanceMm(bx, by);
+  let best = distance(bx, by);
   const scale = at.sourceToPointAxialMm / sadMm;
   if (best * scale < policy.point.edgeMarginCm * MM_PER_CM) {
-    const j = aperture.openExtentMm;
-    const [x0, x1, y0, y1] = [j.x1, j.x2, j.y1, j.y2];
-    for (let x = x0; x <= x1; x += 2) {
-      for (let y = y0; y <= y1; y += 2) {
-        const d = aperture.edgeDistanceMm(x, y);
+    const e = aperture.openExtentMm;
+    for (let x = e.x1; x <= e.x2; x += 2) {
+      for (let y = e.y1; y <= e.y2; y += 2) {
+        const d = distance(x, y);
         if (d > best) [best, bx, by] = [d, x, y];
       }
     }
@@ -228,9 +252,9 @@ function suggest(aperture: NonNullable<ReturnType<typeof apertureAt>>, at: Retur
   if (best <= 0) return undefined;
   const pointBld: Vec3 = [bx * scale, by * scale, at.pointBldMm[2]];
   const patientMm = bldToPatient(frame, pointBld).map((v) => Math.round(v * 10) / 10) as [number, number, number];
-  return { patientMm, depthCm: (at.sourceToPointAxialMm - ssdMm) / MM_PER_CM, offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
+  return { patientMm, atIsocenterPlaneMm: [bx, by] as const, depthCm: (at.sourceToPointAxialMm - ssdMm) / MM_PER_CM,
+    offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
 }
-
 
 /**
  * The planning system's Beam Dose Point Depth, Equivalent Depth and SSD for this beam (the current

@@ -30,3 +30,18 @@ export function polygonRayCrossings(poly: Polygon, x: number, y: number, dx: num
   }
   return out.sort((a, b) => a - b);
 }
+
+/** Distance from (x, y) to the nearest edge of the polygon. */
+export function polygonEdgeDistance(poly: Polygon, x: number, y: number): number {
+  let d = Infinity;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [ax, ay] = poly[j]!;
+    const [bx, by] = poly[i]!;
+    const ex = bx - ax;
+    const ey = by - ay;
+    const len2 = ex * ex + ey * ey;
+    const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((x - ax) * ex + (y - ay) * ey) / len2));
+    d = Math.min(d, Math.hypot(x - (ax + t * ex), y - (ay + t * ey)));
+  }
+  return d;
+}

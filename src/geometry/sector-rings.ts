@@ -1,5 +1,5 @@
 import type { Aperture } from './aperture.js';
-import { insidePolygon, polygonRayCrossings, type Polygon } from './polygon.js';
+import { insidePolygon, polygonEdgeDistance, polygonRayCrossings, type Polygon } from './polygon.js';
 
 export interface BlockOutline {
   readonly kind: 'APERTURE' | 'SHIELDING';
@@ -20,7 +20,10 @@ export interface Ring {
  * middle. Handles any outline the three make together, re-entrant or not.
  */
 export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
-  const j = aperture.jawsMm;
+  // Along an axis without jaws the leaves' open extent bounds the field (no transmission beyond it).
+  const e = aperture.openExtentMm;
+  const jaws = aperture.jawsMm;
+  const j = { x1: aperture.hasJaws.x ? jaws.x1 : e.x1, x2: aperture.hasJaws.x ? jaws.x2 : e.x2, y1: aperture.hasJaws.y ? jaws.y1 : e.y1, y2: aperture.hasJaws.y ? jaws.y2 : e.y2 };
   const inJaws = (px: number, py: number) => px >= j.x1 && px <= j.x2 && py >= j.y1 && py <= j.y2;
   const weightAt = (px: number, py: number): number => {
     if (!inJaws(px, py)) return 0;
@@ -60,4 +63,10 @@ export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[],
 /** Whether the point itself is open (not under a leaf, a jaw or a block). */
 export function pointIsOpen(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number): boolean {
   return aperture.isOpen(x, y) && blocks.every((b) => (b.kind === 'APERTURE') === insidePolygon(b.outlineMm, x, y));
+}
+
+/** Signed distance to the nearest field edge of jaws, leaves and blocks together: positive inside the open field. */
+export function fieldEdgeDistanceMm(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number): number {
+  const d = Math.min(Math.abs(aperture.edgeDistanceMm(x, y)), ...blocks.map((b) => polygonEdgeDistance(b.outlineMm, x, y)));
+  return pointIsOpen(aperture, blocks, x, y) ? d : -d;
 }

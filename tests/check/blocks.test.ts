@@ -27,6 +27,8 @@ describe('blocked photon fields', () => {
     const same = dose(plan('aperture-as-jaws', { type: 'APERTURE', outline: square(-100, 100), trayId: 'BLOCK_TRAY', transmission: 0.03 }));
     const tf = same.calculation!.factors.find((f) => f.key === 'TF')!.value;
     expect(tf).toBe(0.97);
+    // Nothing is blocked, so its open area (from the rings around the point) is the jaws': not an irregular case.
+    expect(same.category).toBe('on-axis-open');
     expect(Math.abs(same.calculation!.independentDoseCGy / tf / open.calculation!.independentDoseCGy - 1)).toBeLessThan(0.005);
   });
   it('a shielding block over a corner lowers the scatter: less dose than open, more than a jaw field of the open part', () => {
@@ -41,6 +43,13 @@ describe('blocked photon fields', () => {
     expect(b.calculation!.setup).toBe('SSD');
     expect(b.calculation!.factors.map((f) => f.key)).toContain('SpTPR');
     expect(b.calculation!.approximations.join(' ')).toMatch(/TPR form at the point/);
+  });
+  it('a point 1 cm from a block edge is flagged, though far from the jaws, and a blocked field is irregular', () => {
+    // Shielding block from x = 10 mm outwards, the point (the isocenter) 10 mm from its edge, 90 mm from the jaws.
+    const b = dose(plan('near-block', { type: 'SHIELDING', outline: [[10, -100], [100, -100], [100, 100], [10, 100]], trayId: 'BLOCK_TRAY', transmission: 0 }));
+    expect(b.fitness!.edgeDistanceCm).toBeCloseTo(1, 1);
+    expect(b.fitness!.flags.join(' ')).toMatch(/from the field edge/);
+    expect(b.category).toBe('irregular-or-small');
   });
   it('refuses a point under the block and a tray the beam data do not know', () => {
     expect(dose(plan('under', { type: 'SHIELDING', outline: square(-20, 20), trayId: 'BLOCK_TRAY', transmission: 0 })).reason).toMatch(/under a block/);
