@@ -1,8 +1,9 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
-import { factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
+import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
 import type { PatientCt } from './patient-ct.js';
+import { planningSystemDepths } from './planning-system-depths.js';
 import type { Policy } from './policy.js';
 
 export interface BeamCheckContext {
@@ -20,7 +21,6 @@ export interface BeamCheckContext {
 const MM_PER_CM = 10;
 /** Sectors of the Clarkson integration (at least 36 are recommended; more near edges do no harm). */
 const CLARKSON_SECTORS = 72;
-const CGY_PER_GY = 100;
 
 /**
  * One beam's independent dose at its calculation point, without CT: geometry in mm from the plan
@@ -31,17 +31,7 @@ const CGY_PER_GY = 100;
 export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck } | { ok: false; issue: Issue } {
   const { beam, entry, point, machine, policy } = ctx;
   const cp0 = beam.controlPoints[0]!;
-  const base: BeamCheck = {
-    beamNumber: beam.number,
-    ...(beam.name ? { beamName: beam.name } : {}),
-    radiationType: beam.radiationType,
-    ...(cp0.nominalEnergyMeV !== undefined ? { nominalEnergy: cp0.nominalEnergyMeV } : {}),
-    status: 'not checked',
-    ...(entry.beamMeterset !== undefined ? { plannedMu: entry.beamMeterset } : {}),
-    ...(entry.beamDoseGy !== undefined ? { planningSystemDoseCGy: entry.beamDoseGy * CGY_PER_GY } : {}),
-    point,
-    verdictReasons: [],
-  };
+  const base: BeamCheck = { ...beamStub(beam, entry), point };
   const notChecked = (reason: string) => ({ ok: true as const, value: { ...base, reason } });
 
   const found = findPhotonBeam(machine, cp0.nominalEnergyMeV!);
@@ -209,6 +199,21 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   };
 }
 
+/** What the plan says of a beam, before any calculation: the result of a beam not checked, plus its reason. */
+export function beamStub(beam: Beam, entry: ReferencedBeam): BeamCheck {
+  const energy = beam.controlPoints[0]?.nominalEnergyMeV;
+  return {
+    beamNumber: beam.number,
+    ...(beam.name ? { beamName: beam.name } : {}),
+    radiationType: beam.radiationType,
+    ...(energy !== undefined ? { nominalEnergy: energy } : {}),
+    status: 'not checked',
+    ...(entry.beamMeterset !== undefined ? { plannedMu: entry.beamMeterset } : {}),
+    ...(entry.beamDoseGy !== undefined ? { planningSystemDoseCGy: cGyFromGy(entry.beamDoseGy) } : {}),
+    verdictReasons: [],
+  };
+}
+
 /** Area of the open rings (weight 1) of n equal sectors: Σ (π/n)(r_out² − r_in²). */
 function openArea(sectors: readonly (readonly { outerMm: number; weight: number }[])[]): number {
   let area = 0;
@@ -256,20 +261,13 @@ function suggest(aperture: Aperture, blocks: readonly BlockOutline[], at: Return
     offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
 }
 
-/**
- * The planning system's Beam Dose Point Depth, Equivalent Depth and SSD for this beam (the current
- * verification sequence, else the retired per-beam attributes), beside ours.
- */
+/** The planning system's own depth data beside ours, with the differences. */
 function theirDepths(beam: Beam, entry: ReferencedBeam, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
-  const v = beam.doseVerification.flatMap((d) => d.points).find((p) => p.pointDepthMm !== undefined || p.ssdMm !== undefined);
-  const depth = v?.pointDepthMm ?? entry.pointDepthMm;
-  const equivalent = v?.equivalentDepthMm ?? entry.equivalentDepthMm;
-  const ssd = v?.ssdMm ?? entry.pointSsdMm;
-  if (depth === undefined && equivalent === undefined && ssd === undefined) return undefined;
+  const t = planningSystemDepths(beam, entry);
+  if (!t) return undefined;
   return {
-    ...(depth !== undefined ? { depthMm: depth, depthDifferenceMm: depthMm - depth } : {}),
-    ...(equivalent !== undefined ? { equivalentDepthMm: equivalent, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - equivalent } : {}) } : {}),
-    ...(ssd !== undefined ? { ssdMm: ssd, ssdDifferenceMm: ssdMm - ssd } : {}),
+    ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),
+    ...(t.equivalentDepthMm !== undefined ? { equivalentDepthMm: t.equivalentDepthMm, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - t.equivalentDepthMm } : {}) } : {}),
+    ...(t.ssdMm !== undefined ? { ssdMm: t.ssdMm, ssdDifferenceMm: ssdMm - t.ssdMm } : {}),
   };
 }
-

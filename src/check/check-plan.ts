@@ -1,7 +1,7 @@
 import { doseAtPointGy } from '../geometry/index.js';
-import type { BeamCheck, DoseGrid, FractionGroup, FractionGroupCheck, Issue, MachineModel, Plan, PlanCheck, Verdict } from '../model/index.js';
+import { type BeamCheck, cGyFromGy, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
 import { unsupportedReason } from './beam-support.js';
-import { checkBeam } from './check-beam.js';
+import { beamStub, checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
 import { matchMachine } from './match-machine.js';
 import type { PatientCt } from './patient-ct.js';
@@ -38,12 +38,11 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       message: 'the CT and the plan are in different frames of reference: the CT cannot be this plan\'s', expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`, found: `the CT's ${ctFrame}` });
   }
   const ct = issues.length ? undefined : o.ct;
-  const groups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
+  const grids = (o.doseGrids ?? []).filter((g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid));
+  const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry): BeamCheck => {
       const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
-      const stub: BeamCheck = { beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}), radiationType: beam.radiationType,
-        status: 'not checked', ...(entry.beamMeterset !== undefined ? { plannedMu: entry.beamMeterset } : {}),
-        ...(entry.beamDoseGy !== undefined ? { planningSystemDoseCGy: entry.beamDoseGy * 100 } : {}), verdictReasons: [] };
+      const stub = beamStub(beam, entry);
       const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
       const why = unsupportedReason(beam, position, entry.beamMeterset);
       if (why) return { ...stub, reason: why };
@@ -67,9 +66,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
     return { number: g.number, ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}), beams: judged, totals: totals(plan, g, judged) };
   });
 
-  const grids = (o.doseGrids ?? []).filter((g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid));
-  const withGrids = attachDoseGrids(groups, grids);
-  groups.splice(0, groups.length, ...withGrids);
+  const groups = attachDoseGrids(checkedGroups, grids);
   const checked = groups.flatMap((g) => g.beams).filter((b) => b.status === 'checked');
   const notChecked = groups.flatMap((g) => g.beams).filter((b) => b.status !== 'checked');
   let verdict: Verdict = 'within tolerance';
@@ -100,6 +97,8 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
 
 /** Verdicts per beam: a beam giving little to its point is judged on its share of the point's dose. */
 function judge(beams: BeamCheck[], policy: Policy): BeamCheck[] {
+  // The point's dose is the planning system's doses of the beams checked there (a beam not checked
+  // has no point of ours); a smaller total only makes the share larger, so the judging stricter.
   const byPoint = new Map<string, number>();
   for (const b of beams) if (b.status === 'checked' && b.point && b.planningSystemDoseCGy !== undefined) {
     byPoint.set(key(b.point.patientMm), (byPoint.get(key(b.point.patientMm)) ?? 0) + b.planningSystemDoseCGy);
@@ -183,11 +182,11 @@ function prescriptionPerFractionCGy(plan: Plan, g: FractionGroup, point: readonl
   for (const r of g.doseReferences) {
     const d = plan.doseReferences.find((x) => x.number === r.doseReferenceNumber);
     const gy = r.targetPrescriptionDoseGy ?? d?.targetPrescriptionDoseGy;
-    if (d?.pointPatientMm && gy !== undefined && key(d.pointPatientMm) === key(point)) return (gy * 100) / g.fractionsPlanned;
+    if (d?.pointPatientMm && gy !== undefined && key(d.pointPatientMm) === key(point)) return cGyFromGy(gy) / g.fractionsPlanned;
   }
   if (plan.fractionGroups.length === 1) {
     const d = plan.doseReferences.find((x) => x.pointPatientMm && x.targetPrescriptionDoseGy !== undefined && key(x.pointPatientMm) === key(point));
-    if (d) return (d.targetPrescriptionDoseGy! * 100) / g.fractionsPlanned;
+    if (d) return cGyFromGy(d.targetPrescriptionDoseGy!) / g.fractionsPlanned;
   }
   return undefined;
 }
@@ -212,7 +211,7 @@ function courseTotals(groups: readonly FractionGroupCheck[]): Total[] {
 /** The grid's dose at a total's point, when the grid is of the matching summation. */
 function withGrid<T extends { pointPatientMm: readonly number[] }>(t: T, grid: DoseGrid | undefined): T {
   const gy = grid ? doseAtPointGy(grid, t.pointPatientMm as [number, number, number]) : undefined;
-  return gy === undefined ? t : { ...t, doseGridCGy: gy * 100, doseGridSummation: grid!.summationType };
+  return gy === undefined ? t : { ...t, doseGridCGy: cGyFromGy(gy), doseGridSummation: grid!.summationType };
 }
 
 /** Per-beam grids (BEAM) to their beams, per-fraction grids (FRACTION) to the group totals. */
@@ -223,7 +222,7 @@ function attachDoseGrids(groups: readonly FractionGroupCheck[], grids: readonly 
     beams: g.beams.map((b) => {
       const grid = grids.find((x) => x.summationType === 'BEAM' && x.referencedBeamNumber === b.beamNumber);
       const gy = grid && b.point ? doseAtPointGy(grid, b.point.patientMm) : undefined;
-      return gy === undefined ? b : { ...b, doseGridCGy: gy * 100 };
+      return gy === undefined ? b : { ...b, doseGridCGy: cGyFromGy(gy) };
     }),
     totals: g.totals.map((t) => withGrid(t, grids.find((x) => x.summationType === 'FRACTION'))),
   }));

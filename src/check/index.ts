@@ -1,3 +1,6 @@
 export * from './policy.js';
 export * from './check-plan.js';
 export * from './verdict.js';
+export * from './plan-depths.js';
+export type { PatientCt } from './patient-ct.js';
+export * from './validate-beam-data.js';

@@ -13,3 +13,5 @@ export * from './factor-label.js';
 export * from './ct-volume.js';
 export * from './dose-grid.js';
 export * from './structure.js';
+export * from './units.js';
+export * from './beam-depth.js';

@@ -1,5 +1,5 @@
 import type { BeamCheck, PlanCheck } from '../model/index.js';
-import { formatIssue } from '../model/index.js';
+import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { CAUTION } from './caution.js';
 import { fixed, textTable } from './table.js';
@@ -39,8 +39,8 @@ export function planCheckText(p: PlanCheck): string[] {
     }
   }
   for (const t of p.courseTotals) {
-    const grid = t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${(t.doseGridCGy / 100).toFixed(2)} Gy` : '';
-    out.push(`  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / 100).toFixed(2)} Gy, planning system ${(t.planningSystemDoseCGy / 100).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`);
+    const grid = t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${(t.doseGridCGy / CGY_PER_GY).toFixed(2)} Gy` : '';
+    out.push(`  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / CGY_PER_GY).toFixed(2)} Gy, planning system ${(t.planningSystemDoseCGy / CGY_PER_GY).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`);
   }
   const notes: string[] = [];
   for (const b of p.fractionGroups.flatMap((g) => g.beams)) {
@@ -75,4 +75,3 @@ export function checkText(doc: CheckDocument): string[] {
   return out;
 }
 
-export { CAUTION };

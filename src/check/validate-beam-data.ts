@@ -1,0 +1,36 @@
+import { type LoadedMachine, validateTables } from '../beamdata/index.js';
+import type { Issue } from '../model/index.js';
+import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
+
+/** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
+const PDD_TPR_TOLERANCE_PERCENT = 1;
+/** Sc and Sp of the reference field must be 1 within this. */
+const REFERENCE_TOLERANCE = 0.005;
+
+/**
+ * Every problem of a loaded machine's beam data: the tables' own checks, and those that need the
+ * physics (Sc = Sp = 1 for the reference field as calibrated; PDD and TPR agreeing after conversion).
+ */
+export function validateBeamData(lm: LoadedMachine): Issue[] {
+  const issues: Issue[] = [...validateTables(lm)];
+  for (const [bi, beam] of lm.machine.beams.entries()) {
+    const ref = referenceFieldFactors(beam, lm.machine.sadCm);
+    for (const [name, side, v] of [['Sc', ref.scCm, ref.sc], ['Sp', ref.spCm, ref.sp]] as const) {
+      if (!(Math.abs(v - 1) <= REFERENCE_TOLERANCE)) {
+        issues.push({ severity: 'error', code: 'physical-range', file: lm.manifestFile, path: `beams[${bi}].calibration`,
+          message: `beam ${beam.id}: ${name} of the reference field (${side.toFixed(2)} cm, as defined ${beam.calibration.referenceFieldAt === 'surface' ? 'at the surface' : 'at the normalization point'}) is not 1`,
+          expected: `1.000 ± ${REFERENCE_TOLERANCE}`, found: Number.isFinite(v) ? v.toFixed(4) : 'outside the table' });
+      }
+    }
+    const agreement = pddTprAgreement(beam);
+    if (!agreement) continue;
+    const pddTable = lm.tables.find((t) => t.beamId === beam.id && t.quantity === 'pdd')!;
+    const n = pddTable.lookup.columns!.values.length;
+    for (const d of agreement.differences.filter((x) => Math.abs(x.differencePercent) > PDD_TPR_TOLERANCE_PERCENT)) {
+      issues.push({ severity: 'error', code: 'tables-disagree', file: pddTable.csv.file, ...pddTable.csv.valuePositions[d.row * n + d.column]!,
+        message: `beam ${beam.id}: PDD at ${d.depthCm} cm for ${d.surfaceSideCm} cm converted to ${beam.tpr!.kind} differs from the ${beam.tpr!.kind} table by ${d.differencePercent.toFixed(2)} %`,
+        expected: `within ±${PDD_TPR_TOLERANCE_PERCENT} %`, found: `${d.differencePercent.toFixed(2)} %` });
+    }
+  }
+  return issues;
+}
