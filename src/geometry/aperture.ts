@@ -42,6 +42,8 @@ export interface Aperture {
   sectorCrossingsMm(x: number, y: number, n: number): number[][];
 }
 
+const UNBOUNDED_MM = 1e4;
+
 /** The aperture at a control point, or undefined when the beam has no jaws along an axis and no leaves there. */
 export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const pos = (t: string) => cp.devices.find((d) => d.type === t)?.positionsMm;
@@ -49,8 +51,8 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const yj = pos('ASYMY') ?? pos('Y');
   const mlcx = beam.limitingDevices.find((d) => d.type === 'MLCX');
   const mlcy = beam.limitingDevices.find((d) => d.type === 'MLCY');
-  const big = 1e4;
-  const jaws = { x1: xj?.[0] ?? -big, x2: xj?.[1] ?? big, y1: yj?.[0] ?? -big, y2: yj?.[1] ?? big };
+  // An axis without jaws is bounded by the leaves alone (hasJaws says so).
+  const jaws = { x1: xj?.[0] ?? -UNBOUNDED_MM, x2: xj?.[1] ?? UNBOUNDED_MM, y1: yj?.[0] ?? -UNBOUNDED_MM, y2: yj?.[1] ?? UNBOUNDED_MM };
   if (!xj && !mlcx && !mlcy) return undefined;
   if (!yj && !mlcx && !mlcy) return undefined;
   const mlc = mlcx ?? mlcy;

@@ -1,5 +1,5 @@
 import type { Factor, Issue, LookupNote, PhotonBeamModel, PhotonPointInput, PhotonPointOutcome, PhotonPointResult } from '../model/index.js';
-import { pddAt, spAt, tprAt } from './beam-factors.js';
+import { pddAt, scAt, spAt, tprAt } from './beam-factors.js';
 import { clarksonSpTpr } from './clarkson.js';
 import { collimatorEquivalentSquareCm, equivalentSquareCm } from './equivalent-square.js';
 import { inverseSquareFactor, projectFieldCm } from './inverse-square.js';
@@ -31,7 +31,7 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
 
   const factors: Factor[] = [
     { key: 'D0', value: cal.doseCGyPerMu, args: [] },
-    { key: 'Sc', value: beam.sc.at(collimatorSquare, 0, log), args: [collimatorSquare] },
+    { key: 'Sc', value: scAt(beam, x, y, log), args: [collimatorSquare] },
   ];
   if (input.setup === 'SSD') {
     factors.push(

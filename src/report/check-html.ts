@@ -1,10 +1,8 @@
 import type { BeamCheck, PlanCheck } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
+import { fixed as n, pointMm as mm, signed } from './table.js';
 
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-const n = (v: number | undefined, d: number) => (v === undefined ? '—' : v.toFixed(d));
-const signed = (v: number | undefined, d = 1) => (v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(d)}`);
-const mm = (p: readonly number[]) => `(${p.map((v) => v.toFixed(1)).join(', ')}) mm`;
 
 /** Deviation of each checked beam against its tolerance and action-level bands, as inline SVG. */
 function deviationChart(beams: readonly BeamCheck[]): string {

@@ -2,10 +2,8 @@ import type { BeamCheck, PlanCheck } from '../model/index.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { CAUTION } from './caution.js';
-import { fixed, textTable } from './table.js';
+import { fixed, pointMm as mm, signed, textTable } from './table.js';
 
-const signed = (v: number | undefined, d = 1) => (v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(d)}`);
-const mm = (p: readonly number[]) => `(${p.map((v) => v.toFixed(1)).join(', ')}) mm`;
 
 const HEADER = ['beam', 'name', 'energy', 'setup', 'depth cm', 'off-axis cm', 'rc cm', 'irr cm', 'Sc', 'Sp', 'TPR/PDD', 'OAR', 'WF', 'MU plan', 'MU indep', 'TPS cGy', 'indep cGy', 'dev %', 'tol/action %', 'verdict'];
 

@@ -1,7 +1,6 @@
 import { z } from 'zod';
-import type { CalculationPoint } from '../model/index.js';
 import { CAUTION } from './caution.js';
-import { textTable } from './table.js';
+import { fixed, textTable } from './table.js';
 
 export const DepthRow = z.object({
   beamNumber: z.number(),
@@ -32,7 +31,7 @@ export const DepthDocument = z.object({
 });
 export type DepthDocument = z.infer<typeof DepthDocument>;
 
-const f1 = (v: number | undefined) => (v === undefined ? '—' : v.toFixed(1));
+const f1 = (v: number | undefined) => fixed(v, 1);
 
 export function depthText(doc: DepthDocument): string[] {
   const rows = doc.beams.map((b) => [String(b.beamNumber), b.beamName ?? '—', f1(b.gantryAngleDeg), f1(b.planSsdMm), f1(b.ctSsdAlongAxisMm), f1(b.ssdDifferenceMm),
@@ -47,4 +46,3 @@ export function depthText(doc: DepthDocument): string[] {
   ];
 }
 
-export type { CalculationPoint };

@@ -9,3 +9,13 @@ export function textTable(header: readonly string[], rows: readonly (readonly st
 export function fixed(v: number | undefined, decimals: number): string {
   return v === undefined ? '—' : v.toFixed(decimals);
 }
+
+/** A signed number (+1.2), or an em dash when absent. */
+export function signed(v: number | undefined, decimals = 1): string {
+  return v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(decimals)}`;
+}
+
+/** A patient point as (x, y, z) mm. */
+export function pointMm(p: readonly number[]): string {
+  return `(${p.map((v) => v.toFixed(1)).join(', ')}) mm`;
+}

@@ -40,14 +40,14 @@ describe('Clarkson integration', () => {
     expect(c.sectors).toBe(36);
   });
 
-  it('a central block lowers the scatter: a 20 × 20 field with a 4 × 4 block at the point gives less than the open field', () => {
-    // Sectors cross the block first, so each contributes SPR(outer) − SPR(block edge) (the scatter-sum form).
-    const open = clarksonSpTpr(b10, 10, rectangleRadii(20, 20, 72), []);
-    const outer = clarksonSpTpr(b10, 10, rectangleRadii(20, 20, 72), []).meanSpr;
-    const inner = clarksonSpTpr(b10, 10, rectangleRadii(4, 4, 72), []).meanSpr;
-    const blockedSpTpr = open.sp0 * (0 + outer - inner); // primary blocked: TPR(d, 0) removed
-    expect(blockedSpTpr).toBeLessThan(open.spTpr);
-    expect(blockedSpTpr).toBeGreaterThan(0);
+  it('a central block is the scatter-sum form: each sector contributes SPR(edge) − SPR(block edge)', () => {
+    // Rings: blocked (weight 0) to 2 cm, open to the field edge; the block's primary is the caller's concern.
+    const radii = rectangleRadii(20, 20, 72);
+    const blocked = clarksonSpTpr(b10, 10, radii.map((r) => ({ crossingsCm: [], rings: [{ outerCm: 2, weight: 0 }, { outerCm: r, weight: 1 }] })), []);
+    const open = clarksonSpTpr(b10, 10, radii, []);
+    const block = clarksonSpTpr(b10, 10, radii.map(() => 2), []);
+    expect(blocked.meanSpr).toBeCloseTo(open.meanSpr - block.meanSpr, 12);
+    expect(blocked.meanSpr).toBeLessThan(open.meanSpr);
   });
 });
 
