@@ -14,7 +14,6 @@ const SPACING_TOLERANCE_MM = 0.01;
 /** What the first pass learns of a slice: its geometry and where its pixels are, not the pixels. */
 interface SliceHeader {
   readonly file: string;
-  readonly sopClassUid: string | undefined;
   readonly series: string;
   readonly frame: string;
   readonly position: [number, number, number];
@@ -42,12 +41,9 @@ export function readCtSeries(files: readonly string[]): Result<CtVolume> {
   const headers: SliceHeader[] = [];
   for (const file of files) {
     const h = readHeader(file, issues);
-    if (!h) continue;
-    if (h.sopClassUid !== CT_IMAGE_STORAGE) {
-      issues.push({ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not a CT image', expected: `CT Image Storage (${CT_IMAGE_STORAGE})`, found: h.sopClassUid ?? 'none' });
-      continue;
-    }
-    headers.push(h);
+    if (h && 'otherSopClassUid' in h) {
+      issues.push({ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not a CT image', expected: `CT Image Storage (${CT_IMAGE_STORAGE})`, found: h.otherSopClassUid ?? 'none' });
+    } else if (h) headers.push(h);
   }
   if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
   return assemble(headers);
@@ -59,15 +55,19 @@ export function readCtSeries(files: readonly string[]): Result<CtVolume> {
  */
 export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; issues: Issue[] } {
   const bySeries = new Map<string, SliceHeader[]>();
+  const issues: Issue[] = [];
   for (const file of files) {
-    const ignored: Issue[] = [];
-    const h = readHeader(file, ignored);
-    if (!h || h.sopClassUid !== CT_IMAGE_STORAGE) continue;
-    if (ignored.some((i) => i.severity === 'error')) continue;
+    // Files that are not DICOM, or DICOM objects other than CT images, are simply not slices.
+    const found: Issue[] = [];
+    const h = readHeader(file, found);
+    if (!h) {
+      if (!found.every((i) => i.code === 'not-dicom' || i.code === 'not-rt-plan')) issues.push(...found);
+      continue;
+    }
+    if ('otherSopClassUid' in h) continue;
     bySeries.set(h.series, [...(bySeries.get(h.series) ?? []), h]);
   }
   const volumes: CtVolume[] = [];
-  const issues: Issue[] = [];
   for (const group of bySeries.values()) {
     const r = assemble(group);
     if (r.ok) volumes.push(r.value);
@@ -79,7 +79,8 @@ export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; 
 /** Most CT headers fit in this many bytes: read them alone first, the whole file only when not. */
 const HEADER_BYTES = 64 * 1024;
 
-function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
+/** A CT slice's header; `{ otherSopClassUid }` for another DICOM object; undefined (with issues) for a broken file. */
+function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly otherSopClassUid: string | undefined } | undefined {
   let head: Buffer;
   let size: number;
   try {
@@ -104,7 +105,7 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
   const ds = parsed.value.dataSet;
   const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
   const sopClassUid = r.string('SOPClassUID');
-  if (sopClassUid !== CT_IMAGE_STORAGE) return { sopClassUid } as SliceHeader;
+  if (sopClassUid !== CT_IMAGE_STORAGE) return { otherSopClassUid: sopClassUid };
   const ipp = need(r, 'ImagePositionPatient', r.tuple('ImagePositionPatient', 3), 'the position of the first voxel (mm)');
   const iop = need(r, 'ImageOrientationPatient', r.tuple('ImageOrientationPatient', 6), 'the row and column direction cosines');
   const spacing = need(r, 'PixelSpacing', r.tuple('PixelSpacing', 2), 'the row and column spacing (mm)');
@@ -134,7 +135,7 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | undefined {
   // A deflated file's offsets are in the inflated bytes: keep its pixels (inflate the whole file once).
   const deflatedPixels = deflatedFile ? inflatedPixels(file, el.length) : undefined;
   return {
-    file, sopClassUid, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
+    file, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
     signed: r.integer('PixelRepresentation') === 1, slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
     bigEndian: parsed.value.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
     ...(deflatedPixels ? { pixels: deflatedPixels } : {}),

@@ -168,3 +168,19 @@ describe('a CT series re-encoded by dcmtk dcmconv', () => {
       if (original.ok && again.ok) expect(Array.from(again.value.hu)).toEqual(Array.from(original.value.hu));
     });
 });
+
+describe('a folder of several series', () => {
+  it('skips other objects but refuses a damaged slice instead of dropping it', async () => {
+    const { readCtVolumes } = await import('../../src/dicom/index.js');
+    const { readFileSync } = await import('node:fs');
+    const dir = join(work, 'damaged');
+    mkdirSync(dir);
+    const files = writeCtPhantom(dir, { name: 'dmg', columns: 8, rows: 8, slices: 4, spacingMm: [4, 4, 4], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.3', hu: () => 0 });
+    writeFileSync(join(dir, 'notes.txt'), 'not DICOM');
+    expect(readCtVolumes([...files, join(dir, 'notes.txt')]).volumes).toHaveLength(1);
+    writeFileSync(files[2]!, readFileSync(files[2]!).subarray(0, 400));
+    const r = readCtVolumes(files);
+    expect(r.volumes).toHaveLength(0);
+    expect(r.issues[0]!.file).toBe(files[2]);
+  });
+});
