@@ -37,7 +37,7 @@ const fg = (fractions: number, rxGy: number, beams: { number: number; doseGy: nu
 
 function pelvisBox(): DemoPlan {
   const iso: Point = [0, 10, -80];
-  const jaws = { jawsX: [-75, 75] as const, jawsY: [-90, 90] as const };
+  const jaws = { jawsXMm: [-75, 75] as const, jawsYMm: [-90, 90] as const };
   return {
     spec: {
       file: 'pelvis-box.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS BOX', name: 'Four-field pelvis box, 15 MV',
@@ -58,7 +58,7 @@ function pelvisBox(): DemoPlan {
 
 function brainLaterals(): DemoPlan {
   const iso: Point = [0, 0, 120];
-  const jaws = { jawsX: [-60, 60] as const, jawsY: [-70, 70] as const };
+  const jaws = { jawsXMm: [-60, 60] as const, jawsYMm: [-70, 70] as const };
   return {
     spec: {
       file: 'brain-laterals.dcm', patientId: 'NG-1002', patientName: 'Demo^Wren', label: 'BRAIN LATS', name: 'Opposed lateral pair, 6 MV',
@@ -81,7 +81,7 @@ function spineSsd(): DemoPlan {
       description: 'Invented demo plan: SSD setup, 3 Gy per fraction at 5 cm depth',
       doseReferences: [coordinatesDoseReference(1, 'prescription point 5 cm deep', point, 30)],
       fractionGroups: fg(10, 30, [{ number: 1, doseGy: 3, point }]),
-      beams: [staticBeam(1, 'PA SPINE', 6, 180, 1000, iso, { first: { jawsX: [-40, 40], jawsY: [-150, 150] } })],
+      beams: [staticBeam(1, 'PA SPINE', 6, 180, 1000, iso, { first: { jawsXMm: [-40, 40], jawsYMm: [-150, 150] } })],
     },
     tpsDifference: [0.009],
   };
@@ -89,7 +89,7 @@ function spineSsd(): DemoPlan {
 
 function breastTangentsMistyped(): DemoPlan {
   const iso: Point = [70, -40, 30];
-  const jaws = { wedgeIn: true, jawsX: [-50, 50] as const, jawsY: [-100, 100] as const };
+  const jaws = { wedgeIn: true, jawsXMm: [-50, 50] as const, jawsYMm: [-100, 100] as const };
   return {
     spec: {
       file: 'breast-tangents.dcm', patientId: 'NG-1004', patientName: 'Demo^Finch', label: 'L BREAST TG', name: 'Wedged tangents, 6 MV',
@@ -114,7 +114,7 @@ function lungMlc(): DemoPlan {
       description: 'Invented demo plan: one oblique field shaped by the MLC',
       doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 60)],
       fractionGroups: fg(30, 60, [{ number: 1, doseGy: 2, point: iso }]),
-      beams: [staticBeam(1, 'RAO30', 6, 330, 915, iso, { mlc: true, first: { collimator: 15, jawsX: [-50, 50], jawsY: [-40, 40], leaves: ellipseLeaves(45, 35) } })],
+      beams: [staticBeam(1, 'RAO30', 6, 330, 915, iso, { mlc: true, first: { collimatorDeg: 15, jawsXMm: [-50, 50], jawsYMm: [-40, 40], leaves: ellipseLeaves(45, 35) } })],
     },
     tpsDifference: [-0.012],
   };
@@ -129,7 +129,7 @@ function chestwallElectron(): DemoPlan {
       description: 'Invented demo plan: 9 MeV electrons with an applicator and cutout (not checked yet)',
       doseReferences: [coordinatesDoseReference(1, 'prescription point', point, 10)],
       fractionGroups: [{ number: 1, fractions: 5, prescriptionGy: 10, beams: [{ number: 1, mu: 221.8, doseGy: 2, specPoint: point }] }],
-      beams: [staticBeam(1, 'E9 SCAR', 9, 0, 1000, point, { radiation: 'ELECTRON', applicator: { id: 'A10', type: 'ELECTRON_SQUARE', description: '10 x 10 cm electron applicator' }, cutout, first: { jawsX: [-100, 100], jawsY: [-100, 100] } })],
+      beams: [staticBeam(1, 'E9 SCAR', 9, 0, 1000, point, { radiation: 'ELECTRON', applicator: { id: 'A10', type: 'ELECTRON_SQUARE', description: '10 x 10 cm electron applicator' }, cutout, first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
     },
     tpsDifference: [0],
   };

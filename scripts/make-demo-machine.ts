@@ -47,12 +47,12 @@ const ENERGIES: EnergyModel[] = [
     wedge10: { W15: 0.85, W30: 0.73, W45: 0.58, W60: 0.45 }, tray: 0.978, mlcTransmission: 0.018 },
 ];
 
-const SSD = 100;
-const REFERENCE_FIELD = 10;
-const FIELDS = [2, 3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40, 45, 50];
-const SURFACE_FIELDS = [3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40];
-const OFF_AXIS = [0, 1, 2, 3, 4, 5, 6, 8, 10, 12, 14, 16, 18, 20];
-const WEDGE_FIELDS = [3, 4, 5, 6, 8, 10, 12, 15, 20];
+const SSD_CM = 100;
+const REFERENCE_FIELD_CM = 10;
+const FIELDS_CM = [2, 3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40, 45, 50];
+const SURFACE_FIELDS_CM = [3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40];
+const OFF_AXIS_CM = [0, 1, 2, 3, 4, 5, 6, 8, 10, 12, 14, 16, 18, 20];
+const WEDGE_FIELDS_CM = [3, 4, 5, 6, 8, 10, 12, 15, 20];
 
 const depthsFor = (dmax: number) =>
   [...new Set([0, 0.5, 1, dmax, 2, 2.5, 3, 4, 5, 6, 7, 8, 9, 10, 12, 14, 16, 18, 20, 22, 25, 30, 35].filter((d) => d <= dmax || d > dmax + 0.05).concat(dmax))].sort((x, y) => x - y);
@@ -68,13 +68,13 @@ function tmr(e: EnergyModel, mu: number, kappa: number, d: number, r: number): n
 const spRaw = (e: EnergyModel, r: number) => 1 + e.a * (1 - Math.exp(-r / 6));
 const scRaw = (e: EnergyModel, r: number) => 1 + e.b * (1 - Math.exp(-r / 4));
 /** Sp normalized for the reference field as defined at the surface: 10 cm at SSD 100, i.e. 10·(100 + dmax)/100 at dmax. */
-const sp = (e: EnergyModel, r: number) => spRaw(e, r) / spRaw(e, (REFERENCE_FIELD * (SSD + e.dmax)) / SSD);
-const sc = (e: EnergyModel, r: number) => scRaw(e, r) / scRaw(e, REFERENCE_FIELD);
+const sp = (e: EnergyModel, r: number) => spRaw(e, r) / spRaw(e, (REFERENCE_FIELD_CM * (SSD_CM + e.dmax)) / SSD_CM);
+const sc = (e: EnergyModel, r: number) => scRaw(e, r) / scRaw(e, REFERENCE_FIELD_CM);
 
 function pdd(e: EnergyModel, mu: number, kappa: number, d: number, r: number): number {
-  const rd = (r * (SSD + d)) / SSD;
-  const rdm = (r * (SSD + e.dmax)) / SSD;
-  return pddFromTpr(tmr(e, mu, kappa, d, rd), d, SSD, e.dmax, sp(e, rdm), sp(e, rd));
+  const rd = (r * (SSD_CM + d)) / SSD_CM;
+  const rdm = (r * (SSD_CM + e.dmax)) / SSD_CM;
+  return pddFromTpr(tmr(e, mu, kappa, d, rd), d, SSD_CM, e.dmax, sp(e, rdm), sp(e, rd));
 }
 
 function bisect(f: (x: number) => number, lo: number, hi: number): number {
@@ -118,22 +118,22 @@ const beams = ENERGIES.map((e) => {
   const { mu, kappa } = fit(e);
   const dir = e.id.toLowerCase();
   const depths = depthsFor(e.dmax);
-  write(`${dir}/pdd.csv`, grid('depth_cm\\field_cm', depths, SURFACE_FIELDS, (d, r) => pdd(e, mu, kappa, d, r), (v) => v.toFixed(2),
+  write(`${dir}/pdd.csv`, grid('depth_cm\\field_cm', depths, SURFACE_FIELDS_CM, (d, r) => pdd(e, mu, kappa, d, r), (v) => v.toFixed(2),
     `PDD (%) at SSD 100 cm vs depth (cm, rows) and square field side at the surface (cm, columns); 100 % at dmax ${e.dmax} cm`));
-  write(`${dir}/tmr.csv`, grid('depth_cm\\field_cm', depths, FIELDS, (d, r) => tmr(e, mu, kappa, d, r), f4,
+  write(`${dir}/tmr.csv`, grid('depth_cm\\field_cm', depths, FIELDS_CM, (d, r) => tmr(e, mu, kappa, d, r), f4,
     `TMR vs depth (cm, rows) and square field side at depth (cm, columns); 1 at dmax ${e.dmax} cm`));
-  write(`${dir}/sc.csv`, profile('field_cm,sc', FIELDS, (r) => sc(e, r), 'Sc vs collimator equivalent square at the isocenter plane (cm); 1 at 10 x 10'));
-  write(`${dir}/sp.csv`, profile('field_cm,sp', FIELDS, (r) => sp(e, r),
-    `Sp vs equivalent square at dmax (cm); 1 for the reference field (10 x 10 at SSD 100, ${f4((REFERENCE_FIELD * (SSD + e.dmax)) / SSD)} cm at dmax)`));
-  write(`${dir}/oar.csv`, grid('depth_cm\\offaxis_cm', depths.filter((d) => d >= e.dmax), OFF_AXIS, (d, x) => 1 + e.horn * x * x * Math.exp(-d / 15), f4,
+  write(`${dir}/sc.csv`, profile('field_cm,sc', FIELDS_CM, (r) => sc(e, r), 'Sc vs collimator equivalent square at the isocenter plane (cm); 1 at 10 x 10'));
+  write(`${dir}/sp.csv`, profile('field_cm,sp', FIELDS_CM, (r) => sp(e, r),
+    `Sp vs equivalent square at dmax (cm); 1 for the reference field (10 x 10 at SSD 100, ${f4((REFERENCE_FIELD_CM * (SSD_CM + e.dmax)) / SSD_CM)} cm at dmax)`));
+  write(`${dir}/oar.csv`, grid('depth_cm\\offaxis_cm', depths.filter((d) => d >= e.dmax), OFF_AXIS_CM, (d, x) => 1 + e.horn * x * x * Math.exp(-d / 15), f4,
     'OAR vs depth (cm, rows) and off-axis distance at depth (cm, columns), open 40 x 40 field'));
   const wedges = Object.entries(e.wedge10).map(([id, wf10]) => {
     const byDepth = id === 'W60';
     const rel = `${dir}/wedge-${id.toLowerCase()}.csv`;
     const wf = (r: number, d = 10) => wf10 * (1 + 0.0015 * (r - 10)) * (byDepth ? 1 + 0.002 * (d - 10) : 1);
     write(rel, byDepth
-      ? grid('depth_cm\\field_cm', [e.dmax, 5, 10, 15, 20, 25], WEDGE_FIELDS, (d, r) => wf(r, d), f4, `${id} wedge factor vs depth (cm, rows) and collimator equivalent square (cm, columns)`)
-      : profile('field_cm,wf', WEDGE_FIELDS, (r) => wf(r), `${id} wedge factor vs collimator equivalent square (cm)`));
+      ? grid('depth_cm\\field_cm', [e.dmax, 5, 10, 15, 20, 25], WEDGE_FIELDS_CM, (d, r) => wf(r, d), f4, `${id} wedge factor vs depth (cm, rows) and collimator equivalent square (cm, columns)`)
+      : profile('field_cm,wf', WEDGE_FIELDS_CM, (r) => wf(r), `${id} wedge factor vs collimator equivalent square (cm)`));
     return {
       id,
       angleDeg: Number(id.slice(1)),
@@ -147,8 +147,8 @@ const beams = ENERGIES.map((e) => {
     radiationType: 'PHOTON',
     nominalEnergyMV: e.mv,
     fff: false,
-    calibration: { ssd0Cm: SSD, d0Cm: e.dmax, doseCGyPerMu: 1, dmaxCm: e.dmax, referenceFieldAt: 'surface', referenceFieldCm: REFERENCE_FIELD },
-    pdd: { file: `${dir}/pdd.csv`, ssdCm: SSD, normalizationDepthCm: e.dmax, units: { depth: 'cm', fieldSide: 'cm', value: 'percent' }, interpolation: 'bilinear' },
+    calibration: { ssd0Cm: SSD_CM, d0Cm: e.dmax, doseCGyPerMu: 1, dmaxCm: e.dmax, referenceFieldAt: 'surface', referenceFieldCm: REFERENCE_FIELD_CM },
+    pdd: { file: `${dir}/pdd.csv`, ssdCm: SSD_CM, normalizationDepthCm: e.dmax, units: { depth: 'cm', fieldSide: 'cm', value: 'percent' }, interpolation: 'bilinear' },
     tpr: { file: `${dir}/tmr.csv`, kind: 'TMR', normalizationDepthCm: e.dmax, units: { depth: 'cm', fieldSide: 'cm' }, interpolation: 'bilinear' },
     sc: { file: `${dir}/sc.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
     sp: { file: `${dir}/sp.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },

@@ -15,7 +15,7 @@ const plan = (name: string, block?: BlockSpec, ssd = 900): Plan => {
     file: `${name}.dcm`, patientId: 'BLK-1', patientName: 'Block^Test', label: name, name, description: 'test',
     doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
     fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-    beams: [staticBeam(1, 'AP', 6, 0, ssd, iso, { ...(block ? { block } : {}), first: { jawsX: [-100, 100], jawsY: [-100, 100] } })],
+    beams: [staticBeam(1, 'AP', 6, 0, ssd, iso, { ...(block ? { block } : {}), first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
   }).plan;
 };
 const dose = (p: Plan) => beams(check(p, demo))[0]!;

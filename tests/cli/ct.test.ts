@@ -53,7 +53,7 @@ describe('plumbline check --ct', () => {
       file: 'pelvis-wrong-ssd.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS AP', name: 'AP with a wrong SSD', description: 'test',
       doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-      beams: [staticBeam(1, 'AP', 15, 0, 910, iso, { first: { jawsX: [-75, 75], jawsY: [-90, 90] } })],
+      beams: [staticBeam(1, 'AP', 15, 0, 910, iso, { first: { jawsXMm: [-75, 75], jawsYMm: [-90, 90] } })],
     });
     const doc = CheckDocument.parse(JSON.parse(run('check', file, '--beam-data', 'demo', ...CT, '--json').stdout));
     const b = doc.plans[0]!.fractionGroups[0]!.beams[0]!;
