@@ -2,6 +2,7 @@ import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
 import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
+import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
 import type { Policy } from './policy.js';
@@ -19,8 +20,6 @@ export interface BeamCheckContext {
 }
 
 const MM_PER_CM = 10;
-/** Sectors of the Clarkson integration (at least 36 are recommended; more near edges do no harm). */
-const CLARKSON_SECTORS = 72;
 
 /**
  * One beam's independent dose at its calculation point, without CT: geometry in mm from the plan
@@ -51,14 +50,6 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const aperture = apertureAt(beam, cp0);
   if (!aperture || aperture.areaMm2 <= 0) return notChecked('the beam has no open aperture');
 
-  // Geometry (mm) hands over to physics (cm) here, once.
-  // Sc follows the collimating opening: the jaws, or the leaves' extent along an axis without jaws.
-  const e = aperture.openExtentMm;
-  const j = { x1: aperture.hasJaws.x ? aperture.jawsMm.x1 : e.x1, x2: aperture.hasJaws.x ? aperture.jawsMm.x2 : e.x2,
-    y1: aperture.hasJaws.y ? aperture.jawsMm.y1 : e.y1, y2: aperture.hasJaws.y ? aperture.jawsMm.y2 : e.y2 };
-  const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
-  const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
-  const irradiatedSquareCm = equivalentSquareOfOutlineCm(aperture.areaMm2 / (MM_PER_CM * MM_PER_CM), aperture.perimeterMm / MM_PER_CM);
   // With the CT: SSD and depth along the ray to the point, traced through the patient.
   let traced: ReturnType<typeof ctDepth> | undefined;
   let ssdAlongAxisMm: number | undefined;
@@ -76,24 +67,19 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const setupReason = setup === 'SSD' ? `the SSD (${(axisSsdMm / MM_PER_CM).toFixed(1)} cm) equals the SAD: the isocenter is on the surface` : `the isocenter lies ${((sadMm - axisSsdMm) / MM_PER_CM).toFixed(1)} cm deep`;
   const approximations: string[] = [];
   const blocks: BlockOutline[] = beam.blocks.map((b) => ({ kind: b.type, outlineMm: b.outlineMm, transmission: b.transmission ?? 0 }));
-  const toDepthCm = (rMm: number) => (rMm * at.sourceToPointAxialMm) / sadMm / MM_PER_CM;
   const [px, py] = at.atIsocenterPlaneMm;
   if (blocks.length && !pointIsOpen(aperture, blocks, px, py)) return notChecked('the calculation point lies under a block or the leaves: choose a point in the open field');
-  const ringsAt = (x: number, y: number) => sectorRings(aperture, blocks, x, y, CLARKSON_SECTORS, data.mlcTransmission ?? 0);
-  // With blocks the open area is the open rings' area around the point (sector by sector).
-  const pointRings = blocks.length ? ringsAt(px, py) : undefined;
-  const openAreaMm2 = pointRings ? openArea(pointRings) : aperture.areaMm2;
-  const openFraction = openAreaMm2 / jawAreaMm2;
-  const irregular = (aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99) || blocks.length > 0;
-  // Irregular fields: Clarkson rings around the point, radii scaled to its depth.
-  const sectorsAt = (rings: ReturnType<typeof ringsAt>): ClarksonSector[] =>
-    rings.map((sector) => ({ crossingsCm: [], rings: sector.map((r) => ({ outerCm: toDepthCm(r.outerMm), weight: r.weight })) }));
-  const clarksonSectors = irregular ? sectorsAt(pointRings ?? ringsAt(px, py)) : undefined;
-  if (irregular && setup === 'SSD') {
+  // Geometry (mm) hands over to physics (cm) in fieldInput, once; irregular fields get Clarkson rings around the point, radii scaled to its depth.
+  const depthScale = at.sourceToPointAxialMm / sadMm;
+  const field = fieldInput(aperture, blocks, px, py, depthScale, data.mlcTransmission ?? 0);
+  const { collimatorFieldCm, irradiatedSquareCm } = field;
+  const clarksonSectors = field.clarksonSectors;
+  const openFraction = field.openAreaMm2 / field.jawAreaMm2;
+  if (clarksonSectors && setup === 'SSD') {
     approximations.push('SSD setup of an irregular field: calculated in the TPR form at the point (SPD = SSD + d), which equals the PDD form for consistent beam data');
   }
   if (clarksonSectors) {
-    approximations.push(`irregular field (${[aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
+    approximations.push(`irregular field (${[aperture.leaves && aperture.areaMm2 / field.jawAreaMm2 < 0.99 ? 'MLC' : '', blocks.length ? `${blocks.length} block(s)` : ''].filter(Boolean).join(' and ')}) by Clarkson integration over ${CLARKSON_SECTORS} sectors; leaf transmission ${data.mlcTransmission ?? 0}${blocks.length ? `, block transmission as the plan states (${blocks.map((b) => b.transmission).join(', ')})` : ''}`);
   }
   const tray = blocks.length ? beam.blocks[0]!.trayId : undefined;
   if (tray !== undefined && !data.trays.some((t) => t.id === tray)) {
@@ -107,7 +93,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const input: PhotonPointInput = {
     // Clarkson integrates Sp·TPR, so irregular fields use the TPR form whatever the setup.
     setup: clarksonSectors ? 'SAD' : setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
-    ...(clarksonSectors ? { clarksonSectors } : {}),
+    ...(clarksonSectors ? { clarksonSectors, primaryWeight: field.primaryWeight } : {}),
     ...(tray !== undefined ? { trayId: tray } : {}),
   };
   const r = photonDosePerMu(data, machine.sadCm, input);
@@ -135,7 +121,6 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const independentMu = tps !== undefined ? tps / dosePerMuCGy : undefined;
 
   // Is the point fit for a point check? Edge distance at the point's depth, build-up region.
-  const depthScale = at.sourceToPointAxialMm / sadMm;
   const edgeDistanceCm = (fieldEdgeDistanceMm(aperture, blocks, px, py) * depthScale) / MM_PER_CM;
   const flags: string[] = [];
   if (edgeDistanceCm < policy.point.edgeMarginCm) {
@@ -153,7 +138,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : suggestion.depthCm;
     const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: depthThereCm,
       ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
-      ...(clarksonSectors ? { clarksonSectors: sectorsAt(ringsAt(suggestion.atIsocenterPlaneMm[0], suggestion.atIsocenterPlaneMm[1])) } : {}) });
+      ...(clarksonSectors ? { clarksonSectors: fieldInput(aperture, blocks, suggestion.atIsocenterPlaneMm[0], suggestion.atIsocenterPlaneMm[1], depthScale, data.mlcTransmission ?? 0).clarksonSectors } : {}) });
     const cf = there?.ok ? tprRatioCorrection(data, depthThereCm, there.value.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM), []) : 1;
     if (s.ok && Number.isFinite(cf)) {
       suggestedPoint = { patientMm: suggestion.patientMm, depthCm: depthThereCm, offAxisCm: suggestion.offAxisCm, independentDoseCGy: mu * s.value.dosePerMuCGy * cf };
@@ -212,19 +197,6 @@ export function beamStub(beam: Beam, entry: ReferencedBeam): BeamCheck {
     ...(entry.beamDoseGy !== undefined ? { planningSystemDoseCGy: cGyFromGy(entry.beamDoseGy) } : {}),
     verdictReasons: [],
   };
-}
-
-/** Area of the open rings (weight 1) of n equal sectors: Σ (π/n)(r_out² − r_in²). */
-function openArea(sectors: readonly (readonly { outerMm: number; weight: number }[])[]): number {
-  let area = 0;
-  for (const rings of sectors) {
-    let inner = 0;
-    for (const r of rings) {
-      if (r.weight === 1) area += (Math.PI / sectors.length) * (r.outerMm * r.outerMm - inner * inner);
-      inner = r.outerMm;
-    }
-  }
-  return area;
 }
 
 /** The most demanding category that applies (the one with the widest action level). */

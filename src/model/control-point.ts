@@ -27,7 +27,7 @@ export const DoseReferenceCoefficient = z
 
 /**
  * A control point with every value in force: DICOM sends only what changes after the first
- * control point, the importer carries the rest forward. Dose reference coefficients belong to
+ * control point, the importer carries the rest forward (except the SSD and entry point). Dose reference coefficients belong to
  * their control point alone and are not carried.
  */
 export const ControlPoint = z
@@ -50,6 +50,7 @@ export const ControlPoint = z
     tableTopPitchDeg: finite.optional(),
     tableTopRollDeg: finite.optional(),
     isocenterPatientMm: PatientPointMm.optional(),
+    /** Entry point and SSD are this control point's alone (never carried: they depend on its gantry angle). */
     surfaceEntryPointPatientMm: PatientPointMm.optional(),
     ssdMm: finite.optional(),
     cumulativeMetersetWeight: finite,

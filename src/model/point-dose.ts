@@ -20,6 +20,8 @@ export interface PhotonPointInput {
    * Clarkson integration instead of the equivalent square.
    */
   readonly clarksonSectors?: readonly ClarksonSector[];
+  /** With Clarkson sectors: the fluence at the point itself (1 open, the leaf transmission under the leaves). */
+  readonly primaryWeight?: number;
 }
 
 /**

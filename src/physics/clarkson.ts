@@ -16,8 +16,9 @@ export interface ClarksonResult {
  *   Sp(r)·TPR(d, r) = Sp(0)·[TPR(d, 0) + SPR(d, r)]
  * The sectors' radii from the point to the field edge (at the point's depth) are turned into the
  * equal-area squares of circles, SPR is averaged over the sectors, and the zero-field values are
- * extrapolated linearly from the two smallest fields of the tables. Returns NaN (with notes) when a
- * table refuses a lookup.
+ * extrapolated linearly from the two smallest fields of the tables. `primaryWeight` is the fluence at
+ * the point itself (1 open; the leaf transmission when a segment of a modulated beam covers it).
+ * Returns NaN (with notes) when a table refuses a lookup.
  */
 export function clarksonSpTpr(
   beam: PhotonBeamModel,
@@ -25,6 +26,7 @@ export function clarksonSpTpr(
   sectorRadiiCm: readonly (number | readonly number[] | ClarksonSector)[],
   log: LookupLog,
   leafTransmission = 0,
+  primaryWeight = 1,
 ): ClarksonResult {
   const [s1, s2] = smallestSides(beam);
   const extrapolate = (f: (s: number) => number) => {
@@ -66,7 +68,8 @@ export function clarksonSpTpr(
     }
   }
   const meanSpr = sectorRadiiCm.length ? sum / sectorRadiiCm.length : 0;
-  return { spTpr: sp0 * (tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };
+  // The primary reaching the point is weighed by what covers the point itself (1 when open).
+  return { spTpr: sp0 * (primaryWeight * tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };
 }
 
 /** The two smallest field sides that both the Sp (or Scp) table and the depth-dose table cover. */

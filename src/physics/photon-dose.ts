@@ -41,7 +41,7 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
     );
   } else {
     if (input.clarksonSectors) {
-      const c = clarksonSpTpr(beam, d, input.clarksonSectors, log, beam.mlcTransmission ?? 0);
+      const c = clarksonSpTpr(beam, d, input.clarksonSectors, log, beam.mlcTransmission ?? 0, input.primaryWeight ?? 1);
       factors.push({ key: 'SpTPR', value: c.spTpr, args: [d, c.sectors, c.sp0, c.tpr0], name: beam.tpr?.kind ?? 'TPR' });
     } else {
       factors.push(

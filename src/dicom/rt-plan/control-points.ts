@@ -19,7 +19,6 @@ const CARRIED_NUMBERS = [
   ['tableTopLateralMm', 'TableTopLateralPosition'],
   ['tableTopPitchDeg', 'TableTopPitchAngle'],
   ['tableTopRollDeg', 'TableTopRollAngle'],
-  ['ssdMm', 'SourceToSurfaceDistance'],
 ] as const satisfies readonly (readonly [keyof ControlPoint, Keyword])[];
 
 const CARRIED_ROTATIONS = [
@@ -112,7 +111,10 @@ function readOne(
   // Type 2C at the first control point: it may be empty (a warning); a present value must be readable.
   if (i === 0) need(cp, 'IsocenterPosition', isoHere, 'the isocenter (x, y, z) in mm', 'warning');
   const iso = isoHere ?? prev?.isocenterPatientMm;
-  const entry = cp.tuple('SurfaceEntryPoint', 3) ?? prev?.surfaceEntryPointPatientMm;
+  // SSD and entry point belong to their control point alone: they follow from its gantry angle and
+  // the patient's contour, so a value carried from another angle would be a wrong depth.
+  const entry = cp.tuple('SurfaceEntryPoint', 3);
+  const ssdMm = cp.number('SourceToSurfaceDistance');
 
   let cmw = cp.number('CumulativeMetersetWeight');
   if (cmw === undefined) {
@@ -149,6 +151,7 @@ function readOne(
     ...values,
     ...(iso ? { isocenterPatientMm: iso as [number, number, number] } : {}),
     ...(entry ? { surfaceEntryPointPatientMm: entry as [number, number, number] } : {}),
+    ...(ssdMm !== undefined ? { ssdMm } : {}),
     cumulativeMetersetWeight: cmw!,
     devices: devices!,
     wedgePositions: wedgePositions!,
