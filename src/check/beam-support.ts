@@ -13,8 +13,6 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   if (beam.primaryDosimeterUnit === 'MINUTE') return 'the meterset is in minutes, not MU';
   if (mu === undefined || mu <= 0) return 'the beam has no meterset';
   const cps = beam.controlPoints;
-  if (cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg)) return 'an arc (the gantry moves): modulated and arc beams are checked in a later version';
-  if (beam.beamType === 'DYNAMIC' || !sameAperture(cps)) return 'the aperture changes during delivery (modulated): checked in a later version';
   if (beam.compensators.length) return 'a compensator is in the beam';
   if (beam.wedges.some((w) => w.type && w.type !== 'STANDARD')) return `a ${beam.wedges.find((w) => w.type !== 'STANDARD')!.type!.toLowerCase()} wedge: only physical wedges are checked so far`;
   const cp0 = cps[0]!;
@@ -24,6 +22,12 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   if (!cp0.isocenterPatientMm) return 'the first control point has no isocenter';
   if (cp0.nominalEnergyMeV === undefined) return 'no nominal energy';
   return undefined;
+}
+
+/** Whether the beam changes during delivery (gantry, leaves, jaws): summed segment by segment. */
+export function isModulated(beam: Beam): boolean {
+  const cps = beam.controlPoints;
+  return beam.beamType === 'DYNAMIC' || cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg) || !sameAperture(cps);
 }
 
 function sameAperture(cps: readonly ControlPoint[]): boolean {

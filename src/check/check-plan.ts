@@ -1,6 +1,7 @@
 import { doseAtPointGy } from '../geometry/index.js';
 import { type BeamCheck, cGyFromGy, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
-import { unsupportedReason } from './beam-support.js';
+import { isModulated, unsupportedReason } from './beam-support.js';
+import { checkModulatedBeam } from './check-modulated.js';
 import { beamStub, checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
 import { matchMachine } from './match-machine.js';
@@ -55,7 +56,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
       if (!point) return { ...stub, reason: 'no calculation point: the plan names none and the beam has no isocenter' };
       if (o.ct && !ct) return { ...stub, reason: 'the CT does not belong to this plan' };
-      const r = checkBeam({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
+      const r = (isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
       if (!r.ok) {
         issues.push({ ...r.issue, file: file.path });
         return { ...stub, reason: r.issue.message };

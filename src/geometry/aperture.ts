@@ -90,6 +90,7 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   }
   const perimeter = segments.reduce((s, g) => s + Math.hypot(g.bx - g.ax, g.by - g.ay), 0);
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
+  // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
   const u = [Math.min(...open.map((b) => b.x0)), Math.max(...open.map((b) => b.x1))];
   const v = [Math.min(...open.map((b) => b.y0)), Math.max(...open.map((b) => b.y1))];
@@ -104,13 +105,13 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     hasJaws: { x: !!xj, y: !!yj },
     isOpen(x: number, y: number): boolean {
       const [u, v] = swapped ? [y, x] : [x, y];
-      return bands.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
+      return open.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
     },
     edgeDistanceMm(x: number, y: number): number {
       const [u, v] = swapped ? [y, x] : [x, y];
       let d = Infinity;
       for (const g of segments) d = Math.min(d, segmentDistance(u, v, g));
-      const inside = bands.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
+      const inside = open.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
       return inside ? d : -d;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {

@@ -84,6 +84,27 @@ export const BeamCheck = z.object({
           body: z.string(),
         })
         .optional(),
+      /** A modulated beam: how its segments were summed, and over what range of geometry. */
+      modulated: z
+        .object({
+          method: z.string(),
+          controlPoints: z.number(),
+          segments: z.number(),
+          gantryStartDeg: z.number(),
+          gantryEndDeg: z.number(),
+          depthSource: z.string(),
+          depthRangeCm: z.tuple([z.number(), z.number()]),
+          radiologicalDepthRangeCm: z.tuple([z.number(), z.number()]).optional(),
+          correctionFactor: z.number().optional(),
+          homogeneousDoseCGy: z.number().optional(),
+          /** The largest difference between the CT's SSD and the plan's over the control points that state one. */
+          maxSsdDifferenceMm: z.number().optional(),
+          /** Share of the MU during which leaves or jaws cover the point. */
+          pointCoveredMuPercent: z.number(),
+          /** Share of the MU from segments integrated by Clarkson (the rest: plain rectangles, by equivalent square). */
+          clarksonMuPercent: z.number(),
+        })
+        .optional(),
       /** The planning system's own depth data for the point, where the plan carries them, beside ours. */
       planningSystemDepths: z
         .object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional(),

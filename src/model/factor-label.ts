@@ -26,5 +26,7 @@ export function factorLabel(f: Factor): string {
       return `WF ${f.name}(${a.map(cm).join(', ')})`;
     case 'TF':
       return `TF ${f.name}`;
+    case 'MCI':
+      return `Σ MU share × Sc·Sp·${f.name ?? 'TPR'}·ISF·OAR over ${a[0]} segments (${a[1]} sectors)`;
   }
 }

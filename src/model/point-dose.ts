@@ -41,11 +41,12 @@ export interface ClarksonSector {
  * as a physicist does: `Sp(10.15 cm)`, `PDD(10 cm, 10 cm, SSD 100 cm)/100`.
  *   D0: []   Sc, Sp: [side]   PDD: [depth, side at surface, SSD]   TPR: [depth, side at depth]
  *   SpTPR (Clarkson): [depth, sectors, Sp(0), TPR(d, 0)]
+ *   MCI (modulated beams): [segments, sectors], the MU-weighted sum of Sc·Sp·TPR·ISF·OAR over the segments
  *   ISF: [numerator distance, denominator distance]   OAR: [depth, off-axis]   WF: [side] or [depth, side]   TF: []
  * `name`: TPR or TMR; the OAR's distance convention; the wedge or tray ID.
  */
 export interface Factor {
-  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF';
+  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF' | 'MCI';
   readonly value: number;
   readonly args: readonly number[];
   readonly name?: string;
