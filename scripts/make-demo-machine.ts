@@ -14,7 +14,16 @@
  * μ and κ are fitted so the 10 × 10 PDD at SSD 100 cm matches a target at 10 and 20 cm depth:
  * 6 MV 67.5 % and 39.3 % (the values BJR Supplement 25 gives for 6 MV), 10 and 15 MV invented.
  * dmax: 1.5 cm (6 MV) and 2.5 cm (10 MV) are typical handbook values (from memory), 2.9 cm (15 MV)
- * invented. Run: npm run demo-machine
+ * invented.
+ *
+ * Electrons (6, 9, 12 MeV), per energy E in MeV and cutout side r (cm, at the nominal SSD):
+ *   R50 = E/2.33 cm and R90 = E/3.2 cm for 10 × 10 (handbook rules of thumb, from memory), both
+ *   shortened for small fields by q(r) = (1 − 0.3 e^(−r/Rp)) / (1 − 0.3 e^(−10/Rp)), Rp = E/2 cm
+ *   PDD(d) = 100 [s + (1 − s)(1 − (1 − d/dmax)²)] up to dmax (s the surface dose), beyond it
+ *   100 [t + (1 − t) L(d)/L(dmax)] with L the logistic of mid-point R50 and width (R50 − R90)/2.197,
+ *   t the bremsstrahlung tail; Se = the applicator's open output × (1 − 0.25 e^(−r/Rp)) / (1 − 0.25 e^(−a/Rp))
+ *   for applicator side a; effective SSD = base − 15 e^(−r/5) cm (rising with energy and field).
+ * All invented. Run: npm run demo-machine
  */
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -161,6 +170,52 @@ const beams = ENERGIES.map((e) => {
   };
 });
 
+interface ElectronModel { id: string; mev: number; dmax: number; surface: number; tail: number; ssdEff: number }
+const ELECTRONS: ElectronModel[] = [
+  { id: '6E', mev: 6, dmax: 1.3, surface: 0.78, tail: 0.006, ssdEff: 82 },
+  { id: '9E', mev: 9, dmax: 2.0, surface: 0.82, tail: 0.012, ssdEff: 88 },
+  { id: '12E', mev: 12, dmax: 2.7, surface: 0.87, tail: 0.02, ssdEff: 92 },
+];
+const APPLICATORS = [{ id: 'A06', side: 6, output: 0.972 }, { id: 'A10', side: 10, output: 1 }, { id: 'A15', side: 15, output: 1.006 }, { id: 'A20', side: 20, output: 1.004 }];
+const CUTOUTS_CM = [3, 4, 5, 6, 8, 10, 12, 15, 20];
+
+function electronPdd(e: ElectronModel, d: number, r: number): number {
+  const rp = e.mev / 2;
+  const q = (1 - 0.3 * Math.exp(-r / rp)) / (1 - 0.3 * Math.exp(-10 / rp));
+  const [dmax, r50, r90] = [e.dmax * q, (e.mev / 2.33) * q, (e.mev / 3.2) * q];
+  if (d <= dmax) return 100 * (e.surface + (1 - e.surface) * (1 - (1 - d / dmax) ** 2));
+  const w = (r50 - r90) / 2.197;
+  const logistic = (x: number) => 1 / (1 + Math.exp((x - r50) / w));
+  return 100 * (e.tail + (1 - e.tail) * (logistic(d) / logistic(dmax)));
+}
+const cutoutFactor = (e: ElectronModel, r: number, a: number) => (1 - 0.25 * Math.exp(-r / (e.mev / 2))) / (1 - 0.25 * Math.exp(-a / (e.mev / 2)));
+
+const electronBeams = ELECTRONS.map((e) => {
+  const dir = e.id.toLowerCase();
+  const depths = Array.from({ length: Math.round((e.mev / 2 + 1.5) / 0.2) + 1 }, (_, i) => Number((0.2 * i).toFixed(1)));
+  // Each column's own dmax is a row, so the table holds its 100 %.
+  const rows = [...new Set([...depths, ...CUTOUTS_CM.map((r) => Number((e.dmax * (1 - 0.3 * Math.exp(-r / (e.mev / 2))) / (1 - 0.3 * Math.exp(-10 / (e.mev / 2)))).toFixed(4)))])].sort((a, b) => a - b);
+  write(`${dir}/pdd.csv`, grid('depth_cm\\cutout_cm', rows, CUTOUTS_CM, (d, r) => electronPdd(e, d, r), (v) => v.toFixed(2),
+    `electron PDD (%) at SSD 100 cm vs depth (cm, rows) and cutout equivalent square at the nominal SSD (cm, columns); each column 100 % at its own dmax`));
+  const applicators = APPLICATORS.map((a) => {
+    const sides = CUTOUTS_CM.filter((r) => r <= a.side);
+    write(`${dir}/se-${a.id.toLowerCase()}.csv`, profile('cutout_cm,se', sides, (r) => a.output * cutoutFactor(e, r, a.side),
+      `Se of applicator ${a.id} vs cutout equivalent square (cm) at the nominal SSD, at each field's own dmax; 1 for A10 open`));
+    write(`${dir}/ssd-eff-${a.id.toLowerCase()}.csv`, profile('cutout_cm,ssd_eff_cm', sides, (r) => e.ssdEff - 15 * Math.exp(-r / 5), `effective SSD (cm) of applicator ${a.id} vs cutout equivalent square (cm)`));
+    return {
+      id: a.id, sideCm: a.side,
+      outputFactor: { file: `${dir}/se-${a.id.toLowerCase()}.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
+      effectiveSsdCm: { file: `${dir}/ssd-eff-${a.id.toLowerCase()}.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
+    };
+  });
+  return {
+    id: e.id, radiationType: 'ELECTRON', nominalEnergyMeV: e.mev,
+    calibration: { ssd0Cm: SSD_CM, d0Cm: e.dmax, doseCGyPerMu: 1, referenceApplicator: 'A10' },
+    pdd: { file: `${dir}/pdd.csv`, ssdCm: SSD_CM, units: { depth: 'cm', fieldSide: 'cm', value: 'percent' }, interpolation: 'bilinear' },
+    applicators,
+  };
+});
+
 const manifest = {
   $schema: '../../../src/beamdata/manifest.schema.json',
   format: 'plumbline.beam-data',
@@ -174,6 +229,7 @@ const manifest = {
     description: 'INVENTED demo machine of the Northgate Cancer Centre scenario; tables generated from a simple physical model by scripts/make-demo-machine.ts. Never use for a patient.',
   },
   beams: beams.map(({ fitted: _fitted, ...b }) => b),
+  electronBeams,
 };
 write('manifest.json', `${JSON.stringify(manifest, null, 2)}\n`);
 for (const b of beams) console.log(`${b.id}: mu ${b.fitted.mu.toFixed(5)} /cm, kappa ${b.fitted.kappa.toFixed(5)} /cm`);

@@ -1,8 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import type { Issue, MachineModel, PhotonBeamModel, Result, TableAxis, TableLookup, WedgeData } from '../model/index.js';
+import type { ElectronApplicatorData, ElectronBeamModel, Issue, MachineModel, PhotonBeamModel, Result, TableAxis, TableLookup, WedgeData } from '../model/index.js';
 import { type CsvTable, parseCsvTable } from './csv-table.js';
-import { Manifest, type PhotonBeamEntry } from './manifest-schema.js';
+import { type ElectronBeamEntry, Manifest, type PhotonBeamEntry } from './manifest-schema.js';
 import { type ClampAllowance, makeTableLookup } from './table-lookup.js';
 
 /** One loaded table with what the validator needs: its CSV (with positions) and its lookup. */
@@ -62,6 +62,13 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     const beam = loadBeam(entry, dir, tables, issues);
     if (beam) beams.push(beam);
   });
+  const electronBeams: ElectronBeamModel[] = [];
+  manifest.electronBeams.forEach((entry, bi) => {
+    if (ids.has(entry.id)) issues.push({ severity: 'error', code: 'duplicate', file: manifestFile, path: `electronBeams[${bi}].id`, message: `beam id ${entry.id} is given twice` });
+    ids.add(entry.id);
+    const beam = loadElectronBeam(entry, dir, tables, issues);
+    if (beam) electronBeams.push(beam);
+  });
   if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
   const m = manifest.machine;
   const machine: MachineModel = {
@@ -72,25 +79,29 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     ...(m.description ? { description: m.description } : {}),
     version: manifest.dataVersion,
     beams,
+    electronBeams,
   };
   return { ok: true, value: { machine, manifest, manifestFile, tables }, warnings: issues };
 }
 
-function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): PhotonBeamModel | undefined {
-  const load = (
-    quantity: string,
-    spec: { file: string; interpolation: 'bilinear' | 'log-linear-rows'; clamp?: ClampAllowance | undefined },
-    shape: 'grid' | 'profile',
-    rowAxis: [string, keyof typeof TO_CM],
-    columnAxis: [string, keyof typeof TO_CM] | undefined,
-    valueScale = 1,
-  ): TableLookup | undefined => {
+type TableLoader = (
+  quantity: string,
+  spec: { file: string; interpolation: 'bilinear' | 'log-linear-rows'; clamp?: ClampAllowance | undefined },
+  shape: 'grid' | 'profile',
+  rowAxis: [string, keyof typeof TO_CM],
+  columnAxis: [string, keyof typeof TO_CM] | undefined,
+  valueScale?: number,
+) => TableLookup | undefined;
+
+/** Reads one beam's tables: each CSV parsed, its axes converted to cm, its lookup built and recorded. */
+function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues: Issue[]): TableLoader {
+  return (quantity, spec, shape, rowAxis, columnAxis, valueScale = 1) => {
     const file = join(dir, spec.file);
     let text: string;
     try {
       text = readFileSync(file, 'utf8');
     } catch (e) {
-      issues.push({ severity: 'error', code: 'missing-table', file, message: `${entry.id} ${quantity}: cannot read the table (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+      issues.push({ severity: 'error', code: 'missing-table', file, message: `${beamId} ${quantity}: cannot read the table (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
       return undefined;
     }
     const csv = parseCsvTable(text, file, shape);
@@ -112,17 +123,21 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
       ...(c.columnsAbove !== undefined && columnAxis ? { columnsAbove: c.columnsAbove * TO_CM[columnAxis[1]] } : {}),
     };
     const lookup = makeTableLookup({
-      name: `${entry.id} ${quantity} (${spec.file})`,
+      name: `${beamId} ${quantity} (${spec.file})`,
       rows,
       ...(columns ? { columns } : {}),
       values,
       interpolation: spec.interpolation,
       ...(clamp ? { clamp } : {}),
     });
-    tables.push({ beamId: entry.id, quantity, csv: t, lookup, valueScale });
+    tables.push({ beamId, quantity, csv: t, lookup, valueScale });
     return lookup;
   };
 
+}
+
+function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): PhotonBeamModel | undefined {
+  const load = tableLoader(entry.id, dir, tables, issues);
   const pdd = entry.pdd === 'derive-from-tpr' ? undefined
     : load('pdd', entry.pdd, 'grid', ['depth', entry.pdd.units.depth], ['fieldSide', entry.pdd.units.fieldSide], entry.pdd.units.value === 'fraction' ? 100 : 1);
   const tpr = entry.tpr === 'derive-from-pdd' ? undefined
@@ -157,6 +172,19 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     ...(entry.mlcTransmission !== undefined ? { mlcTransmission: entry.mlcTransmission } : {}),
     ...(entry.collimatorExchangeK !== undefined ? { collimatorExchangeK: entry.collimatorExchangeK } : {}),
   };
+}
+
+function loadElectronBeam(entry: ElectronBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): ElectronBeamModel | undefined {
+  const load = tableLoader(entry.id, dir, tables, issues);
+  const pdd = load('electron pdd', entry.pdd, 'grid', ['depth', entry.pdd.units.depth], ['fieldSide', entry.pdd.units.fieldSide], entry.pdd.units.value === 'fraction' ? 100 : 1);
+  const applicators: ElectronApplicatorData[] = [];
+  for (const a of entry.applicators) {
+    const se = load(`se ${a.id}`, a.outputFactor, 'profile', ['fieldSide', a.outputFactor.units.fieldSide], undefined);
+    const ssd = typeof a.effectiveSsdCm === 'number' ? a.effectiveSsdCm : load(`effective ssd ${a.id}`, a.effectiveSsdCm, 'profile', ['fieldSide', a.effectiveSsdCm.units.fieldSide], undefined);
+    if (se && ssd !== undefined) applicators.push({ id: a.id, sideCm: a.sideCm, outputFactor: se, effectiveSsdCm: ssd });
+  }
+  if (!pdd || applicators.length !== entry.applicators.length) return undefined;
+  return { id: entry.id, radiationType: 'ELECTRON', nominalEnergyMeV: entry.nominalEnergyMeV, calibration: { ...entry.calibration }, pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm }), applicators };
 }
 
 /** An axis in cm, refused unless strictly increasing (interpolation depends on it). */

@@ -102,6 +102,43 @@ export const PhotonBeamEntry = z
   .refine((b) => b.pdd !== 'derive-from-tpr' || b.tpr !== 'derive-from-pdd', { message: 'PDD and TPR cannot both be derived', path: ['tpr'] })
   .refine((b) => (b.sp === undefined) !== (b.scp === undefined), { message: 'give exactly one of sp and scp', path: ['sp'] });
 
+export const ElectronPddTable = z
+  .object({
+    ...tableBase,
+    units: z.object({ depth: LengthUnit, fieldSide: LengthUnit, value: z.enum(['percent', 'fraction']) }).strict(),
+    ssdCm: positive.describe('SSD at which the PDD was measured (the nominal SSD)'),
+  })
+  .strict()
+  .describe('electron PDD vs depth (rows) and cutout equivalent square at the nominal SSD (columns), each column 100 % at its own dmax');
+
+export const ApplicatorEntry = z
+  .object({
+    id: z.string().min(1).describe('the Applicator ID as the plan names it'),
+    sideCm: positive.describe("the open applicator's field side at the nominal SSD"),
+    outputFactor: FieldProfile.describe('Se vs cutout equivalent square at the nominal SSD (cm), at each field\'s own dmax; 1 for the reference applicator, open'),
+    effectiveSsdCm: z.union([positive, FieldProfile]).describe('effective (virtual) SSD: one value, or a profile vs cutout equivalent square'),
+  })
+  .strict();
+
+export const ElectronBeamEntry = z
+  .object({
+    id: z.string().min(1).describe('e.g. 9E'),
+    radiationType: z.literal('ELECTRON'),
+    nominalEnergyMeV: positive,
+    calibration: z
+      .object({
+        ssd0Cm: positive.describe('the nominal SSD of the applicators'),
+        d0Cm: positive.describe("normalization depth (dmax of the reference applicator)"),
+        doseCGyPerMu: positive.describe("D'0: dose per MU at d0 for the reference applicator, open, at the nominal SSD"),
+        referenceApplicator: z.string().min(1),
+      })
+      .strict(),
+    pdd: ElectronPddTable,
+    applicators: z.array(ApplicatorEntry).min(1),
+  })
+  .strict()
+  .refine((b) => b.applicators.some((a) => a.id === b.calibration.referenceApplicator), { message: 'the reference applicator must be one of the applicators', path: ['calibration', 'referenceApplicator'] });
+
 export const Manifest = z
   .object({
     $schema: z.string().optional().describe('path of the JSON Schema, for editors'),
@@ -118,8 +155,10 @@ export const Manifest = z
       })
       .strict(),
     beams: z.array(PhotonBeamEntry).min(1),
+    electronBeams: z.array(ElectronBeamEntry).default([]),
   })
   .strict();
 
 export type Manifest = z.infer<typeof Manifest>;
 export type PhotonBeamEntry = z.infer<typeof PhotonBeamEntry>;
+export type ElectronBeamEntry = z.infer<typeof ElectronBeamEntry>;

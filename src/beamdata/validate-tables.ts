@@ -11,7 +11,18 @@ const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: 
   scp: { min: 0.4, max: 1.5, minInclusive: true },
   oar: { min: 0, max: 1.3, minInclusive: false },
   wedge: { min: 0, max: 1, minInclusive: false },
+  'electron pdd': { min: 0, max: 100.05, minInclusive: true },
+  se: { min: 0.5, max: 1.3, minInclusive: true },
+  'effective ssd': { min: 50, max: 200, minInclusive: true },
 };
+
+/** The family of a table from its quantity name ("wedge W15" → wedge, "se A10" → se). */
+function kindOf(quantity: string): string {
+  if (quantity.startsWith('wedge')) return 'wedge';
+  if (quantity.startsWith('se ')) return 'se';
+  if (quantity.startsWith('effective ssd')) return 'effective ssd';
+  return quantity;
+}
 
 /** How far a value's departure may stand above its line's median before the table is called rough. */
 const ROUGHNESS_RATIO = 10;
@@ -27,9 +38,11 @@ const ROUGHNESS_FLOOR = 0.003;
 export function validateTables(loaded: LoadedMachine): Issue[] {
   const issues: Issue[] = [];
   for (const t of loaded.tables) {
-    const kind = t.quantity.startsWith('wedge') ? 'wedge' : t.quantity;
+    const kind = kindOf(t.quantity);
     checkRange(t, RANGES[kind]!, issues);
-    checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
+    // An electron PDD falls steeply past its therapeutic range: its curvature there is physics, not noise.
+    if (kind !== 'electron pdd') checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
+    else checkColumnMaxima(t, issues);
   }
   for (const [i, b] of loaded.manifest.beams.entries()) {
     const find = (q: string) => loaded.tables.find((t) => t.beamId === b.id && t.quantity === q);
@@ -83,6 +96,21 @@ function checkNormalizationRow(t: LoadedTable | undefined, depthCm: number, expe
     if (Math.abs(v - expected) > tolerance) {
       issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...t.csv.valuePositions[i * n + j]!,
         message: `${t.beamId} ${what} is not ${expected} at its normalization depth ${depthCm} cm`, expected: `${expected} ± ${tolerance}`, found: `${v}` });
+    }
+  }
+}
+
+/** Each column of an electron PDD is normalized at its own dmax: its largest value must be 100 %. */
+function checkColumnMaxima(t: LoadedTable, issues: Issue[]): void {
+  const n = t.lookup.columns!.values.length;
+  const m = t.lookup.rows.values.length;
+  for (let j = 0; j < n; j++) {
+    let best = 0;
+    for (let i = 1; i < m; i++) if (t.csv.values[i * n + j]! > t.csv.values[best * n + j]!) best = i;
+    const v = t.csv.values[best * n + j]! * t.valueScale;
+    if (Math.abs(v - 100) > 0.5) {
+      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...t.csv.valuePositions[best * n + j]!,
+        message: `${t.beamId} electron PDD: the column's maximum is not 100 % (each column is normalized at its own dmax)`, expected: '100 ± 0.5 %', found: `${v}` });
     }
   }
 }

@@ -12,12 +12,12 @@ export function runBeamsValidate(manifestArg: string): CommandOutcome {
   const loaded = loadMachine(file);
   if (!loaded.ok) return finish(file, loaded.issues);
   const lm = loaded.value;
-  return finish(file, [...loaded.warnings, ...validateBeamData(lm)], lm.machine.beams.length, lm.tables.length);
+  return finish(file, [...loaded.warnings, ...validateBeamData(lm)], `${lm.machine.beams.length} photon and ${lm.machine.electronBeams.length} electron beam(s)`, lm.tables.length);
 }
 
-function finish(file: string, issues: readonly Issue[], beams?: number, tables?: number): CommandOutcome {
+function finish(file: string, issues: readonly Issue[], beams?: string, tables?: number): CommandOutcome {
   const errors = issues.filter((i) => i.severity === 'error').length;
   const warnings = issues.length - errors;
-  const summary = `${file}: ${beams !== undefined ? `${beams} beam(s), ${tables} table(s), ` : ''}${errors} error(s), ${warnings} warning(s)`;
+  const summary = `${file}: ${beams !== undefined ? `${beams}, ${tables} table(s), ` : ''}${errors} error(s), ${warnings} warning(s)`;
   return { stdout: [...issues.map(formatIssue), summary, CAUTION], stderr: [], exitCode: errors ? 2 : warnings ? 1 : 0 };
 }

@@ -83,6 +83,26 @@ export interface PhotonBeamModel {
   readonly collimatorExchangeK?: number;
 }
 
+export interface ElectronApplicatorData {
+  readonly id: string;
+  /** The open applicator's field side at the nominal SSD. */
+  readonly sideCm: number;
+  /** Se vs cutout equivalent square at the nominal SSD, at each field's own dmax. */
+  readonly outputFactor: TableLookup;
+  /** Effective (virtual) SSD: one value, or vs cutout equivalent square. */
+  readonly effectiveSsdCm: number | TableLookup;
+}
+
+export interface ElectronBeamModel {
+  readonly id: string;
+  readonly radiationType: 'ELECTRON';
+  readonly nominalEnergyMeV: number;
+  readonly calibration: { readonly ssd0Cm: number; readonly d0Cm: number; readonly doseCGyPerMu: number; readonly referenceApplicator: string };
+  /** PDD (percent) vs depth (rows) and cutout equivalent square (columns) at `ssdCm`, each column 100 at its own dmax. */
+  readonly pdd: TableLookup & { readonly ssdCm: number };
+  readonly applicators: readonly ElectronApplicatorData[];
+}
+
 export interface MachineModel {
   readonly name: string;
   /** Names a plan may use for this machine (Treatment Machine Name), including `name`. */
@@ -92,4 +112,5 @@ export interface MachineModel {
   readonly description?: string;
   readonly version: string;
   readonly beams: readonly PhotonBeamModel[];
+  readonly electronBeams: readonly ElectronBeamModel[];
 }

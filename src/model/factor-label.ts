@@ -13,13 +13,15 @@ export function factorLabel(f: Factor): string {
     case 'Sp':
       return `Sp(${cm(a[0]!)})`;
     case 'PDD':
-      return `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
+      return f.name === 'square-root' ? `√(PDD(${cm(a[0]!)}, ${cm(a[1]!)})·PDD(${cm(a[0]!)}, ${cm(a[2]!)})), SSD ${cm(a[3]!)}/100` : `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
+    case 'Se':
+      return a.length === 2 ? `Se ${f.name}(√(${cm(a[0]!)} × ${cm(a[1]!)}) by the square-root rule)` : `Se ${f.name}(${cm(a[0]!)})`;
     case 'TPR':
       return `${f.name ?? 'TPR'}(${cm(a[0]!)}, ${cm(a[1]!)})`;
     case 'SpTPR':
       return `Sp·${f.name ?? 'TPR'} by Clarkson (${cm(a[0]!)}, ${a[1]} sectors; Sp(0) ${a[2]!.toFixed(3)}, TPR(d,0) ${a[3]!.toFixed(3)})`;
     case 'ISF':
-      return `inverse square (${cm(a[0]!)} / ${cm(a[1]!)})²`;
+      return `inverse square (${cm(a[0]!)} / ${cm(a[1]!)})²${f.name ? ` (${f.name})` : ''}`;
     case 'OAR':
       return `OAR(${cm(a[0]!)}, ${cm(a[1]!)}${f.name === 'isocenter-plane' ? ' at the isocenter plane' : ''})`;
     case 'WF':

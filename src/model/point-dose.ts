@@ -42,11 +42,13 @@ export interface ClarksonSector {
  *   D0: []   Sc, Sp: [side]   PDD: [depth, side at surface, SSD]   TPR: [depth, side at depth]
  *   SpTPR (Clarkson): [depth, sectors, Sp(0), TPR(d, 0)]
  *   MCI (modulated beams): [segments, sectors], the MU-weighted sum of Sc·Sp·TPR·ISF·OAR over the segments
+ *   Se (electrons): [side] or, by the square-root rule, [X, Y]; name: the applicator. Electron PDD by the
+ *   square-root rule: [depth, X, Y, SSD], name 'square-root'
  *   ISF: [numerator distance, denominator distance]   OAR: [depth, off-axis]   WF: [side] or [depth, side]   TF: []
  * `name`: TPR or TMR; the OAR's distance convention; the wedge or tray ID.
  */
 export interface Factor {
-  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF' | 'MCI';
+  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF' | 'MCI' | 'Se';
   readonly value: number;
   readonly args: readonly number[];
   readonly name?: string;
@@ -73,3 +75,30 @@ export type PhotonPointOutcome =
   | { readonly ok: true; readonly value: PhotonPointResult }
   | { readonly ok: false; readonly issues: readonly Issue[] };
 
+
+/** A point calculation for one electron beam (AAPM TG-71), everything in cm. */
+export interface ElectronPointInput {
+  readonly applicatorId: string;
+  /**
+   * The cutout (or the open applicator) at the nominal SSD: a rectangle X × Y, whose Se and PDD follow
+   * the square-root rule, or any other shape by its equivalent square (and how it was found).
+   */
+  readonly field: { readonly kind: 'rectangle'; readonly xCm: number; readonly yCm: number } | { readonly kind: 'equivalent-square'; readonly sideCm: number; readonly method: string };
+  readonly depthCm: number;
+  readonly ssdCm: number;
+}
+
+export interface ElectronPointResult {
+  readonly dosePerMuCGy: number;
+  readonly factors: readonly Factor[];
+  /** SSD beyond the nominal SSD (the air gap), and the effective SSD used for it. */
+  readonly airGapCm: number;
+  readonly effectiveSsdCm: number;
+  /** The field's equivalent square (the geometric mean of X and Y for a rectangle). */
+  readonly fieldSideCm: number;
+  readonly clamps: readonly LookupNote[];
+}
+
+export type ElectronPointOutcome =
+  | { readonly ok: true; readonly value: ElectronPointResult }
+  | { readonly ok: false; readonly issues: readonly Issue[] };

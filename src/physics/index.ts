@@ -7,3 +7,4 @@ export * from './photon-dose.js';
 export * from './beam-data-consistency.js';
 export * from './heterogeneity.js';
 export * from './clarkson.js';
+export * from './electron-dose.js';

@@ -1,0 +1,93 @@
+import type { ElectronBeamModel, ElectronPointInput, ElectronPointOutcome, Factor, Issue, LookupNote } from '../model/index.js';
+import { inverseSquareFactor } from './inverse-square.js';
+
+/**
+ * Dose per MU at a point of an electron beam (AAPM TG-71):
+ *   D/MU = D'0 · Se(applicator, cutout) · PDD(d, cutout, SSD0)/100 · ((SSDeff + d0)/(SSDeff + d0 + g))²
+ * with g = SSD − SSD0 the air gap beyond the nominal SSD and SSDeff the applicator's effective
+ * (virtual) SSD for the cutout. D'0 is for the reference applicator, open, at d0 (its dmax); Se and
+ * each PDD column are at the field's own dmax. For a rectangular cutout X × Y, Se and PDD follow the
+ * square-root rule: f(X × Y) = √(f(X × X) · f(Y × Y)). The PDD at an extended SSD is taken as the
+ * nominal SSD's (its change is small; the caller says so).
+ */
+export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointInput): ElectronPointOutcome {
+  const log: LookupNote[] = [];
+  const cal = beam.calibration;
+  const app = beam.applicators.find((a) => a.id === input.applicatorId);
+  if (!app) {
+    return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `electron beam ${beam.id} has no applicator "${input.applicatorId}"`,
+      expected: beam.applicators.map((a) => a.id).join(', '), found: input.applicatorId }] };
+  }
+  const bad = checkInput(input);
+  if (bad.length) return { ok: false, issues: bad };
+  const f = input.field;
+  const d = input.depthCm;
+  const sides = f.kind === 'rectangle' ? [f.xCm, f.yCm] : [f.sideCm];
+  const fieldSideCm = f.kind === 'rectangle' ? Math.sqrt(f.xCm * f.yCm) : f.sideCm;
+  const sqrtRule = (value: (side: number) => number) => (sides.length === 2 ? Math.sqrt(value(sides[0]!) * value(sides[1]!)) : value(sides[0]!));
+  const se = sqrtRule((s) => app.outputFactor.at(s, 0, log));
+  const pdd = sqrtRule((s) => beam.pdd.at(d, s, log));
+  const effectiveSsdCm = typeof app.effectiveSsdCm === 'number' ? app.effectiveSsdCm : app.effectiveSsdCm.at(fieldSideCm, 0, log);
+  const gap = input.ssdCm - cal.ssd0Cm;
+  const factors: Factor[] = [
+    { key: 'D0', value: cal.doseCGyPerMu, args: [] },
+    { key: 'Se', value: se, args: sides, name: app.id },
+    f.kind === 'rectangle'
+      ? { key: 'PDD', value: pdd / 100, args: [d, f.xCm, f.yCm, beam.pdd.ssdCm], name: 'square-root' }
+      : { key: 'PDD', value: pdd / 100, args: [d, f.sideCm, beam.pdd.ssdCm] },
+    { key: 'ISF', value: inverseSquareFactor(effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap), args: [effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap], name: `effective SSD ${effectiveSsdCm.toFixed(1)} cm, air gap ${gap.toFixed(1)} cm` },
+  ];
+  let dosePerMu = 1;
+  for (const x of factors) dosePerMu *= x.value;
+  const refused = log.filter((n) => n.kind === 'out-of-range');
+  if (refused.length || !Number.isFinite(dosePerMu)) {
+    return { ok: false, issues: refused.length ? refused.map((n): Issue => ({ severity: 'error', code: 'out-of-range',
+      message: `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} is outside the table (${n.range[0].toFixed(2)} to ${n.range[1].toFixed(2)} ${n.unit}) and no clamp is allowed there`,
+      expected: `${n.axis} within ${n.range[0].toFixed(2)} to ${n.range[1].toFixed(2)} ${n.unit}`, found: `${n.requested.toFixed(2)} ${n.unit}` }))
+      : [{ severity: 'error', code: 'physical-range', message: `electron beam ${beam.id}: a factor is not a finite number` }] };
+  }
+  return { ok: true, value: { dosePerMuCGy: dosePerMu, factors, airGapCm: gap, effectiveSsdCm, fieldSideCm, clamps: log } };
+}
+
+/** The depth on the central axis where the PDD falls to `percent` beyond dmax (prescription to an isodose), or undefined. */
+export function electronIsodoseDepthCm(beam: ElectronBeamModel, field: ElectronPointInput['field'], percent: number): number | undefined {
+  const sides = field.kind === 'rectangle' ? [field.xCm, field.yCm] : [field.sideCm];
+  const pdd = (d: number) => {
+    const log: LookupNote[] = [];
+    const v = sides.length === 2 ? Math.sqrt(beam.pdd.at(d, sides[0]!, log) * beam.pdd.at(d, sides[1]!, log)) : beam.pdd.at(d, sides[0]!, log);
+    return log.some((n) => n.kind === 'out-of-range') ? Number.NaN : v;
+  };
+  const depths = beam.pdd.rows.values;
+  // Past the maximum, the PDD falls monotonically: bisect between the rows that bracket the level.
+  let k = 0;
+  for (let i = 1; i < depths.length; i++) if (pdd(depths[i]!) > pdd(depths[k]!)) k = i;
+  for (let i = k; i + 1 < depths.length; i++) {
+    const [a, b] = [depths[i]!, depths[i + 1]!];
+    if (pdd(a) >= percent && pdd(b) < percent) {
+      let [lo, hi] = [a, b];
+      for (let n = 0; n < 60; n++) {
+        const mid = (lo + hi) / 2;
+        if (pdd(mid) >= percent) lo = mid;
+        else hi = mid;
+      }
+      return (lo + hi) / 2;
+    }
+  }
+  return undefined;
+}
+
+function checkInput(i: ElectronPointInput): Issue[] {
+  const out: Issue[] = [];
+  const need = (name: string, v: number, min: number, strict: boolean) => {
+    if (!Number.isFinite(v) || (strict ? v <= min : v < min)) {
+      out.push({ severity: 'error', code: 'invalid-option', message: `${name} must be a finite number ${strict ? '>' : '>='} ${min}`, expected: `${strict ? '>' : '>='} ${min}`, found: String(v) });
+    }
+  };
+  if (i.field.kind === 'rectangle') {
+    need('cutout X (cm)', i.field.xCm, 0, true);
+    need('cutout Y (cm)', i.field.yCm, 0, true);
+  } else need('cutout equivalent square (cm)', i.field.sideCm, 0, true);
+  need('depth (cm)', i.depthCm, 0, false);
+  need('SSD (cm)', i.ssdCm, 0, true);
+  return out;
+}
