@@ -3,7 +3,7 @@
  * a fictional clinic (Northgate Cancer Centre), fictional patients, and "planning system" MU made up
  * so each beam's planned MU give the stated Beam Dose within a small invented difference from the
  * demo machine's own dose per MU, as a planning system with another algorithm would. One plan has
- * an MU mis-typed by 10 % so the check flags it; one has an electron field, listed as not checked.
+ * an MU mis-typed by 10 % so the check flags it; one is an electron field with a cutout, one a two-arc VMAT plan.
  * The pelvis plan's "planning system" corrected for heterogeneity with the demo CT (npm run demo-ct
  * first), so checking it without the CT shows what ignoring the bone in the PA beam costs.
  * Run: npm run demo-clinic
@@ -17,6 +17,7 @@ import { checkPlan, DEFAULT_POLICY } from '../src/check/index.js';
 import { loadPatientCts } from '../src/cli/patient-ct.js';
 import { importPlanFile } from '../src/dicom/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from './lib/dcmjs-writer.js';
+import { arcBeam } from './fixtures/demo-plans.js';
 import { type PlanSpec, coordinatesDoseReference, ellipseLeaves, planDataset, round, staticBeam } from './fixtures/plan-parts.js';
 
 const OUT = fileURLToPath(new URL('../fixtures/demo/clinic/', import.meta.url));
@@ -120,18 +121,34 @@ function lungMlc(): DemoPlan {
   };
 }
 
+function prostateVmat(): DemoPlan {
+  const iso: Point = [5, -10, -60];
+  return {
+    spec: {
+      file: 'prostate-vmat.dcm', patientId: 'NG-1007', patientName: 'Demo^Plover', label: 'PROST VMAT', name: 'Two-arc VMAT, 6 MV',
+      description: 'Invented demo plan: two 6 MV arcs of 178 control points with moving leaves, the SSD at every control point',
+      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 60)],
+      fractionGroups: [{ number: 1, fractions: 20, prescriptionGy: 60, beams: [{ number: 1, mu: 300, doseGy: 1.5, specPoint: iso }, { number: 2, mu: 300, doseGy: 1.5, specPoint: iso }] }],
+      beams: [arcBeam(1, 'ARC1 CW', iso, 181, 358, 'CW', 0), arcBeam(2, 'ARC2 CC', iso, 179, 358, 'CC', 1.3)],
+    },
+    tpsDifference: [0.021, 0.014],
+  };
+}
+
 function chestwallElectron(): DemoPlan {
-  const point: Point = [-60, -95, 20];
+  // The applicator's isocenter on the skin (SSD 100 cm); the dose prescribed at 1.9 cm, about this field's dmax.
+  const iso: Point = [-60, -95, 20];
+  const point: Point = [-60, -76, 20];
   const cutout = Array.from({ length: 24 }, (_, i) => [round(30 * Math.cos((2 * Math.PI * i) / 24), 2), round(30 * Math.sin((2 * Math.PI * i) / 24), 2)] as const);
   return {
     spec: {
       file: 'chestwall-electron.dcm', patientId: 'NG-1006', patientName: 'Demo^Tern', label: 'SCAR E9', name: 'Electron scar boost, 9 MeV',
-      description: 'Invented demo plan: 9 MeV electrons with an applicator and cutout (not checked yet)',
+      description: 'Invented demo plan: 9 MeV electrons with an applicator and a 6 cm circular cutout, 2 Gy at 1.9 cm depth',
       doseReferences: [coordinatesDoseReference(1, 'prescription point', point, 10)],
       fractionGroups: [{ number: 1, fractions: 5, prescriptionGy: 10, beams: [{ number: 1, mu: 221.8, doseGy: 2, specPoint: point }] }],
-      beams: [staticBeam(1, 'E9 SCAR', 9, 0, 1000, point, { radiation: 'ELECTRON', applicator: { id: 'A10', type: 'ELECTRON_SQUARE', description: '10 x 10 cm electron applicator' }, cutout, first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
+      beams: [staticBeam(1, 'E9 SCAR', 9, 0, 1000, iso, { radiation: 'ELECTRON', applicator: { id: 'A10', type: 'ELECTRON_SQUARE', description: '10 x 10 cm electron applicator' }, cutout, first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
     },
-    tpsDifference: [0],
+    tpsDifference: [-0.009],
   };
 }
 
@@ -141,7 +158,7 @@ const cts = loadPatientCts([fileURLToPath(new URL('../fixtures/demo/clinic-ct/',
 if (!cts.ok) throw new Error(cts.issues.map((i) => i.message).join('; '));
 const work = mkdtempSync(join(tmpdir(), 'plumbline-clinic-'));
 try {
-  for (const demo of [pelvisBox(), brainLaterals(), spineSsd(), breastTangentsMistyped(), lungMlc(), chestwallElectron()]) {
+  for (const demo of [pelvisBox(), brainLaterals(), spineSsd(), breastTangentsMistyped(), lungMlc(), chestwallElectron(), prostateVmat()]) {
     // First pass: the demo machine's dose per MU for each beam at its point.
     const draft = join(work, demo.spec.file);
     writeDataset(draft, planDataset(demo.spec), RT_PLAN_STORAGE);

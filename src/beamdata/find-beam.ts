@@ -1,4 +1,4 @@
-import type { Issue, MachineModel, PhotonBeamModel } from '../model/index.js';
+import type { ElectronBeamModel, Issue, MachineModel, PhotonBeamModel } from '../model/index.js';
 
 /** The machine's beam for a nominal energy (and FFF flag); never a neighbouring energy. */
 export function findPhotonBeam(machine: MachineModel, energyMV: number, fff = false): { ok: true; beam: PhotonBeamModel } | { ok: false; issue: Issue } {
@@ -12,6 +12,21 @@ export function findPhotonBeam(machine: MachineModel, energyMV: number, fff = fa
       message: `machine ${machine.name} has no ${energyMV} MV${fff ? ' FFF' : ''} photon beam in its beam data`,
       expected: machine.beams.map((b) => `${b.nominalEnergyMV} MV${b.fff ? ' FFF' : ''}`).join(', '),
       found: `${energyMV} MV${fff ? ' FFF' : ''}`,
+    },
+  };
+}
+
+/** The machine's electron beam for a nominal energy; never a neighbouring energy. */
+export function findElectronBeam(machine: MachineModel, energyMeV: number): { ok: true; beam: ElectronBeamModel } | { ok: false; issue: Issue } {
+  const beam = machine.electronBeams.find((b) => Math.abs(b.nominalEnergyMeV - energyMeV) < 1e-9);
+  if (beam) return { ok: true, beam };
+  return {
+    ok: false,
+    issue: {
+      severity: 'error', code: 'missing-table',
+      message: `machine ${machine.name} has no ${energyMeV} MeV electron beam in its beam data`,
+      expected: machine.electronBeams.map((b) => `${b.nominalEnergyMeV} MeV`).join(', ') || 'no electron beams',
+      found: `${energyMeV} MeV`,
     },
   };
 }

@@ -154,10 +154,11 @@ export const Manifest = z
         description: z.string().optional(),
       })
       .strict(),
-    beams: z.array(PhotonBeamEntry).min(1),
+    beams: z.array(PhotonBeamEntry).default([]),
     electronBeams: z.array(ElectronBeamEntry).default([]),
   })
-  .strict();
+  .strict()
+  .refine((m) => m.beams.length + m.electronBeams.length > 0, { message: 'give at least one photon or electron beam', path: ['beams'] });
 
 export type Manifest = z.infer<typeof Manifest>;
 export type PhotonBeamEntry = z.infer<typeof PhotonBeamEntry>;

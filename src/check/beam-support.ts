@@ -8,12 +8,12 @@ const POSITIONS_SUPPORTED = new Set(['HFS', 'HFP', 'FFS', 'FFP']);
  */
 export function unsupportedReason(beam: Beam, patientPosition: string | undefined, mu: number | undefined): string | undefined {
   if (beam.treatmentDeliveryType === 'SETUP') return 'a setup beam, not a treatment beam';
-  if (beam.radiationType === 'ELECTRON') return 'electron beams are not checked yet (electron output and effective SSD come in a later version)';
-  if (beam.radiationType !== 'PHOTON') return `${beam.radiationType.toLowerCase()} beams are outside what plumbline checks`;
+  if (beam.radiationType !== 'PHOTON' && beam.radiationType !== 'ELECTRON') return `${beam.radiationType.toLowerCase()} beams are outside what plumbline checks`;
   if (beam.primaryDosimeterUnit === 'MINUTE') return 'the meterset is in minutes, not MU';
   if (mu === undefined || mu <= 0) return 'the beam has no meterset';
   const cps = beam.controlPoints;
   if (beam.compensators.length) return 'a compensator is in the beam';
+  if (beam.radiationType === 'ELECTRON' && isModulated(beam)) return 'an electron beam that moves or changes its field during delivery: not supported';
   if (beam.wedges.some((w) => w.type && w.type !== 'STANDARD')) return `a ${beam.wedges.find((w) => w.type !== 'STANDARD')!.type!.toLowerCase()} wedge: only physical wedges are checked so far`;
   const cp0 = cps[0]!;
   if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return 'the table top eccentric angle is not 0 (not supported)';

@@ -200,7 +200,7 @@ export function beamStub(beam: Beam, entry: ReferencedBeam): BeamCheck {
 }
 
 /** The most demanding category that applies (the one with the widest action level). */
-function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; shaped: boolean; heterogeneous: boolean }): CaseCategory {
+export function categorize(policy: Policy, c: { wedged: boolean; offAxisCm: number; irradiatedSquareCm: number; openFraction: number; ssdCm: number; shaped: boolean; heterogeneous: boolean }): CaseCategory {
   const cls = policy.classification;
   const applicable: CaseCategory[] = ['on-axis-open'];
   if (c.wedged || c.offAxisCm > cls.offAxisCm) applicable.push('off-axis-or-wedged');

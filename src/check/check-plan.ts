@@ -1,6 +1,7 @@
 import { doseAtPointGy } from '../geometry/index.js';
 import { type BeamCheck, cGyFromGy, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
 import { isModulated, unsupportedReason } from './beam-support.js';
+import { checkElectronBeam } from './check-electron.js';
 import { checkModulatedBeam } from './check-modulated.js';
 import { beamStub, checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
@@ -56,7 +57,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
       if (!point) return { ...stub, reason: 'no calculation point: the plan names none and the beam has no isocenter' };
       if (o.ct && !ct) return { ...stub, reason: 'the CT does not belong to this plan' };
-      const r = (isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
+      const r = (beam.radiationType === 'ELECTRON' ? checkElectronBeam : isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
       if (!r.ok) {
         issues.push({ ...r.issue, file: file.path });
         return { ...stub, reason: r.issue.message };
@@ -135,7 +136,7 @@ function judge(beams: BeamCheck[], policy: Policy): BeamCheck[] {
     }
     const ct = b.calculation.ct;
     if (ct) {
-      reasons.push(`CT depths: heterogeneity corrected by the TPR ratio, CF = ${ct.correctionFactor.toFixed(4)} (homogeneous dose ${ct.homogeneousDoseCGy.toFixed(1)} cGy)`);
+      reasons.push(`CT depths: heterogeneity corrected by ${ct.method ?? 'the TPR ratio'}, CF = ${ct.correctionFactor.toFixed(4)} (homogeneous dose ${ct.homogeneousDoseCGy.toFixed(1)} cGy)`);
       if (ct.ssdDifferenceMm !== undefined && Math.abs(ct.ssdDifferenceMm) > policy.ct.ssdToleranceMm) {
         verdict = worst(verdict, 'needs review');
         reasons.push(`the SSD from the CT (${(ct.ssdAlongAxisMm! / 10).toFixed(1)} cm) differs from the plan's (${(ct.planSsdMm! / 10).toFixed(1)} cm) by ${ct.ssdDifferenceMm.toFixed(1)} mm (tolerance ${policy.ct.ssdToleranceMm} mm): bolus missing, wrong CT or wrong isocenter?`);

@@ -82,7 +82,13 @@ export const BeamCheck = z.object({
           bodyThresholdHu: z.number(),
           /** How the surface was found: the EXTERNAL structure or the HU threshold. */
           body: z.string(),
+          /** How the heterogeneity was corrected (photons: the TPR ratio). */
+          method: z.string().optional(),
         })
+        .optional(),
+      /** An electron beam: applicator, cutout and the effective SSD for its air gap. */
+      electron: z
+        .object({ applicatorId: z.string(), cutout: z.enum(['none', 'rectangle', 'shaped']), fieldSideCm: z.number(), effectiveSsdCm: z.number(), airGapCm: z.number(), pddPercent: z.number() })
         .optional(),
       /** A modulated beam: how its segments were summed, and over what range of geometry. */
       modulated: z

@@ -5,7 +5,7 @@ import { CAUTION } from './caution.js';
 import { fixed, pointMm as mm, signed, textTable } from './table.js';
 
 
-const HEADER = ['beam', 'name', 'energy', 'setup', 'depth cm', 'off-axis cm', 'rc cm', 'irr cm', 'Sc', 'Sp', 'TPR/PDD', 'OAR', 'WF', 'MU plan', 'MU indep', 'TPS cGy', 'indep cGy', 'dev %', 'tol/action %', 'verdict'];
+const HEADER = ['beam', 'name', 'energy', 'setup', 'depth cm', 'off-axis cm', 'rc cm', 'irr cm', 'Sc|Se', 'Sp', 'TPR/PDD', 'OAR', 'WF', 'MU plan', 'MU indep', 'TPS cGy', 'indep cGy', 'dev %', 'tol/action %', 'verdict'];
 
 function row(b: BeamCheck): string[] {
   const c = b.calculation;
@@ -15,7 +15,7 @@ function row(b: BeamCheck): string[] {
   return [
     String(b.beamNumber), b.beamName ?? '—', energy, c.setup, c.depthCm.toFixed(2), c.offAxisCm.toFixed(2), c.collimatorSquareCm.toFixed(2),
     `${c.irradiatedSquareCm.toFixed(2)}${c.factors.some((x) => x.key === 'SpTPR') ? ' (Clarkson)' : c.approximations.some((a) => a.startsWith('irregular')) ? '*' : ''}`,
-    fixed(f('Sc'), 3), fixed(f('Sp'), 3), fixed(f('TPR') ?? f('PDD') ?? f('SpTPR'), 4), fixed(f('OAR'), 3), fixed(f('WF'), 3),
+    fixed(f('Sc') ?? f('Se'), 3), fixed(f('Sp'), 3), fixed(f('TPR') ?? f('PDD') ?? f('SpTPR'), 4), fixed(f('OAR'), 3), fixed(f('WF'), 3),
     fixed(b.plannedMu, 1), fixed(c.independentMu, 1), fixed(b.planningSystemDoseCGy, 1), c.independentDoseCGy.toFixed(1),
     signed(c.doseDeviationPercent), `${b.tolerancePercent}/${b.actionPercent}`, b.verdict ?? '—',
   ];

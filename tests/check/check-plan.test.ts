@@ -31,14 +31,17 @@ describe('checking the demo clinic', () => {
     expect(r.verdict).toBe('beyond action level');
   });
 
-  it('lists the electron field as not checked, with no number, and never calls the plan fully verified', () => {
-    const r = check(importOrThrow(clinic('chestwall-electron.dcm')), demo);
-    const b = beams(r)[0]!;
-    expect(b.status).toBe('not checked');
-    expect(b.reason).toMatch(/electron/);
-    expect(b.calculation).toBeUndefined();
-    expect(r.fullyVerified).toBe(false);
-    expect(r.verdict).toBe('needs review');
+  it('checks the electron field with its applicator and circular cutout (equal-area square), and the two-arc VMAT plan', () => {
+    const e = check(importOrThrow(clinic('chestwall-electron.dcm')), demo);
+    const b = beams(e)[0]!;
+    expect(b.status).toBe('checked');
+    expect(b.calculation!.factors.map((f) => f.key)).toEqual(['D0', 'Se', 'PDD', 'ISF']);
+    // The cutout, a regular 24-gon of radius 3 cm, has the area 12·r²·sin 15°: the square of equal area has its root as side.
+    expect(b.calculation!.irradiatedSquareCm).toBeCloseTo(3 * Math.sqrt(12 * Math.sin(Math.PI / 12)), 3); // vertices written to 0.01 mm
+    expect(e.fullyVerified).toBe(true);
+    const v = check(importOrThrow(clinic('prostate-vmat.dcm')), demo);
+    expect(beams(v).map((x) => x.category)).toEqual(['modulated', 'modulated']);
+    expect(v.fullyVerified).toBe(true);
   });
 
   it('checks the SSD spine field with the PDD formalism and the four-field box with TPR', () => {

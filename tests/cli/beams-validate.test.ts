@@ -31,7 +31,7 @@ const lines = (out: { stdout: readonly string[] }) => out.stdout.join('\n');
 describe('plumbline beams validate', () => {
   it('finds nothing wrong with the demo machine (exit 0)', () => {
     const r = runBeamsValidate('demo');
-    expect(lines(r)).toMatch(/3 beam\(s\), 27 table\(s\), 0 error\(s\), 0 warning\(s\)/);
+    expect(lines(r)).toMatch(/3 photon and 3 electron beam\(s\), 54 table\(s\), 0 error\(s\), 0 warning\(s\)/);
     expect(r.exitCode).toBe(0);
   });
 
@@ -47,6 +47,13 @@ describe('plumbline beams validate', () => {
   it('a PDD above 100 %', () => {
     const r = runBeamsValidate(faulty('10x/pdd.csv', setCell('5', 3, '100.90')));
     expect(lines(r)).toMatch(/10x\/pdd\.csv:\d+:\d+: 10X pdd: value outside the physical range; expected > 0 and <= 100\.05 %, found 100\.9/);
+    expect(r.exitCode).toBe(2);
+  });
+
+  it('an electron PDD column not normalized to 100 % at its own dmax, at the cell of its maximum', () => {
+    // Every value of the 3 cm cutout column (cell 1) of 9 MeV scaled by 0.97.
+    const r = runBeamsValidate(faulty('9e/pdd.csv', (t) => t.split('\n').map((l) => (/^\d/.test(l) ? l.split(',').map((c, k) => (k === 1 ? (0.97 * Number(c)).toFixed(2) : c)).join(',') : l)).join('\n')));
+    expect(lines(r)).toMatch(/9e\/pdd\.csv:\d+:\d+: 9E electron PDD: the column's maximum is not 100 % \(each column is normalized at its own dmax\); expected 100 ± 0\.5 %, found 97/);
     expect(r.exitCode).toBe(2);
   });
 

@@ -21,17 +21,19 @@ describe('plumbline check', () => {
     expect(r.stdout).toMatch(/an aid to, never a replacement for/);
   });
 
-  it('exit 1 for the demo clinic: a plan beyond the action level and one not fully verified', () => {
+  it('exit 1 for the demo clinic: a plan beyond the action level; the electron and VMAT plans checked', () => {
     const r = plumbline('check', CLINIC, '--beam-data', 'demo');
     expect(r.status).toBe(1);
     expect(r.stdout).toMatch(/RT Plan "L BREAST TG".*BEYOND ACTION LEVEL/);
-    expect(r.stdout).toMatch(/beam 1 E9 SCAR: not checked: electron beams/);
+    expect(r.stdout).toMatch(/RT Plan "SCAR E9".*WITHIN TOLERANCE/);
+    expect(r.stdout).toMatch(/RT Plan "PROST VMAT".*WITHIN TOLERANCE/);
+    expect(r.stdout).toMatch(/modified Clarkson integration/);
   });
 
   it('--json: one document its schema accepts, with the SHA-256 of each plan as sha256sum computes it', () => {
     const r = plumbline('check', CLINIC, '--beam-data', 'demo', '--json');
     const doc = CheckDocument.parse(JSON.parse(r.stdout));
-    expect(doc.plans).toHaveLength(6);
+    expect(doc.plans).toHaveLength(7);
     const file = doc.plans[0]!.file;
     const reference = spawnSync('sha256sum', [file], { encoding: 'utf8' }).stdout.split(' ')[0]; // coreutils
     expect(doc.plans[0]!.fileSha256).toBe(reference);
@@ -48,7 +50,7 @@ describe('plumbline check', () => {
     expect(html).not.toMatch(/(src|href)=["']?(https?:)?\/\//);
     expect(html).not.toMatch(/<(script|link)\b/);
     expect(html.match(/<svg /g)!.length).toBeGreaterThanOrEqual(5);
-    expect(html.match(/dose per MU \(cGy\/MU\)/g)).toHaveLength(10);
+    expect(html.match(/dose per MU \(cGy\/MU\)/g)).toHaveLength(13);
     expect(html).toMatch(/an aid to, never a replacement for/);
     expect(html).toMatch(/@page \{ size: A4/);
   });

@@ -71,7 +71,7 @@ describe('plumbline check --ct', () => {
   it("in a batch, plans without their own CT are checked without it and say so", () => {
     const r = run('check', 'fixtures/demo/clinic', '--beam-data', 'demo', ...CT);
     expect(r.status).toBe(1);
-    expect(r.stdout.match(/no CT series in this plan's frame of reference among --ct: checked without CT/g)).toHaveLength(5);
+    expect(r.stdout.match(/no CT series in this plan's frame of reference among --ct: checked without CT/g)).toHaveLength(6);
   });
 });
 
