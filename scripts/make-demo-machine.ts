@@ -11,6 +11,8 @@
  *   PDD from TMR exactly: PDD(d, r, 100) = 100 TMR(d, rd) Sp(rd)/Sp(rdmax) ((100 + dmax)/(100 + d))²
  *   OAR(d, x) = 1 + h x² exp(−d/15) (the horns of a flattened beam, fading with depth)
  *   wedge factor(r) = WF10 (1 + 0.0015 (r − 10)); the 60° wedge also varies with depth
+ *   wedge profile (wedged / open) = exp(−g u), g = 0.035 tan(angle) (1 − 0.01 (d − 10)) per cm, u toward the heel
+ *   swept (dynamic) wedge factor = 1 / (1 + 0.55 tan(angle) (L/10)^0.7), L the field length along the sweep
  * μ and κ are fitted so the 10 × 10 PDD at SSD 100 cm matches a target at 10 and 20 cm depth:
  * 6 MV 67.5 % and 39.3 % (the values BJR Supplement 25 gives for 6 MV), 10 and 15 MV invented.
  * dmax: 1.5 cm (6 MV) and 2.5 cm (10 MV) are typical handbook values (from memory), 2.9 cm (15 MV)
@@ -62,6 +64,9 @@ const FIELDS_CM = [2, 3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40, 45, 50];
 const SURFACE_FIELDS_CM = [3, 4, 5, 6, 7, 8, 10, 12, 15, 20, 25, 30, 35, 40];
 const OFF_AXIS_CM = [0, 1, 2, 3, 4, 5, 6, 8, 10, 12, 14, 16, 18, 20];
 const WEDGE_FIELDS_CM = [3, 4, 5, 6, 8, 10, 12, 15, 20];
+const WEDGE_POSITIONS_CM = [-10, -8, -6, -4, -2, 0, 2, 4, 6, 8, 10];
+const SWEPT_ANGLES_DEG = [10, 15, 20, 25, 30, 45, 60];
+const SWEPT_LENGTHS_CM = [4, 5, 6, 8, 10, 12, 15, 20, 25, 30];
 
 const depthsFor = (dmax: number) =>
   [...new Set([0, 0.5, 1, dmax, 2, 2.5, 3, 4, 5, 6, 7, 8, 9, 10, 12, 14, 16, 18, 20, 22, 25, 30, 35].filter((d) => d <= dmax || d > dmax + 0.05).concat(dmax))].sort((x, y) => x - y);
@@ -143,14 +148,22 @@ const beams = ENERGIES.map((e) => {
     write(rel, byDepth
       ? grid('depth_cm\\field_cm', [e.dmax, 5, 10, 15, 20, 25], WEDGE_FIELDS_CM, (d, r) => wf(r, d), f4, `${id} wedge factor vs depth (cm, rows) and collimator equivalent square (cm, columns)`)
       : profile('field_cm,wf', WEDGE_FIELDS_CM, (r) => wf(r), `${id} wedge factor vs collimator equivalent square (cm)`));
+    const angle = Number(id.slice(1));
+    const profileRel = `${dir}/wedge-${id.toLowerCase()}-profile.csv`;
+    write(profileRel, grid('depth_cm\\toward_heel_cm', [e.dmax, 5, 10, 15, 20, 25], WEDGE_POSITIONS_CM,
+      (d, u) => Math.exp(-0.035 * Math.tan((angle * Math.PI) / 180) * (1 - 0.01 * (d - 10)) * u), f4,
+      `${id} wedged / open dose ratio vs depth (cm, rows) and position along the wedge axis at the isocenter plane, positive toward the heel (cm, columns)`));
     return {
       id,
-      angleDeg: Number(id.slice(1)),
+      angleDeg: angle,
+      profile: { file: profileRel, units: { depth: 'cm', position: 'cm' }, interpolation: 'bilinear' },
       factor: byDepth
         ? { file: rel, byDepth: true, units: { depth: 'cm', fieldSide: 'cm' } }
         : { file: rel, byDepth: false, units: { fieldSide: 'cm' } },
     };
   });
+  write(`${dir}/swept-wedge.csv`, grid('angle_deg\\length_cm', SWEPT_ANGLES_DEG, SWEPT_LENGTHS_CM,
+    (a, l) => 1 / (1 + 0.55 * Math.tan((a * Math.PI) / 180) * (l / 10) ** 0.7), f4, 'swept (dynamic) wedge factor vs wedge angle (degrees, rows) and field length along the sweep (cm, columns)'));
   return {
     id: e.id,
     radiationType: 'PHOTON',
@@ -163,6 +176,7 @@ const beams = ENERGIES.map((e) => {
     sp: { file: `${dir}/sp.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
     oar: { file: `${dir}/oar.csv`, offAxisAt: 'depth', units: { depth: 'cm', offAxis: 'cm' }, interpolation: 'bilinear' },
     wedges,
+    sweptWedge: { factor: { file: `${dir}/swept-wedge.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' }, description: 'a jaw-swept wedge of any angle from 10 to 60 degrees (invented)' },
     trays: [{ id: 'BLOCK_TRAY', factor: e.tray }],
     mlcTransmission: e.mlcTransmission,
     collimatorExchangeK: 1.25,
@@ -226,6 +240,7 @@ const manifest = {
     aliases: ['demo'],
     sadCm: 100,
     invented: true,
+    wedgeHeel: { atOrientation0: '-Y', atOrientation90: '+X' },
     description: 'INVENTED demo machine of the Northgate Cancer Centre scenario; tables generated from a simple physical model by scripts/make-demo-machine.ts. Never use for a patient.',
   },
   beams: beams.map(({ fitted: _fitted, ...b }) => b),

@@ -22,7 +22,8 @@ export interface LoadedMachine {
   readonly tables: readonly LoadedTable[];
 }
 
-const TO_CM = { cm: 1, mm: 0.1 } as const;
+/** Axis units to the engine's: lengths to cm; angles stay in degrees. */
+const TO_CM = { cm: 1, mm: 0.1, deg: 1 } as const;
 
 /**
  * Reads a machine manifest and every table it names into a `MachineModel` of ready lookups.
@@ -77,6 +78,7 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     sadCm: m.sadCm,
     invented: m.invented,
     ...(m.description ? { description: m.description } : {}),
+    ...(m.wedgeHeel ? { wedgeHeel: m.wedgeHeel } : {}),
     version: manifest.dataVersion,
     beams,
     electronBeams,
@@ -110,8 +112,8 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
       return undefined;
     }
     const t = csv.value;
-    const rows = axis(rowAxis[0], t.rows, TO_CM[rowAxis[1]], t.rowPositions.map((p) => ({ file, ...p })), issues);
-    const columns = columnAxis ? axis(columnAxis[0], t.columns!, TO_CM[columnAxis[1]], t.columnPositions!.map((p) => ({ file, ...p })), issues) : undefined;
+    const rows = axis(rowAxis[0], t.rows, TO_CM[rowAxis[1]], rowAxis[1] === 'deg' ? 'deg' : 'cm', t.rowPositions.map((p) => ({ file, ...p })), issues);
+    const columns = columnAxis ? axis(columnAxis[0], t.columns!, TO_CM[columnAxis[1]], columnAxis[1] === 'deg' ? 'deg' : 'cm', t.columnPositions!.map((p) => ({ file, ...p })), issues) : undefined;
     if (!rows || (columnAxis && !columns)) return undefined;
     const values = Float64Array.from(t.values, (v) => v * valueScale);
     // A clamp is stated in the file's units; the engine works in cm.
@@ -152,8 +154,10 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     const lookup = f.byDepth
       ? load(`wedge ${w.id}`, f, 'grid', ['depth', f.units.depth], ['fieldSide', f.units.fieldSide])
       : load(`wedge ${w.id}`, f, 'profile', ['fieldSide', f.units.fieldSide], undefined);
-    if (lookup) wedges.push({ id: w.id, angleDeg: w.angleDeg, factor: lookup, byDepth: f.byDepth });
+    const profile = w.profile ? load(`wedge profile ${w.id}`, w.profile, 'grid', ['depth', w.profile.units.depth], ['towardHeel', w.profile.units.position]) : undefined;
+    if (lookup) wedges.push({ id: w.id, angleDeg: w.angleDeg, factor: lookup, byDepth: f.byDepth, ...(profile ? { profile } : {}) });
   }
+  const swept = entry.sweptWedge ? load('swept wedge', entry.sweptWedge.factor, 'grid', ['angle', 'deg'], ['fieldSide', entry.sweptWedge.factor.units.fieldSide]) : undefined;
   if (!sc || (entry.pdd !== 'derive-from-tpr' && !pdd) || (entry.tpr !== 'derive-from-pdd' && !tpr) || (!sp && !scp)) return undefined;
   return {
     id: entry.id,
@@ -168,6 +172,7 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     ...(scp ? { scp } : {}),
     ...(oar && entry.oar ? { oar: Object.assign(oar, { offAxisAt: entry.oar.offAxisAt }) } : {}),
     wedges,
+    ...(swept ? { sweptWedge: swept } : {}),
     trays: entry.trays,
     ...(entry.mlcTransmission !== undefined ? { mlcTransmission: entry.mlcTransmission } : {}),
     ...(entry.collimatorExchangeK !== undefined ? { collimatorExchangeK: entry.collimatorExchangeK } : {}),
@@ -188,7 +193,7 @@ function loadElectronBeam(entry: ElectronBeamEntry, dir: string, tables: LoadedT
 }
 
 /** An axis in cm, refused unless strictly increasing (interpolation depends on it). */
-function axis(name: string, raw: readonly number[], toCm: number, at: { file: string; line: number; column: number }[], issues: Issue[]): TableAxis | undefined {
+function axis(name: string, raw: readonly number[], toCm: number, unit: string, at: { file: string; line: number; column: number }[], issues: Issue[]): TableAxis | undefined {
   for (let i = 1; i < raw.length; i++) {
     if (!(raw[i]! > raw[i - 1]!)) {
       issues.push({ severity: 'error', code: 'invalid-table', ...at[i]!, message: `the ${name} axis is not strictly increasing`,
@@ -196,7 +201,7 @@ function axis(name: string, raw: readonly number[], toCm: number, at: { file: st
       return undefined;
     }
   }
-  return { name, unit: 'cm', values: Float64Array.from(raw, (v) => v * toCm) };
+  return { name, unit, values: Float64Array.from(raw, (v) => v * toCm) };
 }
 
 function fail(issue: Issue): Result<never> {

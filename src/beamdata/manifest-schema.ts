@@ -68,8 +68,22 @@ export const WedgeTable = z
       z.object({ ...tableBase, byDepth: z.literal(false), units: z.object({ fieldSide: LengthUnit }).strict() }).strict(),
       z.object({ ...tableBase, byDepth: z.literal(true), units: z.object({ depth: LengthUnit, fieldSide: LengthUnit }).strict() }).strict(),
     ]),
+    profile: z
+      .object({ ...tableBase, units: z.object({ depth: LengthUnit, position: LengthUnit }).strict() })
+      .strict()
+      .optional()
+      .describe('wedged / open dose ratio vs depth (rows) and position along the wedge axis at the isocenter plane, positive toward the heel (columns); 1 on the central axis'),
   })
   .strict();
+
+export const SweptWedge = z
+  .object({
+    factor: z.object({ ...tableBase, units: z.object({ fieldSide: LengthUnit }).strict() }).strict()
+      .describe('wedge factor vs wedge angle in degrees (rows) and the field length along the swept direction (columns)'),
+    description: z.string().optional(),
+  })
+  .strict()
+  .describe('a wedge made by a jaw sweeping during delivery (Wedge Type DYNAMIC in the plan), any angle from one table');
 
 export const PhotonBeamEntry = z
   .object({
@@ -94,6 +108,7 @@ export const PhotonBeamEntry = z
     scp: FieldProfile.optional().describe('total scatter factor; Sp = Scp / Sc when sp is not given'),
     oar: OarTable.optional(),
     wedges: z.array(WedgeTable).default([]),
+    sweptWedge: SweptWedge.optional(),
     trays: z.array(z.object({ id: z.string().min(1), factor: z.number().finite().positive().max(1) }).strict()).default([]),
     mlcTransmission: z.number().finite().min(0).max(1).optional(),
     collimatorExchangeK: positive.optional().describe('collimator-exchange constant k for the Sc equivalent square'),
@@ -152,13 +167,19 @@ export const Manifest = z
         sadCm: positive,
         invented: z.boolean().default(false).describe('true for demonstration data that must never be used for a patient'),
         description: z.string().optional(),
+        wedgeHeel: z
+          .object({ atOrientation0: z.enum(['+Y', '-Y']), atOrientation90: z.enum(['+X', '-X']) })
+          .strict()
+          .optional()
+          .describe("where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, as the clinic verified with its planning system; needed by wedge profiles"),
       })
       .strict(),
     beams: z.array(PhotonBeamEntry).default([]),
     electronBeams: z.array(ElectronBeamEntry).default([]),
   })
   .strict()
-  .refine((m) => m.beams.length + m.electronBeams.length > 0, { message: 'give at least one photon or electron beam', path: ['beams'] });
+  .refine((m) => m.beams.length + m.electronBeams.length > 0, { message: 'give at least one photon or electron beam', path: ['beams'] })
+  .refine((m) => !!m.machine.wedgeHeel || !m.beams.some((b) => b.wedges.some((w) => w.profile)), { message: 'wedge profiles need machine.wedgeHeel (where the heel points at Wedge Orientation 0 and 90)', path: ['machine', 'wedgeHeel'] });
 
 export type Manifest = z.infer<typeof Manifest>;
 export type PhotonBeamEntry = z.infer<typeof PhotonBeamEntry>;

@@ -11,6 +11,8 @@ const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: 
   scp: { min: 0.4, max: 1.5, minInclusive: true },
   oar: { min: 0, max: 1.3, minInclusive: false },
   wedge: { min: 0, max: 1, minInclusive: false },
+  'wedge profile': { min: 0, max: 3, minInclusive: false },
+  'swept wedge': { min: 0, max: 1, minInclusive: false },
   'electron pdd': { min: 0, max: 100.05, minInclusive: true },
   se: { min: 0.5, max: 1.3, minInclusive: true },
   'effective ssd': { min: 50, max: 200, minInclusive: true },
@@ -18,6 +20,7 @@ const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: 
 
 /** The family of a table from its quantity name ("wedge W15" → wedge, "se A10" → se). */
 function kindOf(quantity: string): string {
+  if (quantity.startsWith('wedge profile')) return 'wedge profile';
   if (quantity.startsWith('wedge')) return 'wedge';
   if (quantity.startsWith('se ')) return 'se';
   if (quantity.startsWith('effective ssd')) return 'effective ssd';

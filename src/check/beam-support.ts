@@ -14,7 +14,8 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   const cps = beam.controlPoints;
   if (beam.compensators.length) return 'a compensator is in the beam';
   if (beam.radiationType === 'ELECTRON' && isModulated(beam)) return 'an electron beam that moves or changes its field during delivery: not supported';
-  if (beam.wedges.some((w) => w.type && w.type !== 'STANDARD')) return `a ${beam.wedges.find((w) => w.type !== 'STANDARD')!.type!.toLowerCase()} wedge: only physical wedges are checked so far`;
+  const other = beam.wedges.find((w) => w.type && w.type !== 'STANDARD' && w.type !== 'DYNAMIC');
+  if (other) return `a ${other.type!.toLowerCase()} wedge: physical and jaw-swept (dynamic) wedges are checked, this type is not`;
   const cp0 = cps[0]!;
   if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return 'the table top eccentric angle is not 0 (not supported)';
   if (!patientPosition) return 'the patient position is not given';
@@ -24,10 +25,19 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   return undefined;
 }
 
-/** Whether the beam changes during delivery (gantry, leaves, jaws): summed segment by segment. */
+/**
+ * Whether the beam changes during delivery (gantry, leaves, jaws): summed segment by segment. A
+ * jaw-swept wedge is not: its jaw motion is the wedge, calculated by its factor over the full field.
+ */
 export function isModulated(beam: Beam): boolean {
   const cps = beam.controlPoints;
+  if (beam.wedges.some((w) => w.type === 'DYNAMIC') && cps.every((c) => c.gantryAngleDeg === cps[0]!.gantryAngleDeg) && leavesStill(cps)) return false;
   return beam.beamType === 'DYNAMIC' || cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg) || !sameAperture(cps);
+}
+
+function leavesStill(cps: readonly ControlPoint[]): boolean {
+  const leaves = (c: ControlPoint) => JSON.stringify(c.devices.filter((d) => d.type === 'MLCX' || d.type === 'MLCY'));
+  return cps.every((c) => leaves(c) === leaves(cps[0]!));
 }
 
 function sameAperture(cps: readonly ControlPoint[]): boolean {

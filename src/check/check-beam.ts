@@ -1,6 +1,6 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
-import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
+import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
@@ -36,7 +36,17 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const found = findPhotonBeam(machine, cp0.nominalEnergyMeV!);
   if (!found.ok) return { ok: false, issue: { ...found.issue, beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}) } };
   const data = found.beam;
-  const wedge = beam.wedges.find((w) => cp0.wedgePositions.some((p) => p.wedgeNumber === w.number && p.position === 'IN'));
+  const wedgeIn = beam.wedges.find((w) => cp0.wedgePositions.some((p) => p.wedgeNumber === w.number && p.position === 'IN'));
+  // A jaw-swept wedge has its own table (by angle); a physical one is looked up by its ID.
+  const swept = wedgeIn?.type === 'DYNAMIC' ? wedgeIn : undefined;
+  const wedge = swept ? undefined : wedgeIn;
+  if (swept && !data.sweptWedge) {
+    return { ok: false, issue: { severity: 'error', code: 'missing-table', beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}),
+      message: `the beam data of ${machine.name} ${data.id} have no swept-wedge table for the dynamic wedge "${swept.id ?? swept.number}"`, expected: 'a sweptWedge table', found: 'none' } };
+  }
+  if (swept && (swept.angleDeg === undefined || sweepAxis(swept.orientationDeg) === undefined)) {
+    return notChecked(`the dynamic wedge gives ${swept.angleDeg === undefined ? 'no angle' : `orientation ${swept.orientationDeg ?? '(none)'}°, not along a jaw axis`}`);
+  }
   if (wedge && !data.wedges.some((w) => w.id === wedge.id)) {
     return { ok: false, issue: { severity: 'error', code: 'missing-table', beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}),
       message: `the beam data of ${machine.name} ${data.id} have no wedge "${wedge.id ?? wedge.number}"`, expected: data.wedges.map((w) => w.id).join(', ') || 'no wedges', found: wedge.id ?? String(wedge.number) } };
@@ -47,7 +57,8 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   const frame = beamFrame(cp0, ctx.patientPosition as never, sadMm)!;
   const at = flatDepth(frame, point.patientMm, cp0.ssdMm ?? 0);
   if (!ctx.ct && at.depthMm < 0) return notChecked(`the calculation point lies ${(-at.depthMm / MM_PER_CM).toFixed(1)} cm above the surface`);
-  const aperture = apertureAt(beam, cp0);
+  // A swept wedge's jaw moves during delivery: the field is the jaws' envelope over the control points.
+  const aperture = apertureAt(beam, swept ? jawEnvelope(beam) : cp0);
   if (!aperture || aperture.areaMm2 <= 0) return notChecked('the beam has no open aperture');
 
   // With the CT: SSD and depth along the ray to the point, traced through the patient.
@@ -86,13 +97,25 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     return { ok: false, issue: { severity: 'error', code: 'missing-table', beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}),
       message: `the beam data of ${machine.name} ${data.id} have no tray "${tray}"`, expected: data.trays.map((t) => t.id).join(', ') || 'no trays', found: tray } };
   }
-  if (wedge && offAxisCm > policy.classification.offAxisCm) approximations.push('the wedge factor is the central-axis value; the wedge profile off axis is not applied');
+  const wedgeData = wedge ? data.wedges.find((w) => w.id === wedge.id) : undefined;
+  const heel = wedgeData?.profile ? heelDirection(machine, wedge!.orientationDeg) : undefined;
+  const towardHeelCm = heel ? (px * heel[0] + py * heel[1]) / MM_PER_CM : undefined;
+  if (wedgeData?.profile && !heel) approximations.push(`the wedge profile is not applied: orientation ${wedge!.orientationDeg ?? '(none)'}° is not 0, 90, 180 or 270, or the beam data do not say where the heel points`);
+  if (wedge && !heel && offAxisCm > policy.classification.offAxisCm) approximations.push('the wedge factor is the central-axis value; the wedge profile off axis is not applied');
+  let sweptWedge: PhotonPointInput['sweptWedge'];
+  if (swept) {
+    const axis = sweepAxis(swept.orientationDeg)!;
+    sweptWedge = { angleDeg: swept.angleDeg!, fieldLengthCm: axis === 'Y' ? collimatorFieldCm.y : collimatorFieldCm.x };
+    const j = aperture.jawsMm;
+    if (Math.abs(axis === 'Y' ? j.y1 + j.y2 : j.x1 + j.x2) > 1) approximations.push('the swept-wedge factor is for a field centred on the axis; this one is asymmetric along the sweep');
+  }
   if (beam.bolusRoiNumbers.length) approximations.push("a bolus is referenced: the depth is taken from the plan's SSD, which must include it");
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push('table top pitch and roll are ignored');
 
   const input: PhotonPointInput = {
     // Clarkson integrates Sp·TPR, so irregular fields use the TPR form whatever the setup.
     setup: clarksonSectors ? 'SAD' : setup, collimatorFieldCm, irradiatedSquareCm, depthCm, ssdCm, offAxisCm, ...(wedge?.id ? { wedgeId: wedge.id } : {}),
+    ...(towardHeelCm !== undefined ? { towardHeelCm } : {}), ...(sweptWedge ? { sweptWedge } : {}),
     ...(clarksonSectors ? { clarksonSectors, primaryWeight: field.primaryWeight } : {}),
     ...(tray !== undefined ? { trayId: tray } : {}),
   };
@@ -146,7 +169,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   }
 
   const heterogeneous = !!ctResult && (ctResult.densityRange[0] < policy.ct.waterLikeDensity[0] || ctResult.densityRange[1] > policy.ct.waterLikeDensity[1]);
-  const category = categorize(policy, { wedged: !!wedge, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
+  const category = categorize(policy, { wedged: !!wedgeIn, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
   const planningSystemDepths = theirDepths(beam, entry, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
     ok: true,
@@ -163,7 +186,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         collimatorFieldCm,
         collimatorSquareCm: r.value.geometry.collimatorSquareCm,
         irradiatedSquareCm,
-        ...(wedge?.id ? { wedgeId: wedge.id } : {}),
+        ...(wedgeIn?.id ? { wedgeId: wedgeIn.id } : {}),
         approximations,
         factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
         dosePerMuCGy,
@@ -182,6 +205,35 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
       ...(suggestedPoint ? { suggestedPoint } : {}),
     },
   };
+}
+
+/** The jaw axis a dynamic wedge sweeps along: its orientation 0/180 along Y, 90/270 along X. */
+function sweepAxis(orientationDeg: number | undefined): 'X' | 'Y' | undefined {
+  if (orientationDeg === undefined) return undefined;
+  const o = ((orientationDeg % 360) + 360) % 360;
+  return [0, 180].some((a) => Math.abs(o - a) < 0.5) ? 'Y' : [90, 270].some((a) => Math.abs(o - a) < 0.5) ? 'X' : undefined;
+}
+
+/** The heel's direction (unit, BEAM LIMITING DEVICE frame) at a wedge orientation, from the beam data's convention. */
+function heelDirection(machine: MachineModel, orientationDeg: number | undefined): [number, number] | undefined {
+  if (!machine.wedgeHeel || orientationDeg === undefined) return undefined;
+  const o = ((orientationDeg % 360) + 360) % 360;
+  const y = machine.wedgeHeel.atOrientation0 === '+Y' ? 1 : -1;
+  const x = machine.wedgeHeel.atOrientation90 === '+X' ? 1 : -1;
+  const near = (a: number) => Math.abs(o - a) < 0.5 || Math.abs(o - a - 360) < 0.5;
+  return near(0) ? [0, y] : near(180) ? [0, -y] : near(90) ? [x, 0] : near(270) ? [-x, 0] : undefined;
+}
+
+/** The first control point with each jaw at its widest over the beam (a swept wedge's full field). */
+function jawEnvelope(beam: Beam): ControlPoint {
+  const cps = beam.controlPoints;
+  const jaw = (t: string) => t === 'X' || t === 'Y' || t === 'ASYMX' || t === 'ASYMY';
+  const devices = cps[0]!.devices.map((d) => {
+    if (!jaw(d.type)) return d;
+    const all = cps.map((c) => c.devices.find((x) => x.type === d.type)?.positionsMm ?? d.positionsMm);
+    return { type: d.type, positionsMm: [Math.min(...all.map((p) => p[0]!)), Math.max(...all.map((p) => p[1]!))] };
+  });
+  return { ...cps[0]!, devices };
 }
 
 /** What the plan says of a beam, before any calculation: the result of a beam not checked, plus its reason. */

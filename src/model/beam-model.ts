@@ -57,6 +57,8 @@ export interface WedgeData {
   /** Wedge factor vs collimator field side (columns) and optionally depth (rows). */
   readonly factor: TableLookup;
   readonly byDepth: boolean;
+  /** Wedged / open ratio vs depth (rows) and position toward the heel at the isocenter plane (columns); 1 on axis. */
+  readonly profile?: TableLookup;
 }
 
 export interface PhotonBeamModel {
@@ -77,6 +79,8 @@ export interface PhotonBeamModel {
   /** Off-axis ratio vs depth (rows) and off-axis distance (columns), at depth or projected to the isocenter plane. */
   readonly oar?: TableLookup & { readonly offAxisAt: 'depth' | 'isocenter-plane' };
   readonly wedges: readonly WedgeData[];
+  /** A jaw-swept wedge (DYNAMIC in the plan): factor vs wedge angle in degrees (rows) and field length along the sweep (columns). */
+  readonly sweptWedge?: TableLookup;
   readonly trays: readonly { readonly id: string; readonly factor: number }[];
   readonly mlcTransmission?: number;
   /** Collimator-exchange constant k for Sc's equivalent square (upper jaw = Y); 1 means none. */
@@ -110,6 +114,8 @@ export interface MachineModel {
   readonly sadCm: number;
   readonly invented: boolean;
   readonly description?: string;
+  /** Where a wedge's heel points in the BEAM LIMITING DEVICE frame at Wedge Orientation 0 and 90 degrees. */
+  readonly wedgeHeel?: { readonly atOrientation0: '+Y' | '-Y'; readonly atOrientation90: '+X' | '-X' };
   readonly version: string;
   readonly beams: readonly PhotonBeamModel[];
   readonly electronBeams: readonly ElectronBeamModel[];

@@ -26,6 +26,8 @@ export function factorLabel(f: Factor): string {
       return `OAR(${cm(a[0]!)}, ${cm(a[1]!)}${f.name === 'isocenter-plane' ? ' at the isocenter plane' : ''})`;
     case 'WF':
       return `WF ${f.name}(${a.map(cm).join(', ')})`;
+    case 'WP':
+      return `wedge profile ${f.name}(${cm(a[0]!)}, ${cm(a[1]!)} toward the heel)`;
     case 'TF':
       return `TF ${f.name}`;
     case 'MCI':

@@ -14,6 +14,10 @@ export interface PhotonPointInput {
   /** Distance of the point from the central axis, at its depth. */
   readonly offAxisCm?: number;
   readonly wedgeId?: string;
+  /** With a physical wedge that has a profile: the point's position along the wedge axis at the isocenter plane, positive toward the heel. */
+  readonly towardHeelCm?: number;
+  /** A jaw-swept wedge: its angle and the field length along the sweep at the isocenter plane. */
+  readonly sweptWedge?: { readonly angleDeg: number; readonly fieldLengthCm: number };
   readonly trayId?: string;
   /**
    * For an irregular field in an SAD setup, the sectors around the point: Sp·TPR then comes from
@@ -44,11 +48,12 @@ export interface ClarksonSector {
  *   MCI (modulated beams): [segments, sectors], the MU-weighted sum of Sc·Sp·TPR·ISF·OAR over the segments
  *   Se (electrons): [side] or, by the square-root rule, [X, Y]; name: the applicator. Electron PDD by the
  *   square-root rule: [depth, X, Y, SSD], name 'square-root'
+ *   WP (wedge profile): [depth, position toward the heel at the isocenter plane]; WF of a swept wedge: [field length], name 'swept N°'
  *   ISF: [numerator distance, denominator distance]   OAR: [depth, off-axis]   WF: [side] or [depth, side]   TF: []
  * `name`: TPR or TMR; the OAR's distance convention; the wedge or tray ID.
  */
 export interface Factor {
-  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'TF' | 'MCI' | 'Se';
+  readonly key: 'D0' | 'Sc' | 'Sp' | 'PDD' | 'TPR' | 'SpTPR' | 'ISF' | 'OAR' | 'WF' | 'WP' | 'TF' | 'MCI' | 'Se';
   readonly value: number;
   readonly args: readonly number[];
   readonly name?: string;

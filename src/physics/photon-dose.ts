@@ -66,6 +66,15 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
     factors.push(w.byDepth
       ? { key: 'WF', value: w.factor.at(d, collimatorSquare, log), args: [d, collimatorSquare], name: w.id }
       : { key: 'WF', value: w.factor.at(collimatorSquare, 0, log), args: [collimatorSquare], name: w.id });
+    // Off axis along the wedge, the wedged / open ratio of the clinic's wedged profiles.
+    if (w.profile && input.towardHeelCm !== undefined) factors.push({ key: 'WP', value: w.profile.at(d, input.towardHeelCm, log), args: [d, input.towardHeelCm], name: w.id });
+  }
+  if (input.sweptWedge) {
+    if (!beam.sweptWedge) {
+      return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no swept-wedge table, so a jaw-swept (dynamic) wedge cannot be calculated`, expected: 'a sweptWedge table', found: 'none' }] };
+    }
+    const { angleDeg, fieldLengthCm } = input.sweptWedge;
+    factors.push({ key: 'WF', value: beam.sweptWedge.at(angleDeg, fieldLengthCm, log), args: [fieldLengthCm], name: `swept ${angleDeg}°` });
   }
   if (input.trayId !== undefined) {
     const t = beam.trays.find((v) => v.id === input.trayId);
