@@ -3,14 +3,22 @@
  * from the method's definition (a static field written as an "arc" of identical control points must
  * give the static result exactly; a uniform leaf transmission scales the dose linearly) and from
  * geometry (every gantry angle of an arc round a cylinder centred on the isocenter sees the same
- * depth, so the arc gives the static dose at that depth).
+ * depth, so the arc gives the static dose at that depth; with a CT of a water cylinder, traced per
+ * control point, to within the voxel size).
  */
+import { mkdirSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
+import { loadDensityTable } from '../../src/beamdata/index.js';
+import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
+import { readCtSeries } from '../../src/dicom/index.js';
 import { type BeamSpec, type ControlPointSpec, coordinatesDoseReference, ellipseLeaves, MLC_PAIRS, type PlanSpec, staticBeam } from '../../scripts/fixtures/plan-parts.js';
 import type { BeamCheck } from '../../src/model/index.js';
 import { beams, check, importOrThrow, planFromSpec } from '../helpers/check-run.js';
 import { demoPlan } from '../helpers/fixtures.js';
-import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
+import { DEMO_MANIFEST, beam as dataBeam, machine, manifestPath } from '../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
@@ -77,6 +85,31 @@ describe('modulated beams (modified Clarkson integration)', () => {
     expect(arc.calculation!.modulated!.depthRangeCm[0]).toBeCloseTo(10, 9);
     expect(arc.calculation!.modulated!.depthRangeCm[1]).toBeCloseTo(10, 9);
     expect(arc.calculation!.dosePerMuCGy / stat.calculation!.dosePerMuCGy - 1).toBeCloseTo(0, 12);
+  });
+
+  it('with the CT of a water cylinder (radius 100 mm, 2 mm voxels) traced per control point, the arc gives the static dose at 10 cm within 0.5 %', () => {
+    const field = staticBeam(1, 'ARC', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
+    const stat = run('cylinder-static-ct', field);
+    const n = 37;
+    const cps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({ ...(j === 0 ? { ...field.controlPoints[0]!, ssdMm: undefined } : {}), gantryDeg: (181 + 10 * j) % 360,
+      gantryDirection: j === n - 1 ? 'NONE' : 'CW', weight: j / (n - 1), doseCoefficient: j / (n - 1) }));
+    const { plan } = planFromSpec(spec('cylinder-arc-ct', { ...field, dynamic: true, controlPoints: cps }));
+    const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-cyl-')), 'ct');
+    mkdirSync(dir);
+    // Voxel centres at odd millimetres, so the cylinder's surface falls between them within 1 mm.
+    const files = writeCtPhantom(dir, { name: 'cyl', columns: 128, rows: 128, slices: 40, spacingMm: [2, 2, 2], originMm: [-127, -127, -39], frameOfReferenceUid: plan.frameOfReferenceUid!,
+      hu: (x, y) => (x * x + y * y <= 100 * 100 ? 0 : -1000) });
+    const volume = readCtSeries(files);
+    const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
+    if (!volume.ok || !table.ok) throw new Error('phantom');
+    const ct: PatientCt = { volume: volume.value, density: table.value.density, densityTable: 'demo', bodyThresholdHu: -400, bodySource: 'HU >= -400' };
+    const r = beams(checkPlan(plan, { path: 'arc.dcm', sha256: '' }, { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }))[0]!;
+    expect(r.status).toBe('checked');
+    const m = r.calculation!.modulated!;
+    expect(m.depthSource).toMatch(/traced through the CT/);
+    expect(m.depthRangeCm[0]).toBeGreaterThan(9.85);
+    expect(m.depthRangeCm[1]).toBeLessThan(10.15);
+    expect(Math.abs(r.calculation!.dosePerMuCGy / stat.calculation!.dosePerMuCGy - 1)).toBeLessThan(0.005);
   });
 
   it('an arc without an SSD at its control points and without the CT is not checked, naming the control points', () => {
