@@ -2,6 +2,7 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { CalcDocument } from '../../src/report/calc-report.js';
+import { ElectronCalcDocument } from '../../src/report/electron-calc-report.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const calc = (...args: string[]) =>
@@ -38,5 +39,31 @@ describe('plumbline calc on the demo machine', () => {
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(message);
     expect(r.stdout).toBe('');
+  });
+});
+
+describe('plumbline calc for electrons', () => {
+  const run = (...args: string[]) =>
+    spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'calc', '--beam-data', 'tests/reference/electron-course-examples/manifest.json', ...args], { cwd: ROOT, encoding: 'utf8' });
+  it('prescribed to the 90 % isodose: the published worked example 2.2 (9 MeV, 10x10 cone, 8x10 cutout, 200 cGy → 220 MU)', () => {
+    const r = run('--energy', '9', '--applicator', 'A10', '--cutout', '8x10', '--isodose', '90', '--dose', '200');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/depth 2\.90 cm \(the depth of the 90 % isodose on the central axis\)/);
+    expect(r.stdout).toMatch(/MU = 200 cGy \/ \d\.\d{4} cGy\/MU = 219\.\d MU/);
+    expect(r.stdout).toMatch(/an aid to, never a replacement for/);
+  });
+  it('--json at an extended SSD: example 2.4 (9x15 cutout in the 15x15 cone, SSD 105 cm → 221 MU), a document its schema accepts', () => {
+    const r = run('--energy', '9', '--applicator', 'A15', '--cutout', '9x15', '--depth', '2.2', '--ssd', '105', '--dose', '200', '--json');
+    expect(r.status).toBe(0);
+    const doc = ElectronCalcDocument.parse(JSON.parse(r.stdout));
+    expect(Math.round(doc.mu)).toBe(221);
+    expect(doc.airGapCm).toBeCloseTo(5, 9);
+    expect(doc.factors.reduce((p, f) => p * f.value, 1)).toBeCloseTo(doc.dosePerMuCGy, 12);
+  });
+  it('refuses an applicator the beam data lack, naming those it has, and --isodose for photons', () => {
+    expect(run('--energy', '9', '--applicator', 'A25', '--depth', '2', '--dose', '200').stderr).toMatch(/no applicator "A25".*expected A10, A15/);
+    const p = calc('--energy', '6', '--setup', 'SSD', '--field', '10', '--depth', '5', '--isodose', '90', '--dose', '200');
+    expect(p.status).toBe(2);
+    expect(p.stderr).toMatch(/--cutout and --isodose are for electron beams/);
   });
 });
