@@ -101,7 +101,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
   const approximations = [`${cutoutText}; effective SSD ${r.value.effectiveSsdCm.toFixed(1)} cm`];
   if (Math.abs(r.value.airGapCm) > 1e-6) approximations.push(`extended SSD: the PDD measured at ${data.pdd.ssdCm} cm is used at ${ssdCm.toFixed(1)} cm, with the inverse square of the effective SSD for the air gap`);
   if (offAxisCm > 0.5) approximations.push(`the point is ${offAxisCm.toFixed(1)} cm from the central axis: electron doses are central-axis values (no off-axis ratio)`);
-  if ((cp0.gantryAngleDeg !== 0 && !ctx.ct) || beam.bolusRoiNumbers.length) approximations.push("the surface is taken as flat and normal to the beam at the plan's SSD (bolus, if any, must be in it)");
+  if (beam.bolusRoiNumbers.length) approximations.push("a bolus is referenced: the depth is taken from the plan's SSD, which must include it");
 
   // Is the point fit for a point check? Edge of the cutout at the point's depth, build-up, the fall-off.
   const flags: string[] = [];
