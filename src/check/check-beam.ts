@@ -1,7 +1,8 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
 import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
-import { equivalentSquareOfOutlineCm, photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
+import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
+import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
@@ -17,6 +18,8 @@ export interface BeamCheckContext {
   readonly suggestPoint: boolean;
   /** The patient's CT, when given: depths and SSD traced through it, heterogeneity corrected. */
   readonly ct?: PatientCt;
+  /** How photon doses are corrected for heterogeneity with the CT (default: the TPR ratio). */
+  readonly heterogeneity?: HeterogeneityMethod;
 }
 
 const MM_PER_CM = 10;
@@ -29,6 +32,7 @@ const MM_PER_CM = 10;
  */
 export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck } | { ok: false; issue: Issue } {
   const { beam, entry, point, machine, policy } = ctx;
+  const method = ctx.heterogeneity ?? 'tpr-ratio';
   const cp0 = beam.controlPoints[0]!;
   const base: BeamCheck = { ...beamStub(beam, entry), point };
   const notChecked = (reason: string) => ({ ok: true as const, value: { ...base, reason } });
@@ -127,7 +131,9 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   if (traced?.ok && ctx.ct) {
     const t = traced.value;
     const log: LookupNote[] = [];
-    correction = tprRatioCorrection(data, depthCm, t.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, ssdCm + depthCm), log);
+    correction = heterogeneityCorrection(method, data, t, projectFieldCm(irradiatedSquareCm, machine.sadCm, ssdCm + depthCm), log);
+    const close = method === 'batho' ? interfaceWithinBuildUpMm(t, data.calibration.dmaxCm) : undefined;
+    if (close !== undefined) approximations.push(`an interface ${(close / MM_PER_CM).toFixed(1)} cm upstream of the point, within dmax: Batho's law is not defined there`);
     if (!Number.isFinite(correction)) return notChecked(`the heterogeneity correction needs TPR at ${(t.radiologicalDepthMm / MM_PER_CM).toFixed(2)} cm, outside the tables`);
     ctResult = {
       ...(ssdAlongAxisMm !== undefined ? { ssdAlongAxisMm } : {}),
@@ -135,7 +141,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
       ...(cp0.ssdMm !== undefined ? { planSsdMm: cp0.ssdMm } : {}), ssdAlongRayMm: t.ssdMm, geometricDepthMm: t.geometricDepthMm, radiologicalDepthMm: t.radiologicalDepthMm,
       entryPatientMm: [...t.entryPatientMm] as [number, number, number], densityRange: [...t.densityRange] as [number, number],
       ...(t.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: t.nearestInterfaceMm } : {}),
-      correctionFactor: correction, homogeneousDoseCGy: mu * r.value.dosePerMuCGy, bodyThresholdHu: ctx.ct.bodyThresholdHu, body: ctx.ct.bodySource,
+      correctionFactor: correction, homogeneousDoseCGy: mu * r.value.dosePerMuCGy, bodyThresholdHu: ctx.ct.bodyThresholdHu, body: ctx.ct.bodySource, method: METHOD_TEXT[method],
     };
   }
   const dosePerMuCGy = r.value.dosePerMuCGy * correction;
@@ -162,7 +168,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: depthThereCm,
       ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
       ...(clarksonSectors ? { clarksonSectors: fieldInput(aperture, blocks, suggestion.atIsocenterPlaneMm[0], suggestion.atIsocenterPlaneMm[1], depthScale, data.mlcTransmission ?? 0).clarksonSectors } : {}) });
-    const cf = there?.ok ? tprRatioCorrection(data, depthThereCm, there.value.radiologicalDepthMm / MM_PER_CM, projectFieldCm(irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM), []) : 1;
+    const cf = there?.ok ? heterogeneityCorrection(method, data, there.value, projectFieldCm(irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM), []) : 1;
     if (s.ok && Number.isFinite(cf)) {
       suggestedPoint = { patientMm: suggestion.patientMm, depthCm: depthThereCm, offAxisCm: suggestion.offAxisCm, independentDoseCGy: mu * s.value.dosePerMuCGy * cf };
     }

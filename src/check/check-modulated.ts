@@ -1,7 +1,8 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { apertureAt, beamFrame, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
+import { apertureAt, beamFrame, type CtDepth, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
 import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote } from '../model/index.js';
-import { photonDosePerMu, projectFieldCm, tprRatioCorrection } from '../physics/index.js';
+import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
+import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 
@@ -45,6 +46,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   if (!segments.length) return notChecked('no control point delivers any meterset');
   const transmission = data.mlcTransmission ?? 0;
   const ct = ctx.ct;
+  const method = ctx.heterogeneity ?? 'tpr-ratio';
   const log: LookupNote[] = [];
 
   let dosePerMu = 0;
@@ -62,10 +64,12 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     let depthMm: number;
     let ssdMm: number;
     let radiologicalMm: number | undefined;
+    let traced: CtDepth | undefined;
     if (ct) {
       const t = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ct.bodyThresholdHu, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) });
       if (!t.ok) return notChecked(`CT, ${where}: ${t.message}`);
       [depthMm, ssdMm, radiologicalMm] = [t.value.geometricDepthMm, t.value.ssdMm, t.value.radiologicalDepthMm];
+      traced = t.value;
       densities[0] = Math.min(densities[0]!, t.value.densityRange[0]);
       densities[1] = Math.max(densities[1]!, t.value.densityRange[1]);
       if (s.ssdMm !== undefined) {
@@ -96,7 +100,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     log.push(...r.value.clamps);
     let cf = 1;
     if (radiologicalMm !== undefined) {
-      cf = tprRatioCorrection(data, depthCm, radiologicalMm / MM_PER_CM, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm), log);
+      cf = heterogeneityCorrection(method, data, traced!, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm), log);
       if (!Number.isFinite(cf)) return notChecked(`${where}: the heterogeneity correction needs TPR at ${(radiologicalMm / MM_PER_CM).toFixed(2)} cm, outside the tables`);
       radiological.push(radiologicalMm / MM_PER_CM);
       mean.radiologicalCm += s.share * (radiologicalMm / MM_PER_CM);
@@ -130,7 +134,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   const approximations = [
     `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${segments.length} segments between ${cps.length} control points, each with its own aperture, gantry angle and depth, weighted by its MU share; ${CLARKSON_SECTORS} sectors, leaf transmission ${transmission}`,
     `depths ${depthSource}`,
-    ...(radiological.length ? [`heterogeneity corrected per segment by the TPR ratio: dose-weighted CF ${(dosePerMu / homogeneousPerMu).toFixed(4)} (homogeneous dose ${(mu * homogeneousPerMu).toFixed(1)} cGy)`] : []),
+    ...(radiological.length ? [`heterogeneity corrected per segment by ${METHOD_TEXT[method]}: dose-weighted CF ${(dosePerMu / homogeneousPerMu).toFixed(4)} (homogeneous dose ${(mu * homogeneousPerMu).toFixed(1)} cGy)`] : []),
     'the leaf tongue-and-groove effect and the rounded leaf ends are not modelled',
   ];
   const flags: string[] = [];

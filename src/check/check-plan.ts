@@ -1,4 +1,5 @@
 import { doseAtPointGy } from '../geometry/index.js';
+import type { HeterogeneityMethod } from '../physics/index.js';
 import { type BeamCheck, cGyFromGy, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
 import { isModulated, unsupportedReason } from './beam-support.js';
 import { checkElectronBeam } from './check-electron.js';
@@ -20,6 +21,8 @@ export interface CheckOptions {
   readonly ct?: PatientCt;
   /** The planning system's RT Dose grids for this plan (any summation type). */
   readonly doseGrids?: readonly DoseGrid[];
+  /** How photon doses are corrected for heterogeneity with the CT (default: the TPR ratio). */
+  readonly heterogeneity?: HeterogeneityMethod;
 }
 
 type Total = PlanCheck['courseTotals'][number];
@@ -57,7 +60,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
       if (!point) return { ...stub, reason: 'no calculation point: the plan names none and the beam has no isocenter' };
       if (o.ct && !ct) return { ...stub, reason: 'the CT does not belong to this plan' };
-      const r = (beam.radiationType === 'ELECTRON' ? checkElectronBeam : isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}) });
+      const r = (beam.radiationType === 'ELECTRON' ? checkElectronBeam : isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}), ...(o.heterogeneity ? { heterogeneity: o.heterogeneity } : {}) });
       if (!r.ok) {
         issues.push({ ...r.issue, file: file.path });
         return { ...stub, reason: r.issue.message };

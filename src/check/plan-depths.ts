@@ -6,37 +6,40 @@ import { planningSystemDepths } from './planning-system-depths.js';
 
 const DEFAULT_SAD_MM = 1000;
 
-/** Per beam of every fraction group: the SSD from the plan and from the CT, the traced depths. */
+/** Per beam of every fraction group (per control point for an arc): the SSD from the plan and from the CT, the traced depths. */
 export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
   const rows: BeamDepth[] = [];
   const body = { bodyThresholdHu: ct.bodyThresholdHu, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) };
   for (const g of plan.fractionGroups) {
     for (const entry of g.beams) {
       const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
-      const cp0 = beam.controlPoints[0]!;
+      const cps = beam.controlPoints;
+      const arc = cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg);
       const sadMm = beam.sourceAxisDistanceMm ?? DEFAULT_SAD_MM;
       const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
       const point = choosePoint(plan, g, entry, beam);
       const theirs = planningSystemDepths(beam, entry);
-      const base = { beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}), gantryAngleDeg: cp0.gantryAngleDeg,
-        ...(cp0.ssdMm !== undefined ? { planSsdMm: cp0.ssdMm } : {}), ...(theirs ? { planningSystem: theirs } : {}) };
-      const frame = position ? beamFrame(cp0, position, sadMm) : undefined;
-      if (!point || !frame) {
-        rows.push({ ...base, point: { source: 'isocenter', reason: '', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
-        continue;
+      for (const cp of arc ? cps : [cps[0]!]) {
+        const base = { beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}), ...(arc ? { controlPointIndex: cp.index } : {}), gantryAngleDeg: cp.gantryAngleDeg,
+          ...(cp.ssdMm !== undefined ? { planSsdMm: cp.ssdMm } : {}), ...(theirs && !arc ? { planningSystem: theirs } : {}) };
+        const frame = position ? beamFrame(cp, position, sadMm) : undefined;
+        if (!point || !frame) {
+          rows.push({ ...base, point: { source: 'isocenter', reason: '', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
+          continue;
+        }
+        const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ct.bodyThresholdHu, ct.bodyMask);
+        const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, body);
+        rows.push({
+          ...base,
+          point: { source: point.source, reason: point.reason, patientMm: point.patientMm },
+          ...(axis !== undefined ? { ctSsdAlongAxisMm: axis, ...(cp.ssdMm !== undefined ? { ssdDifferenceMm: axis - cp.ssdMm } : {}) } : {}),
+          ...(d.ok
+            ? { entryPatientMm: [...d.value.entryPatientMm] as [number, number, number], geometricDepthMm: d.value.geometricDepthMm,
+                radiologicalDepthMm: d.value.radiologicalDepthMm, densityRange: [...d.value.densityRange] as [number, number],
+                ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}) }
+            : { problem: d.message }),
+        });
       }
-      const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ct.bodyThresholdHu, ct.bodyMask);
-      const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, body);
-      rows.push({
-        ...base,
-        point: { source: point.source, reason: point.reason, patientMm: point.patientMm },
-        ...(axis !== undefined ? { ctSsdAlongAxisMm: axis, ...(cp0.ssdMm !== undefined ? { ssdDifferenceMm: axis - cp0.ssdMm } : {}) } : {}),
-        ...(d.ok
-          ? { entryPatientMm: [...d.value.entryPatientMm] as [number, number, number], geometricDepthMm: d.value.geometricDepthMm,
-              radiologicalDepthMm: d.value.radiologicalDepthMm, densityRange: [...d.value.densityRange] as [number, number],
-              ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}) }
-          : { problem: d.message }),
-      });
     }
   }
   return rows;

@@ -40,6 +40,7 @@ export const CheckOptionsSchema = z.object({
   dose: z.array(z.string().min(1)).optional(),
   structures: z.string().min(1).optional(),
   density: z.string().min(1).optional(),
+  heterogeneity: z.enum(['tpr-ratio', 'batho'], { message: '--heterogeneity must be tpr-ratio or batho' }).default('tpr-ratio'),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
 });
 
@@ -91,7 +92,7 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
     const planWarnings = cts.length && !own ? [`no CT series in this plan's frame of reference among --ct: checked without CT`] : [];
     const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, {
       machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
-      ...(own ? { ct: own } : {}),
+      ...(own ? { ct: own } : {}), heterogeneity: o.heterogeneity,
       ...(doseGrids.length ? { doseGrids } : {}),
     });
     plans.push(planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked);

@@ -43,6 +43,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--point <x,y,z>', 'calculation point in patient coordinates, mm (overrides the plan)')
     .option('--machine-alias <PLAN=DATA>', 'map a plan machine name to a beam-data machine name (repeatable)', (v: string, all: string[] = []) => [...all, v])
     .option('--suggest-point', 'also calculate at the suggested point when a point is unfit')
+    .option('--heterogeneity <method>', "with --ct: 'tpr-ratio' (default, effective path length) or 'batho' (Batho's power law)")
     .option('--json', 'print one versioned JSON document')
     .option('--html <file>', 'write a self-contained HTML report')
     .option('--ct <path...>', "the patient's CT series (a folder or files): depths and SSD traced through it, heterogeneity corrected")

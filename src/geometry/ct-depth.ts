@@ -24,6 +24,8 @@ export interface CtDepth {
   readonly densityRange: readonly [number, number];
   /** Distance upstream from the point to the nearest density interface inside the body, if any. */
   readonly nearestInterfaceMm?: number;
+  /** The media met from the surface to the point, each with its density and the distance from its upper face to the point. */
+  readonly layers: readonly { readonly distanceToPointMm: number; readonly density: number }[];
 }
 
 export type CtDepthOutcome = { readonly ok: true; readonly value: CtDepth } | { readonly ok: false; readonly message: string };
@@ -42,6 +44,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   let lastInterface = -1;
   let refused: number | undefined;
   const step = o.interfaceStep ?? 0.2;
+  const layers: { distanceToPointMm: number; density: number }[] = [];
   traceRay(volume, sourceMm, pointMm, (voxel, start, length) => {
     if (refused !== undefined) return;
     const hu = volume.hu[voxel]!;
@@ -55,6 +58,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
       return;
     }
     if (!Number.isNaN(lastDensity) && Math.abs(rho - lastDensity) > step) lastInterface = start;
+    if (rho !== lastDensity) layers.push({ distanceToPointMm: total - start, density: rho });
     lastDensity = rho;
     lo = Math.min(lo, rho);
     hi = Math.max(hi, rho);
@@ -73,6 +77,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
       radiologicalDepthMm: radiological,
       densityRange: [lo, hi],
       ...(lastInterface >= 0 ? { nearestInterfaceMm: total - lastInterface } : {}),
+      layers,
     },
   };
 }

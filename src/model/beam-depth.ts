@@ -4,6 +4,8 @@ import type { CalculationPoint } from './check-result.js';
 export interface BeamDepth {
   readonly beamNumber: number;
   readonly beamName?: string;
+  /** For an arc: the control point of this row (one row per control point). */
+  readonly controlPointIndex?: number;
   readonly gantryAngleDeg: number;
   readonly point: Pick<CalculationPoint, 'source' | 'reason' | 'patientMm'>;
   readonly planSsdMm?: number;

@@ -5,6 +5,7 @@ import { fixed, textTable } from './table.js';
 export const DepthRow = z.object({
   beamNumber: z.number(),
   beamName: z.string().optional(),
+  controlPointIndex: z.number().optional(),
   gantryAngleDeg: z.number(),
   point: z.object({ source: z.string(), reason: z.string(), patientMm: z.tuple([z.number(), z.number(), z.number()]) }),
   planSsdMm: z.number().optional(),
@@ -34,13 +35,13 @@ export type DepthDocument = z.infer<typeof DepthDocument>;
 const f1 = (v: number | undefined) => fixed(v, 1);
 
 export function depthText(doc: DepthDocument): string[] {
-  const rows = doc.beams.map((b) => [String(b.beamNumber), b.beamName ?? '—', f1(b.gantryAngleDeg), f1(b.planSsdMm), f1(b.ctSsdAlongAxisMm), f1(b.ssdDifferenceMm),
+  const rows = doc.beams.map((b) => [String(b.beamNumber), b.beamName ?? '—', b.controlPointIndex === undefined ? '—' : String(b.controlPointIndex), f1(b.gantryAngleDeg), f1(b.planSsdMm), f1(b.ctSsdAlongAxisMm), f1(b.ssdDifferenceMm),
     f1(b.geometricDepthMm), f1(b.radiologicalDepthMm), b.densityRange ? `${b.densityRange[0].toFixed(2)}–${b.densityRange[1].toFixed(2)}` : '—',
     f1(b.nearestInterfaceMm), f1(b.planningSystem?.depthMm), f1(b.planningSystem?.equivalentDepthMm), f1(b.planningSystem?.ssdMm), b.problem ?? '']);
   return [
     `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ${doc.ct.densityTable}`,
-    ...textTable(['beam', 'name', 'gantry', 'SSD plan mm', 'SSD CT mm', 'diff mm', 'depth mm', 'radiological mm', 'density', 'interface mm', 'TPS depth', 'TPS equiv', 'TPS SSD', ''], rows).map((l) => `  ${l}`),
-    ...doc.beams.map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${b.point.reason})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
+    ...textTable(['beam', 'name', 'cp', 'gantry', 'SSD plan mm', 'SSD CT mm', 'diff mm', 'depth mm', 'radiological mm', 'density', 'interface mm', 'TPS depth', 'TPS equiv', 'TPS SSD', ''], rows).map((l) => `  ${l}`),
+    ...doc.beams.filter((b, i) => doc.beams.findIndex((x) => x.beamNumber === b.beamNumber) === i).map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${b.point.reason})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
     '',
     CAUTION,
   ];

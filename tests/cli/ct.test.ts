@@ -29,6 +29,22 @@ describe('plumbline depth', () => {
     expect(doc.beams.every((b) => b.ssdDifferenceMm !== undefined && Math.abs(b.ssdDifferenceMm) < 0.1)).toBe(true);
   });
 
+  it('for an arc, one row per control point: gantry 0, 90 and 180 meet the phantom where the static fields do', () => {
+    const iso: [number, number, number] = [0, 10, -80];
+    const field = staticBeam(1, 'ARC', 15, 0, 900, iso, { first: { jawsXMm: [-75, 75], jawsYMm: [-90, 90] } });
+    const { file } = planFromSpec({
+      file: 'pelvis-arc.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS ARC', name: 'half arc', description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+      beams: [{ ...field, dynamic: true, controlPoints: [{ ...field.controlPoints[0]!, gantryDirection: 'CW' }, { gantryDeg: 90, ssdMm: 830, weight: 0.5 }, { gantryDeg: 180, ssdMm: 880, weight: 1, gantryDirection: 'NONE' }] }],
+    });
+    const doc = DepthDocument.parse(JSON.parse(run('depth', file, ...CT, '--json').stdout));
+    expect(doc.beams.map((b) => b.controlPointIndex)).toEqual([0, 1, 2]);
+    expect(doc.beams.map((b) => Math.round(b.ctSsdAlongAxisMm! * 10) / 10)).toEqual([900, 830, 880]);
+    expect(doc.beams.map((b) => Math.round(b.geometricDepthMm! * 10) / 10)).toEqual([100, 170, 120]);
+    expect(doc.beams.every((b) => Math.abs(b.ssdDifferenceMm!) < 0.1)).toBe(true);
+  });
+
   it('refuses --ct without a density table, and a CT of another patient', () => {
     expect(run('depth', 'fixtures/demo/clinic/pelvis-box.dcm', '--ct', 'fixtures/demo/clinic-ct').stderr).toMatch(/--ct needs --density/);
     const other = run('depth', 'fixtures/demo/clinic/brain-laterals.dcm', ...CT);
@@ -45,6 +61,15 @@ describe('plumbline check --ct', () => {
     expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
     for (const b of beams.filter((x) => x.beamNumber !== 2)) expect(b.calculation!.ct!.correctionFactor).toBeCloseTo(1, 9);
     expect(doc.plans[0]!.verdict).toBe('within tolerance');
+  });
+
+  it("--heterogeneity batho: the PA beam through the bone by Batho's power law, named in the result; water beams still 1", () => {
+    const doc = CheckDocument.parse(JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'batho', '--json').stdout));
+    const beams = doc.plans[0]!.fractionGroups[0]!.beams;
+    expect(beams[1]!.calculation!.ct!.method).toMatch(/Batho's power law/);
+    expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
+    for (const b of beams.filter((x) => x.beamNumber !== 2)) expect(b.calculation!.ct!.correctionFactor).toBeCloseTo(1, 9);
+    expect(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'modified').stderr).toMatch(/--heterogeneity must be tpr-ratio or batho/);
   });
 
   it('reports an SSD that differs from the CT by more than 5 mm as a finding', () => {

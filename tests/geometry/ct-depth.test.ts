@@ -33,6 +33,8 @@ const inBox = (x: number, y: number, z: number) => Math.abs(x) < 100 && Math.abs
 const water = phantom('water', (x, y, z) => (inBox(x, y, z) ? 0 : -1000));
 const lung = phantom('lung', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > -40 && y < 0 ? -750 : 0));
 const bone = phantom('bone', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > 20 && y < 40 ? 1000 : 0));
+/** A water cylinder of radius 100 mm along z: on the axes its surface lies on voxel faces, elsewhere it is a staircase. */
+const cylinder = phantom('cylinder', (x, y, z) => (x * x + y * y < 100 * 100 && Math.abs(z) < 100 ? 0 : -1000));
 
 const cp = (gantry: number, collimator = 0, couch = 0): ControlPoint => ({ index: 0, gantryAngleDeg: gantry, collimatorAngleDeg: collimator, couchAngleDeg: couch,
   cumulativeMetersetWeight: 0, isocenterPatientMm: [0, 0, 0], devices: [], wedgePositions: [], doseReferenceCoefficients: [] });
@@ -99,6 +101,22 @@ describe('heterogeneous phantoms', () => {
   it('a bone slab (ρ 1.5) from y = 20 to 40: radiological depth 120 + 20·1.5 + 10 = 160 mm', () => {
     expect(depth(bone, 'HFS', cp(0), [0, 50, 0]).radiologicalDepthMm).toBeCloseTo(160, 1);
   });
+  it('lists the media met with the distance from each upper face to the point: water 150, lung 90, water 50 mm', () => {
+    const d = depth(lung, 'HFS', cp(0), [0, 50, 0]);
+    expect(d.layers.map((l) => [Number(l.distanceToPointMm.toFixed(1)), l.density])).toEqual([[150, 1], [90, 0.25], [50, 1]]);
+  });
+  it('Batho: the generalized product gives the two-layer form TPR(5)^(1−ρ2) / TPR(9)^(1−ρ2) below the lung slab, and 1 in water', async () => {
+    // The two-layer form (point in water below a slab of density ρ2): Khan, from memory; variables read in a secondary source.
+    const { bathoCorrection, tprAt } = await import('../../src/physics/index.js');
+    const { machine, beam, DEMO_MANIFEST } = await import('../helpers/machines.js');
+    const b6 = beam(machine(DEMO_MANIFEST), '6X');
+    const d = depth(lung, 'HFS', cp(0), [0, 50, 0]);
+    const layers = d.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density }));
+    const expected = (tprAt(b6, 5, 10, []) / tprAt(b6, 9, 10, [])) ** 0.75;
+    expect(bathoCorrection(b6, layers, 10, [])).toBeCloseTo(expected, 9);
+    const w = depth(water, 'HFS', cp(0), [0, 50, 0]);
+    expect(bathoCorrection(b6, w.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density })), 10, [])).toBe(1);
+  });
   it('refuses HU outside the density table rather than extrapolating', () => {
     const narrow = join(work, 'narrow.csv');
     writeFileSync(narrow, 'hu,rho\n-1000,0\n500,1.3\n');
@@ -107,6 +125,18 @@ describe('heterogeneous phantoms', () => {
     const f = beamFrame(cp(0), 'HFS', 1000)!;
     const r = ctDepth(bone, f.sourcePatientMm, [0, 50, 0], { bodyThresholdHu: -500, density: t.value.density });
     expect(!r.ok && r.message).toMatch(/HU 1000 on the ray lies outside the HU to electron density table/);
+  });
+});
+
+describe('a water cylinder (radius 100 mm)', () => {
+  it('gantry 0, 90, 180 and 270 to its centre: depth 100 mm within 0.1 mm (the surface on voxel faces)', () => {
+    for (const g of [0, 90, 180, 270]) expect(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm).toBeCloseTo(100, 1);
+  });
+  it('oblique gantry angles: depth 100 mm within half a voxel diagonal (the surface is a 4 mm staircase there)', () => {
+    for (const g of [30, 45, 135, 300]) expect(Math.abs(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm - 100)).toBeLessThan(2 * Math.SQRT2);
+  });
+  it('an off-centre point 50 mm left (x = +50) from gantry 90 (entering from the patient\'s left): depth 50 mm', () => {
+    expect(depth(cylinder, 'HFS', cp(90), [50, 0, 0]).geometricDepthMm).toBeCloseTo(50, 1);
   });
 });
 
