@@ -2,6 +2,7 @@ import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs'
 import type { CtVolume, Issue, Result } from '../model/index.js';
 import { ItemReader, need } from './item-reader.js';
 import { parseDicomBytes } from './parse-bytes.js';
+import { addInPlace, allocateInt16 } from './int16-volume.js';
 import { DEFLATED_EXPLICIT_VR_LE, EXPLICIT_VR_BE } from './transfer-syntax.js';
 
 export const CT_IMAGE_STORAGE = '1.2.840.10008.5.1.4.1.1.2';
@@ -22,6 +23,8 @@ interface SliceHeader {
   readonly rows: number;
   readonly columns: number;
   readonly signed: boolean;
+  /** Bits Stored (≤ 16): bounds the stored values, so whether the rescale can overflow Int16. */
+  readonly bitsStored: number;
   readonly slope: number;
   readonly intercept: number;
   readonly bigEndian: boolean;
@@ -136,7 +139,7 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly oth
   const deflatedPixels = deflatedFile ? inflatedPixels(file, el.length) : undefined;
   return {
     file, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
-    signed: r.integer('PixelRepresentation') === 1, slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
+    signed: r.integer('PixelRepresentation') === 1, bitsStored: Math.min(16, Math.max(1, r.integer('BitsStored') ?? 16)), slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
     bigEndian: parsed.value.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
     ...(deflatedPixels ? { pixels: deflatedPixels } : {}),
   };
@@ -178,7 +181,7 @@ function assemble(headers: readonly SliceHeader[]): Result<CtVolume> {
   }
   if (issues.length) return { ok: false, issues };
   const n = ref.rows * ref.columns;
-  const hu = new Int16Array(n * sorted.length);
+  const hu = allocateInt16(n * sorted.length);
   for (let k = 0; k < sorted.length; k++) {
     const h = sorted[k]!;
     const slice = hu.subarray(k * n, (k + 1) * n);
@@ -187,7 +190,7 @@ function assemble(headers: readonly SliceHeader[]): Result<CtVolume> {
       else if (!h.bigEndian && h.slope === 1 && Number.isInteger(h.intercept)) {
         // The common case: the stored values land in the volume's own memory and are rescaled in place.
         readInto(h.file, new Uint8Array(slice.buffer, slice.byteOffset, 2 * n), h.pixelOffset);
-        rescaleInPlace(slice, h.signed, h.intercept);
+        rescaleInPlace(slice, h.signed, h.bitsStored, h.intercept);
       } else {
         const raw = new Uint8Array(2 * n);
         readInto(h.file, raw, h.pixelOffset);
@@ -223,7 +226,13 @@ function readInto(file: string, target: Uint8Array, position: number): void {
 }
 
 /** Little-endian stored values already in place: reinterpret (unsigned when so stored) and add the intercept. */
-function rescaleInPlace(slice: Int16Array, signed: boolean, intercept: number): void {
+function rescaleInPlace(slice: Int16Array, signed: boolean, bitsStored: number, intercept: number): void {
+  const min = signed ? -(2 ** (bitsStored - 1)) : 0;
+  const max = signed ? 2 ** (bitsStored - 1) - 1 : 2 ** bitsStored - 1;
+  if (min + intercept >= -32768 && max + intercept <= 32767 && slice.byteOffset % 4 === 0) {
+    addInPlace(slice, intercept);
+    return;
+  }
   const stored = signed ? slice : new Uint16Array(slice.buffer, slice.byteOffset, slice.length);
   for (let i = 0; i < slice.length; i++) {
     const v = stored[i]! + intercept;
