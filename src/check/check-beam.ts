@@ -1,6 +1,6 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, sectorRings, type Vec3 } from '../geometry/index.js';
-import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type ClarksonSector, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
+import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
+import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';

@@ -2,22 +2,19 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import cliProgress from 'cli-progress';
 import { z } from 'zod';
-import { loadMachine, type LoadedMachine } from '../beamdata/index.js';
-import { checkPlan, DEFAULT_POLICY, Policy } from '../check/index.js';
+import { loadMachine } from '../beamdata/index.js';
+import { checkPlan } from '../check/index.js';
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
 import type { DoseGrid, Issue, PlanCheck } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
-import { CAUTION } from '../report/caution.js';
-import { CheckDocument } from '../report/check-json.js';
 import { checkHtml } from '../report/check-html.js';
-import { checkSummary } from '../report/check-summary.js';
 import { checkText } from '../report/check-text.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { resolveBeamDataPath } from './beam-data-path.js';
 import { collectFiles } from './collect-files.js';
+import { checkDocument, loadPolicy } from './check-document.js';
 import { loadPatientCts } from './patient-ct.js';
 import type { CommandOutcome } from './outcome.js';
-import { VERSION } from './version.js';
 
 const Point = z.string().transform((s, ctx) => {
   const parts = s.split(',').map((v) => Number(v.trim()));
@@ -100,20 +97,7 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   bar?.stop();
   if (plans.length === 0 && refused.length === 0) refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
 
-  const doc = CheckDocument.parse({
-    schemaVersion: 1,
-    kind: 'plumbline.check',
-    tool: { name: 'plumbline', version: VERSION },
-    createdAt: new Date().toISOString(),
-    deviationDefinition: '(independent − planning system) / planning system',
-    beamData: { manifest: loaded.value.manifestFile, sha256: beamDataSha256(loaded.value), machine: loaded.value.machine.name,
-      dataVersion: loaded.value.machine.version, invented: loaded.value.machine.invented },
-    policy: { ...(policy.value.description ? { description: policy.value.description } : {}), levels: policy.value.levels },
-    plans,
-    refused,
-    summary: checkSummary(plans, refused),
-    caution: CAUTION,
-  });
+  const doc = checkDocument(plans, refused, loaded.value, policy.value);
   const stderr = loaded.warnings.map(formatIssue);
   if (o.html) {
     try {
@@ -127,26 +111,6 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   const review = plans.some((p) => p.verdict !== 'within tolerance' || !p.fullyVerified);
   const exitCode = inputError ? 2 : review ? 1 : 0;
   return { stdout: o.json ? [JSON.stringify(doc, null, 2)] : checkText(doc), stderr: [...stderr, ...refused.map(formatIssue)], exitCode };
-}
-
-function loadPolicy(file: string | undefined): { ok: true; value: Policy } | { ok: false; issues: Issue[] } {
-  if (!file) return { ok: true, value: DEFAULT_POLICY };
-  let json: unknown;
-  try {
-    json = JSON.parse(readFileSync(file, 'utf8'));
-  } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-manifest', file, message: `cannot read the policy (${(e as Error).message})` }] };
-  }
-  const p = Policy.safeParse(json);
-  if (!p.success) return { ok: false, issues: p.error.issues.map((i) => ({ severity: 'error' as const, code: 'invalid-manifest' as const, file, path: i.path.join('.'), message: i.message })) };
-  return { ok: true, value: p.data };
-}
-
-/** SHA-256 over the manifest and every table it names, in a fixed order: what the result was computed from. */
-function beamDataSha256(m: LoadedMachine): string {
-  const h = createHash('sha256').update(readFileSync(m.manifestFile));
-  for (const f of [...new Set(m.tables.map((t) => t.csv.file))].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(readFileSync(f));
-  return h.digest('hex');
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

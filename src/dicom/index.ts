@@ -4,3 +4,4 @@ export { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
 export { readCtSeries, readCtVolumes, CT_IMAGE_STORAGE } from './ct-series.js';
 export { readRtDose, RT_DOSE_STORAGE } from './rt-dose.js';
 export { readRtStruct, RT_STRUCTURE_SET_STORAGE } from './rt-struct.js';
+export { readObjectSummary, STORAGE_CLASSES, type ObjectKind, type ObjectSummary } from './object-summary.js';

@@ -1,7 +1,6 @@
 import type { BeamCheck, PlanCheck } from '../model/index.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
-import { CAUTION } from './caution.js';
 import { fixed, pointMm as mm, signed, textTable } from './table.js';
 
 

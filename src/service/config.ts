@@ -1,0 +1,75 @@
+import { readFileSync } from 'node:fs';
+import { dirname, isAbsolute, resolve } from 'node:path';
+import { z } from 'zod';
+import type { Issue } from '../model/index.js';
+
+const AeTitle = z.string().regex(/^[ -~]{1,16}$/, 'an AE title is 1 to 16 printable ASCII characters').refine((s) => s.trim() === s && !s.includes('\\'), 'no leading or trailing spaces, no backslash');
+
+/**
+ * The service's configuration file: where objects arrive and go, who may send, which beam data
+ * check which machine, the policy and the settle time. Paths are relative to the file.
+ */
+export const ServiceConfig = z
+  .object({
+    format: z.literal('plumbline.service'),
+    formatVersion: z.literal(1),
+    receiver: z
+      .object({
+        /** Loopback unless the clinic decides otherwise. */
+        host: z.string().min(1).default('127.0.0.1'),
+        port: z.number().int().min(1).max(65535).default(11112),
+        aeTitle: AeTitle.default('PLUMBLINE'),
+        /** Calling AE titles allowed to associate; any other is rejected at association. */
+        allowedCallingAeTitles: z.array(AeTitle).min(1),
+        /** Objects larger than this are refused (bytes). */
+        maxObjectBytes: z.number().int().positive().default(2 * 1024 ** 3),
+      })
+      .strict()
+      .optional(),
+    folders: z
+      .object({
+        /** Received (or taken from the watched folder) and not yet checked. */
+        inbox: z.string().min(1),
+        /** Inputs after their check, named by content hash. */
+        archive: z.string().min(1),
+        /** Files that are not objects the check uses, or unreadable. */
+        refused: z.string().min(1),
+      })
+      .strict(),
+    history: z.object({ database: z.string().min(1) }).strict(),
+    /** Beam-data manifests, one per machine (the manifest names the machine and its aliases), or 'demo'. */
+    beamData: z.array(z.string().min(1)).min(1),
+    policy: z.string().min(1).optional(),
+    ct: z.object({ density: z.string().min(1), bodyThresholdHu: z.number().int().optional() }).strict().optional(),
+    /** Seconds without a new object in a frame of reference before its plans are checked. */
+    settleSeconds: z.number().nonnegative().default(30),
+    serve: z.object({ host: z.string().min(1).default('127.0.0.1'), port: z.number().int().min(1).max(65535).default(8470) }).strict().default({ host: '127.0.0.1', port: 8470 }),
+  })
+  .strict();
+export type ServiceConfig = z.infer<typeof ServiceConfig>;
+
+/** Reads and validates the configuration; relative paths become absolute from the file's folder. */
+export function loadServiceConfig(file: string): { ok: true; value: ServiceConfig } | { ok: false; issues: Issue[] } {
+  let json: unknown;
+  try {
+    json = JSON.parse(readFileSync(file, 'utf8'));
+  } catch (e) {
+    return { ok: false, issues: [{ severity: 'error', code: 'invalid-option', file, message: `cannot read the service configuration (${(e as Error).message})` }] };
+  }
+  const p = ServiceConfig.safeParse(json);
+  if (!p.success) return { ok: false, issues: p.error.issues.map((i) => ({ severity: 'error' as const, code: 'invalid-option' as const, file, path: i.path.join('.'), message: i.message })) };
+  const base = dirname(resolve(file));
+  const at = (p: string) => (p === 'demo' || isAbsolute(p) ? p : resolve(base, p));
+  const c = p.data;
+  return {
+    ok: true,
+    value: {
+      ...c,
+      folders: { inbox: at(c.folders.inbox), archive: at(c.folders.archive), refused: at(c.folders.refused) },
+      history: { database: at(c.history.database) },
+      beamData: c.beamData.map(at),
+      ...(c.policy ? { policy: at(c.policy) } : {}),
+      ...(c.ct ? { ct: { ...c.ct, density: at(c.ct.density) } } : {}),
+    },
+  };
+}

@@ -1,0 +1,44 @@
+/**
+ * The history database's schema, one migration per step, applied in order and recorded in
+ * `schema_migrations`. Never edit a migration that has shipped: add the next one.
+ */
+export const MIGRATIONS: readonly { readonly version: number; readonly sql: string }[] = [
+  {
+    version: 1,
+    sql: `
+      CREATE TABLE checks (
+        id INTEGER PRIMARY KEY,
+        recorded_at TEXT NOT NULL,
+        plan_sop_instance_uid TEXT NOT NULL,
+        plan_sha256 TEXT NOT NULL,
+        plan_label TEXT NOT NULL,
+        patient_id TEXT,
+        machine TEXT,
+        verdict TEXT NOT NULL,
+        fully_verified INTEGER NOT NULL,
+        tool_version TEXT NOT NULL,
+        beam_data_version TEXT,
+        beam_data_sha256 TEXT,
+        inputs_json TEXT NOT NULL,
+        result_json TEXT NOT NULL,
+        html TEXT NOT NULL
+      );
+      CREATE INDEX checks_plan ON checks (plan_sop_instance_uid, plan_sha256);
+      CREATE INDEX checks_time ON checks (recorded_at);
+      CREATE TABLE reviews (
+        id INTEGER PRIMARY KEY,
+        check_id INTEGER NOT NULL REFERENCES checks (id),
+        reviewer TEXT NOT NULL,
+        reviewed_at TEXT NOT NULL,
+        accepted INTEGER NOT NULL,
+        comment TEXT NOT NULL
+      );
+      CREATE INDEX reviews_check ON reviews (check_id);
+      -- Append-only: a record is never changed or removed; a review is a new record.
+      CREATE TRIGGER checks_no_update BEFORE UPDATE ON checks BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER checks_no_delete BEFORE DELETE ON checks BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER reviews_no_update BEFORE UPDATE ON reviews BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER reviews_no_delete BEFORE DELETE ON reviews BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+    `,
+  },
+];
