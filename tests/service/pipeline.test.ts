@@ -1,0 +1,71 @@
+/**
+ * The intake pipeline on the demo clinic: objects in the inbox grouped by frame of reference, checked
+ * once settled (the pelvis plan with its own CT), recorded, archived by content hash; a second send of
+ * the same plan is recognised and not checked twice; a file that is not DICOM goes to the refused folder.
+ */
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { loadMachine } from '../../src/beamdata/index.js';
+import { DEFAULT_POLICY } from '../../src/check/index.js';
+import { ServiceConfig } from '../../src/service/config.js';
+import { HistoryStore } from '../../src/service/history/store.js';
+import { processInbox } from '../../src/service/pipeline.js';
+import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
+
+const machine = (() => { const m = loadMachine(DEMO_MANIFEST); if (!m.ok) throw new Error('demo'); return m.value; })();
+
+function setup() {
+  const root = mkdtempSync(join(tmpdir(), 'plumbline-pipe-'));
+  const config = ServiceConfig.parse({
+    format: 'plumbline.service', formatVersion: 1, folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
+    history: { database: join(root, 'history.sqlite') }, beamData: [DEMO_MANIFEST], ct: { density: manifestPath('fixtures/demo/ct/hu-to-density.csv') }, settleSeconds: 30,
+  });
+  mkdirSync(config.folders.inbox, { recursive: true });
+  const history = new HistoryStore(config.history.database);
+  const lines: string[] = [];
+  let now = Date.now();
+  const ctx = { config, machines: [machine], policy: DEFAULT_POLICY, history, log: (l: string) => lines.push(l), now: () => now };
+  return { root, config, history, lines, ctx, advance: (s: number) => { now += s * 1000; } };
+}
+const put = (inbox: string, src: string, name = `${Math.random().toString(36).slice(2)}.dcm`) => copyFileSync(src, join(inbox, name));
+const clinic = (f: string) => manifestPath(`fixtures/demo/clinic/${f}`);
+const ctDir = manifestPath('fixtures/demo/clinic-ct/pelvis-box');
+
+describe('the intake pipeline', () => {
+  it('waits for the settle time, then checks each plan with its CT, records it and archives every input by content hash', () => {
+    const s = setup();
+    put(s.config.folders.inbox, clinic('pelvis-box.dcm'));
+    put(s.config.folders.inbox, clinic('brain-laterals.dcm'));
+    for (const f of readdirSync(ctDir)) put(s.config.folders.inbox, join(ctDir, f));
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 2 + readdirSync(ctDir).length });
+    s.advance(31);
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 2, duplicates: 0, refused: 0, waiting: 0 });
+    expect(readdirSync(s.config.folders.inbox)).toEqual([]);
+    const archived = readdirSync(s.config.folders.archive).flatMap((d) => readdirSync(join(s.config.folders.archive, d)));
+    expect(archived).toHaveLength(2 + readdirSync(ctDir).length);
+    expect(archived.every((f) => /^[0-9a-f]{64}\.dcm$/.test(f))).toBe(true);
+    const checks = s.history.listChecks();
+    const pelvis = checks.find((c) => c.planLabel === 'PELVIS BOX')!;
+    expect(pelvis.inputs.filter((i) => i.kind === 'ct')).toHaveLength(readdirSync(ctDir).length);
+    // With its CT the pelvis plan is within tolerance (its planning system corrected for the bone).
+    expect(pelvis.verdict).toBe('within tolerance');
+    expect(s.history.result(pelvis.id)!.fractionGroups[0]!.beams[1]!.calculation!.ct).toBeDefined();
+    expect(s.history.html(pelvis.id)).toMatch(/an aid to, never a replacement for/);
+  });
+
+  it('a second send of the same plan is archived without a second check; a non-DICOM file is refused with its reason', () => {
+    const s = setup();
+    put(s.config.folders.inbox, clinic('spine-ssd.dcm'));
+    s.advance(31);
+    expect(processInbox(s.ctx).checked).toBe(1);
+    put(s.config.folders.inbox, clinic('spine-ssd.dcm'));
+    writeFileSync(join(s.config.folders.inbox, 'notes.txt'), 'not DICOM');
+    s.advance(31);
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, duplicates: 1, refused: 1 });
+    expect(s.history.listChecks()).toHaveLength(1);
+    expect(readdirSync(s.config.folders.refused).sort()).toHaveLength(2);
+    expect(s.lines.join('\n')).toMatch(/duplicate: plan .* was already checked/);
+  });
+});
