@@ -14,3 +14,8 @@ export function resolveDemoFile(rel: string): string {
   }
   return `fixtures/demo/${rel}`;
 }
+
+/** `demo` names the demo scenario's service configuration; anything else is a path. */
+export function resolveServiceConfig(arg: string): string {
+  return arg === 'demo' ? resolveDemoFile('service/plumbline-service.json') : arg;
+}

@@ -7,6 +7,8 @@ import { runCalc } from './calc.js';
 import { runCheck } from './check.js';
 import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
+import { resolveServiceConfig } from './beam-data-path.js';
+import { runHistory, runIntake } from './service-commands.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
 
@@ -97,6 +99,36 @@ export async function main(argv: readonly string[]): Promise<number> {
     .description('print the shipped action-level policy as JSON, to start a clinic policy file from')
     .action(() => {
       outcome = { stdout: [JSON.stringify(DEFAULT_POLICY, null, 2)], stderr: [], exitCode: 0 };
+    });
+
+  const configOption = "the service configuration (JSON); 'demo' for the demo scenario's";
+  program
+    .command('receive')
+    .description('DICOM storage receiver (C-STORE, C-ECHO): every plan received is checked and recorded')
+    .requiredOption('--config <file>', configOption)
+    .action(async (opts: { config: string }) => {
+      outcome = await runIntake(resolveServiceConfig(opts.config), { receive: true });
+    });
+
+  program
+    .command('watch')
+    .description('take complete files from an export folder: every plan is checked and recorded')
+    .argument('<folder>', "the planning system's export folder")
+    .requiredOption('--config <file>', configOption)
+    .action(async (folder: string, opts: { config: string }) => {
+      outcome = await runIntake(resolveServiceConfig(opts.config), { receive: false, watch: folder });
+    });
+
+  program
+    .command('history')
+    .description('the recorded checks, newest first')
+    .requiredOption('--config <file>', configOption)
+    .option('--since <date>', 'only checks recorded at or after this date (YYYY-MM-DD)')
+    .option('--verdict <verdict...>', "only these verdicts: 'within tolerance', 'needs review', 'beyond action level'")
+    .option('--machine <name>', 'only this machine')
+    .option('--json', 'print one versioned JSON document')
+    .action((opts: Record<string, unknown>) => {
+      outcome = runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
     });
 
   program

@@ -1,0 +1,80 @@
+import { type LoadedMachine, loadMachine } from '../beamdata/index.js';
+import { loadPolicy } from '../cli/check-document.js';
+import { resolveBeamDataPath } from '../cli/beam-data-path.js';
+import type { Issue } from '../model/index.js';
+import type { ServiceConfig } from './config.js';
+import { HistoryStore } from './history/store.js';
+import { type PipelineContext, processInbox } from './pipeline.js';
+import { startReceiver } from './receiver.js';
+import { takeStableFiles, type WatchState } from './watch-folder.js';
+
+export interface RunningService {
+  readonly receiverPort?: number;
+  /** Runs one pipeline pass now (also run every second). */
+  readonly pass: () => void;
+  readonly stop: () => Promise<void>;
+}
+
+/** A file in the watched folder is taken once unchanged for this long. */
+const STABLE_MS = 2000;
+const TICK_MS = 1000;
+
+/** The service's pieces from its configuration: beam data of every machine, the policy, the history. */
+export function openService(config: ServiceConfig): { ok: true; value: Omit<PipelineContext, 'log' | 'now'> } | { ok: false; issues: Issue[] } {
+  const machines: LoadedMachine[] = [];
+  for (const m of config.beamData) {
+    const loaded = loadMachine(resolveBeamDataPath(m));
+    if (!loaded.ok) return { ok: false, issues: [...loaded.issues] };
+    machines.push(loaded.value);
+  }
+  const policy = loadPolicy(config.policy);
+  if (!policy.ok) return policy;
+  return { ok: true, value: { config, machines, policy: policy.value, history: new HistoryStore(config.history.database) } };
+}
+
+/**
+ * Runs intake: the DICOM receiver (when `receive`), the watched folder (when given), and the
+ * pipeline every second over the inbox, one pass at a time.
+ */
+export async function runService(base: Omit<PipelineContext, 'log' | 'now'>, o: { receive: boolean; watch?: string; log: (line: string) => void }): Promise<RunningService> {
+  const ctx: PipelineContext = { ...base, log: o.log, now: () => Date.now() };
+  let busy = false;
+  const pass = () => {
+    if (busy) return;
+    busy = true;
+    try {
+      const r = processInbox(ctx);
+      if (r.checked || r.duplicates || r.refused) o.log(`pass: ${r.checked} checked, ${r.duplicates} duplicate(s), ${r.refused} refused, ${r.waiting} waiting`);
+    } catch (e) {
+      o.log(`pipeline error (will retry): ${(e as Error).message}`);
+    } finally {
+      busy = false;
+    }
+  };
+  const rc = base.config.receiver;
+  if (o.receive && !rc) throw new Error('the configuration has no receiver section');
+  const receiver = o.receive && rc
+    ? await startReceiver({ host: rc.host, port: rc.port, aeTitle: rc.aeTitle, allowedCallingAeTitles: rc.allowedCallingAeTitles, maxObjectBytes: rc.maxObjectBytes, inbox: base.config.folders.inbox, log: o.log })
+    : undefined;
+  const watchState: WatchState = { seen: new Map() };
+  const timer = setInterval(() => {
+    if (o.watch) {
+      try {
+        const n = takeStableFiles(o.watch, base.config.folders.inbox, watchState, Date.now(), STABLE_MS);
+        if (n) o.log(`took ${n} file(s) from ${o.watch}`);
+      } catch (e) {
+        o.log(`watch error (will retry): ${(e as Error).message}`);
+      }
+    }
+    pass();
+  }, TICK_MS);
+  return {
+    ...(receiver ? { receiverPort: receiver.port } : {}),
+    pass,
+    stop: async () => {
+      clearInterval(timer);
+      await receiver?.close();
+      base.history.close();
+    },
+  };
+}

@@ -1,0 +1,67 @@
+import { randomUUID } from 'node:crypto';
+import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+
+export interface WatchState {
+  /** Per file seen: its size and modification time at the last look, and since when they have not changed. */
+  readonly seen: Map<string, { size: number; mtimeMs: number; stableSinceMs: number }>;
+}
+
+/**
+ * One look at a watched export folder (and its subfolders): a file is taken only once its size and
+ * modification time have stayed the same for `stableMs` (the exporter has finished writing it); it
+ * is then moved into the inbox under a new name (copied, fsynced and renamed when the two folders are
+ * on different file systems). Returns the number of files taken.
+ */
+export function takeStableFiles(folder: string, inbox: string, state: WatchState, nowMs: number, stableMs: number): number {
+  let taken = 0;
+  const present = new Set<string>();
+  for (const file of listFiles(folder)) {
+    const st = statSync(file, { throwIfNoEntry: false });
+    if (!st?.isFile()) continue;
+    present.add(file);
+    const before = state.seen.get(file);
+    if (!before || before.size !== st.size || before.mtimeMs !== st.mtimeMs) {
+      state.seen.set(file, { size: st.size, mtimeMs: st.mtimeMs, stableSinceMs: nowMs });
+      continue;
+    }
+    if (nowMs - before.stableSinceMs < stableMs || nowMs - st.mtimeMs < stableMs) continue;
+    moveInto(file, inbox);
+    state.seen.delete(file);
+    taken++;
+  }
+  for (const f of state.seen.keys()) if (!present.has(f)) state.seen.delete(f);
+  return taken;
+}
+
+function listFiles(dir: string): string[] {
+  const out: string[] = [];
+  for (const e of readdirSync(dir, { withFileTypes: true })) {
+    if (e.name.startsWith('.')) continue;
+    const p = join(dir, e.name);
+    if (e.isDirectory()) out.push(...listFiles(p));
+    else if (e.isFile()) out.push(p);
+  }
+  return out;
+}
+
+/** Into the inbox atomically: the pipeline never sees half a file. */
+function moveInto(file: string, inbox: string): void {
+  const incoming = join(inbox, '.incoming');
+  mkdirSync(incoming, { recursive: true });
+  const tmp = join(incoming, `${randomUUID()}.part`);
+  try {
+    renameSync(file, tmp);
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code !== 'EXDEV') throw e;
+    copyFileSync(file, tmp);
+    const fd = openSync(tmp, 'r');
+    try {
+      fsyncSync(fd);
+    } finally {
+      closeSync(fd);
+    }
+    rmSync(file);
+  }
+  renameSync(tmp, join(inbox, `${randomUUID()}.dcm`));
+}
