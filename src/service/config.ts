@@ -17,7 +17,8 @@ export const ServiceConfig = z
       .object({
         /** Loopback unless the clinic decides otherwise. */
         host: z.string().min(1).default('127.0.0.1'),
-        port: z.number().int().min(1).max(65535).default(11112),
+        /** 0: any free port (the tests use it). */
+        port: z.number().int().min(0).max(65535).default(11112),
         aeTitle: AeTitle.default('PLUMBLINE'),
         /** Calling AE titles allowed to associate; any other is rejected at association. */
         allowedCallingAeTitles: z.array(AeTitle).min(1),

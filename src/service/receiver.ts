@@ -31,6 +31,8 @@ const ACCEPTED_TRANSFER_SYNTAXES = [TransferSyntax.ExplicitVRLittleEndian, Trans
 const IMPLEMENTATION_UID = '2.25.301929349735478839237066361593011584412';
 const IMPLEMENTATION_NAME = `PLUMBLINE_${VERSION}`.slice(0, 16);
 const INCOMING = '.incoming';
+/** C-STORE status "Refused: Out of Resources" (A7xx, PS3.4 B.2.3). */
+const REFUSED_OUT_OF_RESOURCES = 0xa700;
 
 /**
  * The DICOM storage receiver (C-STORE and C-ECHO SCP): only on the configured address, only for
@@ -48,9 +50,11 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
 
   class StoreScp extends Scp {
     private readonly partial = new Set<string>();
+    private readonly socket: net.Socket;
 
     constructor(socket: net.Socket) {
       super(socket, {});
+      this.socket = socket;
       socket.on('close', () => this.dropPartial());
     }
 
@@ -134,7 +138,7 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
           rmSync(info.tmp, { force: true });
           this.partial.delete(info.tmp);
           o.log(`refused an object of ${info.bytes()} bytes (limit ${o.maxObjectBytes})`);
-          r.setStatus(Status.ResourceLimitation);
+          r.setStatus(REFUSED_OUT_OF_RESOURCES);
         } else {
           // Named by a random UUID: nothing in the object decides where a file goes.
           renameSync(info.tmp, join(o.inbox, `${randomUUID()}.dcm`));
@@ -154,8 +158,10 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
       this.sendAssociationReleaseResponse();
     }
 
+    /** The peer aborted: nothing of the object in progress is kept, and the connection is closed. */
     abort(): void {
       this.dropPartial();
+      this.socket.destroy();
     }
 
     private dropPartial(): void {
