@@ -8,7 +8,7 @@ import { runCheck } from './check.js';
 import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
 import { resolveServiceConfig } from './beam-data-path.js';
-import { runHistory, runIntake } from './service-commands.js';
+import { runHistory, runIntake, runServe } from './service-commands.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
 
@@ -117,6 +117,14 @@ export async function main(argv: readonly string[]): Promise<number> {
     .requiredOption('--config <file>', configOption)
     .action(async (folder: string, opts: { config: string }) => {
       outcome = await runIntake(resolveServiceConfig(opts.config), { receive: false, watch: folder });
+    });
+
+  program
+    .command('serve')
+    .description("the chart-round web page on loopback: the week's checks, trends with control limits, reviews")
+    .requiredOption('--config <file>', configOption)
+    .action(async (opts: { config: string }) => {
+      outcome = await runServe(resolveServiceConfig(opts.config));
     });
 
   program

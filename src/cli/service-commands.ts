@@ -5,6 +5,7 @@ import { fixed, textTable } from '../report/table.js';
 import { loadServiceConfig } from '../service/config.js';
 import { CheckRecord, HistoryStore } from '../service/history/store.js';
 import { openService, runService } from '../service/run-service.js';
+import { startWebServer } from '../service/web/server.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
 
@@ -25,6 +26,22 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
     process.once('SIGTERM', () => done());
   });
   await service.stop();
+  return { stdout: [], stderr: ['stopped'], exitCode: 0 };
+}
+
+/** `plumbline serve`: the chart-round page, until SIGINT or SIGTERM. */
+export async function runServe(configFile: string): Promise<CommandOutcome> {
+  const config = loadServiceConfig(configFile);
+  if (!config.ok) return refuse(config.issues.map(formatIssue));
+  const history = new HistoryStore(config.value.history.database);
+  stamp(CAUTION);
+  const web = await startWebServer({ host: config.value.serve.host, port: config.value.serve.port, history, log: stamp });
+  await new Promise<void>((done) => {
+    process.once('SIGINT', () => done());
+    process.once('SIGTERM', () => done());
+  });
+  await web.close();
+  history.close();
   return { stdout: [], stderr: ['stopped'], exitCode: 0 };
 }
 

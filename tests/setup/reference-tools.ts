@@ -14,6 +14,7 @@ export default function setup(): void {
   if (!has('dcmdump', ['--version']) || !has('dcmconv', ['--version'])) missing.push('dcmtk');
   if (!has('dciodvfy', ['-help'])) missing.push('dicom3tools');
   if (!findPythonWithPydicom()) missing.push('python3-pydicom');
+  if (!has('chromium', ['--version'])) missing.push('chromium');
   if (missing.length) {
     throw new Error(`the tests need Debian packages that are not installed: ${missing.join(' ')}\n` +
       `install them with: sudo apt-get install ${missing.join(' ')}   (.ci/run does this)`);

@@ -1,0 +1,109 @@
+import http from 'node:http';
+import type net from 'node:net';
+import { z } from 'zod';
+import { Verdict } from '../../model/index.js';
+import type { HistoryStore } from '../history/store.js';
+import { checkPage, listPage, notFoundPage, type TrendPoint } from './pages.js';
+
+const DAY_MS = 86_400_000;
+const MAX_FORM_BYTES = 8 * 1024;
+
+const ListQuery = z.object({
+  since: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional().catch(undefined),
+  machine: z.string().min(1).max(64).optional().catch(undefined),
+  verdict: Verdict.optional().catch(undefined),
+});
+const ReviewForm = z.object({
+  reviewer: z.string().trim().min(1, 'give the reviewer\'s name').max(64),
+  accepted: z.enum(['yes', 'no'], { message: 'say whether the check is accepted' }),
+  comment: z.string().max(500).default(''),
+});
+
+/**
+ * The chart-round page on loopback: read-only over the history, except the review form, which adds
+ * a review record. Every value from a request is parsed (zod) before use; pages escape everything.
+ */
+export function startWebServer(o: { host: string; port: number; history: HistoryStore; now?: () => number; log: (l: string) => void }): Promise<{ port: number; close: () => Promise<void> }> {
+  const now = o.now ?? (() => Date.now());
+  const server = http.createServer((req, res) => {
+    try {
+      route(req, res);
+    } catch (e) {
+      o.log(`web: ${(e as Error).message}`);
+      send(res, 500, 'text/plain; charset=utf-8', 'internal error');
+    }
+  });
+
+  function route(req: http.IncomingMessage, res: http.ServerResponse): void {
+    const url = new URL(req.url ?? '/', 'http://localhost');
+    const check = /^\/check\/(\d+)(\/report|\/review)?$/.exec(url.pathname);
+    if (req.method === 'GET' && url.pathname === '/') return list(url, res);
+    if (check && req.method === 'GET' && !check[2]) return one(Number(check[1]), res);
+    if (check && req.method === 'GET' && check[2] === '/report') {
+      const html = o.history.html(Number(check[1]));
+      return html ? send(res, 200, 'text/html; charset=utf-8', html) : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
+    }
+    if (check && req.method === 'POST' && check[2] === '/review') return review(Number(check[1]), req, res);
+    send(res, 404, 'text/html; charset=utf-8', notFoundPage(`nothing at ${url.pathname}`));
+  }
+
+  function list(url: URL, res: http.ServerResponse): void {
+    const q = ListQuery.parse(Object.fromEntries(url.searchParams));
+    const since = q.since ?? new Date(now() - 7 * DAY_MS).toISOString().slice(0, 10);
+    const all = o.history.listChecks({ since });
+    const machines = [...new Set(all.map((c) => c.machine).filter((m): m is string => !!m))].sort();
+    const checks = all.filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict)).map((c) => ({ ...c, reviews: o.history.reviews(c.id).length }));
+    const trend: TrendPoint[] = [];
+    for (const c of checks) {
+      const r = o.history.result(c.id);
+      for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? []) {
+        if (b.status !== 'checked' || b.calculation?.doseDeviationPercent === undefined) continue;
+        const unit = b.radiationType === 'ELECTRON' ? 'MeV' : 'MV';
+        trend.push({ series: `${c.machine ?? '—'} ${b.nominalEnergy ?? '?'} ${unit}`, atMs: Date.parse(c.recordedAt), deviationPercent: b.calculation.doseDeviationPercent });
+      }
+    }
+    send(res, 200, 'text/html; charset=utf-8', listPage(checks, { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) }, machines, trend));
+  }
+
+  function one(id: number, res: http.ServerResponse): void {
+    const record = o.history.listChecks().find((c) => c.id === id);
+    const result = record ? o.history.result(id) : undefined;
+    if (!record || !result) return send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
+    send(res, 200, 'text/html; charset=utf-8', checkPage(record, result, o.history.reviews(id)));
+  }
+
+  function review(id: number, req: http.IncomingMessage, res: http.ServerResponse): void {
+    // Only the page itself may post: a form from another origin is refused.
+    const origin = req.headers.origin;
+    if (origin && origin !== `http://${req.headers.host}`) return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    let body = '';
+    req.on('data', (d: Buffer) => {
+      body += d.toString('utf8');
+      if (body.length > MAX_FORM_BYTES) req.destroy();
+    });
+    req.on('end', () => {
+      const form = ReviewForm.safeParse(Object.fromEntries(new URLSearchParams(body)));
+      if (!form.success || !o.history.listChecks().some((c) => c.id === id)) {
+        return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
+      }
+      o.history.addReview({ checkId: id, reviewer: form.data.reviewer, reviewedAt: new Date(now()).toISOString(), accepted: form.data.accepted === 'yes', comment: form.data.comment });
+      o.log(`review of check ${id} by ${form.data.reviewer}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
+      res.writeHead(303, { location: `/check/${id}` });
+      res.end();
+    });
+  }
+
+  return new Promise((resolvePromise, reject) => {
+    server.once('error', reject);
+    server.listen(o.port, o.host, () => {
+      const port = (server.address() as net.AddressInfo).port;
+      o.log(`chart-round page on http://${o.host}:${port}/`);
+      resolvePromise({ port, close: () => new Promise((done) => { server.closeAllConnections(); server.close(() => done()); }) });
+    });
+  });
+}
+
+function send(res: http.ServerResponse, status: number, type: string, body: string): void {
+  res.writeHead(status, { 'content-type': type, 'cache-control': 'no-store', 'x-content-type-options': 'nosniff', 'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'" });
+  res.end(body);
+}
