@@ -48,7 +48,7 @@ export async function runServe(configFile: string): Promise<CommandOutcome> {
 export const HistoryOptions = z.object({
   config: z.string().min(1),
   since: z.string().regex(/^\d{4}-\d{2}-\d{2}(T[\d:.]+Z?)?$/, '--since must be a date (YYYY-MM-DD) or an ISO date-time').optional(),
-  verdict: z.array(Verdict, { message: "--verdict must be 'within tolerance', 'needs review' or 'beyond action level'" }).optional(),
+  verdict: z.array(z.enum(Verdict.options, { message: "--verdict must be 'within tolerance', 'needs review' or 'beyond action level'" })).optional(),
   machine: z.string().min(1).optional(),
   json: z.boolean().default(false),
 });

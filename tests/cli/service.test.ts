@@ -1,0 +1,45 @@
+/** The service commands from the command line: a configuration refused with the path of what is wrong; history as text and JSON. */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { HistoryDocument } from '../../src/cli/service-commands.js';
+import { HistoryStore } from '../../src/service/history/store.js';
+import { check, importOrThrow } from '../helpers/check-run.js';
+import { DEMO_MANIFEST, machine, manifestPath } from '../helpers/machines.js';
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const run = (...args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8' });
+
+describe('plumbline history and the service configuration', () => {
+  it('refuses a configuration naming the attribute that is wrong (exit 2)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-cfg-'));
+    const file = join(dir, 'bad.json');
+    writeFileSync(file, JSON.stringify({ format: 'plumbline.service', formatVersion: 1, receiver: { allowedCallingAeTitles: ['THIS TITLE IS FAR TOO LONG'] },
+      folders: { inbox: 'i', archive: 'a', refused: 'r' }, history: { database: 'h.sqlite' }, beamData: ['demo'] }));
+    const r = run('history', '--config', file);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/receiver\.allowedCallingAeTitles\.0.*1 to 16 printable ASCII characters/);
+  });
+
+  it('lists the recorded checks, filtered by verdict, as text and as a versioned JSON document', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-hist-cli-'));
+    const file = join(dir, 'service.json');
+    writeFileSync(file, JSON.stringify({ format: 'plumbline.service', formatVersion: 1, folders: { inbox: 'i', archive: 'a', refused: 'r' }, history: { database: 'h.sqlite' }, beamData: ['demo'] }));
+    const store = new HistoryStore(join(dir, 'h.sqlite'));
+    for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm']) {
+      const result = check(importOrThrow(manifestPath(`fixtures/demo/clinic/${f}`)), machine(DEMO_MANIFEST));
+      store.recordCheck({ recordedAt: new Date().toISOString(), result, planSha256: f, toolVersion: 'test', inputs: [], html: '' });
+    }
+    store.close();
+    const text = run('history', '--config', file);
+    expect(text.status).toBe(0);
+    expect(text.stdout).toMatch(/2 check\(s\)/);
+    expect(text.stdout).toMatch(/L BREAST TG .* beyond action level/);
+    const doc = HistoryDocument.parse(JSON.parse(run('history', '--config', file, '--verdict', 'beyond action level', '--json').stdout));
+    expect(doc.checks.map((c) => c.planLabel)).toEqual(['L BREAST TG']);
+    expect(run('history', '--config', file, '--verdict', 'fine').stderr).toMatch(/--verdict must be/);
+  });
+});
