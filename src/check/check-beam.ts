@@ -3,6 +3,7 @@ import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, 
 import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
+import { comparison, isHeterogeneous } from './comparison.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
@@ -145,9 +146,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     };
   }
   const dosePerMuCGy = r.value.dosePerMuCGy * correction;
-  const independentDoseCGy = mu * dosePerMuCGy;
-  const tps = base.planningSystemDoseCGy;
-  const independentMu = tps !== undefined ? tps / dosePerMuCGy : undefined;
+  const compared = comparison(mu, dosePerMuCGy, base.planningSystemDoseCGy);
 
   // Is the point fit for a point check? Edge distance at the point's depth, build-up region.
   const edgeDistanceCm = (fieldEdgeDistanceMm(aperture, blocks, px, py) * depthScale) / MM_PER_CM;
@@ -174,7 +173,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
     }
   }
 
-  const heterogeneous = !!ctResult && (ctResult.densityRange[0] < policy.ct.waterLikeDensity[0] || ctResult.densityRange[1] > policy.ct.waterLikeDensity[1]);
+  const heterogeneous = isHeterogeneous(policy, ctResult?.densityRange);
   const category = categorize(policy, { wedged: !!wedgeIn, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
   const planningSystemDepths = theirDepths(beam, entry, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
@@ -196,10 +195,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         approximations,
         factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
         dosePerMuCGy,
-        independentDoseCGy,
-        ...(independentMu !== undefined ? { independentMu } : {}),
-        ...(tps !== undefined && tps > 0 ? { doseDeviationPercent: (100 * (independentDoseCGy - tps)) / tps } : {}),
-        ...(independentMu !== undefined ? { muDeviationPercent: (100 * (independentMu - mu)) / mu } : {}),
+        ...compared,
         clamps: r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`),
         ...(ctResult ? { ct: ctResult } : {}),
         ...(planningSystemDepths ? { planningSystemDepths } : {}),

@@ -2,6 +2,7 @@ import { findElectronBeam } from '../beamdata/index.js';
 import { axisAlignedRectangle, beamFrame, ctDepth, ctSsdAlongAxisMm, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
 import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue } from '../model/index.js';
 import { electronDosePerMu } from '../physics/index.js';
+import { comparison, isHeterogeneous } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 
 const MM_PER_CM = 10;
@@ -93,9 +94,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
     ctResult = { ...ctResult, correctionFactor: r.value.dosePerMuCGy / homogeneous.value.dosePerMuCGy, homogeneousDoseCGy: mu * homogeneous.value.dosePerMuCGy };
   }
   const dosePerMuCGy = r.value.dosePerMuCGy;
-  const independentDoseCGy = mu * dosePerMuCGy;
-  const tps = base.planningSystemDoseCGy;
-  const independentMu = tps !== undefined ? tps / dosePerMuCGy : undefined;
+  const compared = comparison(mu, dosePerMuCGy, base.planningSystemDoseCGy);
 
   const offAxisCm = at.offAxisMm / MM_PER_CM;
   const approximations = [`${cutoutText}; effective SSD ${r.value.effectiveSsdCm.toFixed(1)} cm`];
@@ -119,7 +118,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
   if (lookupDepthCm < dmaxCm - 0.05) flags.push(`the point is in the build-up region (${lookupDepthCm.toFixed(1)} cm, shallower than this field's dmax ${dmaxCm.toFixed(1)} cm)`);
   else if (pddPercent < FALL_OFF_PERCENT) flags.push(`the point lies on the steep fall-off of the depth dose (PDD ${pddPercent.toFixed(0)} % < ${FALL_OFF_PERCENT} %)`);
 
-  const heterogeneous = !!ctResult && (ctResult.densityRange[0] < policy.ct.waterLikeDensity[0] || ctResult.densityRange[1] > policy.ct.waterLikeDensity[1]);
+  const heterogeneous = isHeterogeneous(policy, ctResult?.densityRange);
   const openArea = outline ? polygonArea(outline) : (2 * half) ** 2;
   const category = categorize(policy, { wedged: false, offAxisCm, irradiatedSquareCm: r.value.fieldSideCm, openFraction: openArea / (2 * half) ** 2, ssdCm, shaped: !!outline && !rectangle, heterogeneous });
   return {
@@ -135,10 +134,8 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
         collimatorFieldCm: { x: applicator.sideCm, y: applicator.sideCm }, collimatorSquareCm: applicator.sideCm, irradiatedSquareCm: r.value.fieldSideCm,
         approximations,
         factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
-        dosePerMuCGy, independentDoseCGy,
-        ...(independentMu !== undefined ? { independentMu } : {}),
-        ...(tps !== undefined && tps > 0 ? { doseDeviationPercent: (100 * (independentDoseCGy - tps)) / tps } : {}),
-        ...(independentMu !== undefined ? { muDeviationPercent: (100 * (independentMu - mu)) / mu } : {}),
+        dosePerMuCGy,
+        ...compared,
         clamps: r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`),
         ...(ctResult ? { ct: ctResult } : {}),
         electron: { applicatorId: applicator.id, cutout: outline ? (rectangle ? 'rectangle' : 'shaped') : 'none', fieldSideCm: r.value.fieldSideCm, effectiveSsdCm: r.value.effectiveSsdCm, airGapCm: r.value.airGapCm, pddPercent },

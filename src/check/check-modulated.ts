@@ -3,6 +3,7 @@ import { apertureAt, beamFrame, type CtDepth, ctDepth, ctSsdAlongAxisMm, fieldEd
 import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote } from '../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
+import { comparison, isHeterogeneous } from './comparison.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 
@@ -121,9 +122,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   }
 
   const mu = entry.beamMeterset!;
-  const independentDoseCGy = mu * dosePerMu;
-  const tps = base.planningSystemDoseCGy;
-  const independentMu = tps !== undefined ? tps / dosePerMu : undefined;
+  const compared = comparison(mu, dosePerMu, base.planningSystemDoseCGy);
   const d0 = data.calibration.doseCGyPerMu;
   const gantryMoves = cps.some((c) => c.gantryAngleDeg !== cp0.gantryAngleDeg);
   const depthSource = ct ? `traced through the CT (${ct.bodySource}) at each segment's gantry angle` : gantryMoves ? "below a flat surface at each control point's SSD from the plan" : "below a flat surface at the plan's SSD (the gantry does not move)";
@@ -140,7 +139,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   const flags: string[] = [];
   if (coveredShare > 0.5) flags.push(`the point is under the leaves or outside the jaws for ${(100 * coveredShare).toFixed(0)} % of the MU: its dose rests on leaf transmission and penumbra`);
   if (Math.min(...depths) < data.calibration.dmaxCm) flags.push(`the point is in the build-up region at some gantry angles (depth down to ${Math.min(...depths).toFixed(1)} cm, dmax ${data.calibration.dmaxCm} cm)`);
-  const heterogeneous = radiological.length > 0 && (densities[0]! < policy.ct.waterLikeDensity[0] || densities[1]! > policy.ct.waterLikeDensity[1]);
+  const heterogeneous = radiological.length > 0 && isHeterogeneous(policy, [densities[0]!, densities[1]!]);
   const category: CaseCategory = heterogeneous && policy.levels.heterogeneous!.actionPercent > policy.levels.modulated!.actionPercent ? 'heterogeneous' : 'modulated';
   const ssdFinding = maxSsdDifferenceMm !== undefined && Math.abs(maxSsdDifferenceMm) > policy.ct.ssdToleranceMm;
   if (ssdFinding) flags.push(`the SSD from the CT differs from the plan's by up to ${maxSsdDifferenceMm!.toFixed(1)} mm at some control point (tolerance ${policy.ct.ssdToleranceMm} mm): bolus missing, wrong CT or wrong isocenter?`);
@@ -158,10 +157,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
         approximations,
         factors: factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
         dosePerMuCGy: dosePerMu,
-        independentDoseCGy,
-        ...(independentMu !== undefined ? { independentMu } : {}),
-        ...(tps !== undefined && tps > 0 ? { doseDeviationPercent: (100 * (independentDoseCGy - tps)) / tps } : {}),
-        ...(independentMu !== undefined ? { muDeviationPercent: (100 * (independentMu - mu)) / mu } : {}),
+        ...compared,
         clamps: [...new Set(log.filter((n) => n.kind === 'clamped').map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`))],
         modulated: {
           method: 'modified Clarkson integration',

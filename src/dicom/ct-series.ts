@@ -1,7 +1,8 @@
-import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, readSync } from 'node:fs';
 import type { CtVolume, Issue, Result } from '../model/index.js';
 import { ItemReader, need } from './item-reader.js';
 import { parseDicomBytes } from './parse-bytes.js';
+import { parseHead } from './read-head.js';
 import { addInPlace, allocateInt16 } from './int16-volume.js';
 import { DEFLATED_EXPLICIT_VR_LE, EXPLICIT_VR_BE } from './transfer-syntax.js';
 
@@ -79,32 +80,15 @@ export function readCtVolumes(files: readonly string[]): { volumes: CtVolume[]; 
   return { volumes, issues };
 }
 
-/** Most CT headers fit in this many bytes: read them alone first, the whole file only when not. */
-const HEADER_BYTES = 64 * 1024;
-
 /** A CT slice's header; `{ otherSopClassUid }` for another DICOM object; undefined (with issues) for a broken file. */
 function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly otherSopClassUid: string | undefined } | undefined {
-  let head: Buffer;
-  let size: number;
-  try {
-    const fd = openSync(file, 'r');
-    try {
-      size = fstatSync(fd).size;
-      head = Buffer.allocUnsafe(Math.min(size, HEADER_BYTES));
-      readSync(fd, head, 0, head.length, 0);
-    } finally {
-      closeSync(fd);
-    }
-  } catch (e) {
-    issues.push({ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+  const head = parseHead(file);
+  if (!head.ok) {
+    issues.push(...head.issues);
     return undefined;
   }
-  let parsed = parseDicomBytes(head, file, { untilTag: PIXEL_DATA });
-  if ((!parsed.ok || !parsed.value.dataSet.elements[PIXEL_DATA]) && size > head.length) parsed = parseDicomBytes(readFileSync(file), file, { untilTag: PIXEL_DATA });
-  if (!parsed.ok) {
-    issues.push(...parsed.issues);
-    return undefined;
-  }
+  const { parsed: value, size } = head.value;
+  const parsed = { value };
   const ds = parsed.value.dataSet;
   const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
   const sopClassUid = r.string('SOPClassUID');

@@ -1,8 +1,7 @@
-import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
 import type { Issue } from '../model/index.js';
 import { CT_IMAGE_STORAGE } from './ct-series.js';
 import { ItemReader } from './item-reader.js';
-import { parseDicomBytes } from './parse-bytes.js';
+import { parseHead } from './read-head.js';
 import { RT_DOSE_STORAGE } from './rt-dose.js';
 import { RT_PLAN_STORAGE } from './rt-plan/read-rt-plan.js';
 import { readRtStruct, RT_STRUCTURE_SET_STORAGE } from './rt-struct.js';
@@ -25,29 +24,11 @@ export interface ObjectSummary {
   readonly patientId?: string;
 }
 
-const PIXEL_DATA = 'x7fe00010';
-const HEADER_BYTES = 64 * 1024;
-
 /** The summary of a DICOM file, or the issue why it is not one of the objects the check uses. */
 export function readObjectSummary(file: string): { ok: true; value: ObjectSummary } | { ok: false; issues: Issue[] } {
-  let head: Buffer;
-  let size: number;
-  try {
-    const fd = openSync(file, 'r');
-    try {
-      size = fstatSync(fd).size;
-      head = Buffer.allocUnsafe(Math.min(size, HEADER_BYTES));
-      readSync(fd, head, 0, head.length, 0);
-    } finally {
-      closeSync(fd);
-    }
-  } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
-  }
-  // The attributes needed come before the pixel data; a header longer than the first bytes reads the whole file.
-  let parsed = parseDicomBytes(head, file, { untilTag: PIXEL_DATA });
-  if (!parsed.ok && size > head.length) parsed = parseDicomBytes(readFileSync(file), file, { untilTag: PIXEL_DATA });
-  if (!parsed.ok) return { ok: false, issues: [...parsed.issues] };
+  const head = parseHead(file);
+  if (!head.ok) return head;
+  const parsed = { value: head.value.parsed };
   const issues: Issue[] = [];
   const r = new ItemReader(parsed.value.dataSet, { file, path: '' }, issues, 'latin1');
   const sopClassUid = r.string('SOPClassUID');
