@@ -92,6 +92,23 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
   // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
+  // The open bands in order across the leaves, for a binary search by v.
+  const flat = Float64Array.from(segments.flatMap((g) => [g.ax, g.ay, g.bx, g.by]));
+  const inOpen = (u: number, v: number): boolean => {
+    let lo = 0;
+    let hi = open.length - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      if (open[mid]!.y0 <= v) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    // Bands share their boundary lines: a point on one belongs to either neighbour.
+    for (let k = hi; k >= 0 && k >= hi - 1; k--) {
+      const b = open[k]!;
+      if (v >= b.y0 && v <= b.y1 && u >= b.x0 && u <= b.x1) return true;
+    }
+    return false;
+  };
   const u = [Math.min(...open.map((b) => b.x0)), Math.max(...open.map((b) => b.x1))];
   const v = [Math.min(...open.map((b) => b.y0)), Math.max(...open.map((b) => b.y1))];
   const [bx, by] = swapped ? [v, u] : [u, v];
@@ -104,15 +121,13 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     openExtentMm: open.length ? { x1: bx[0]!, x2: bx[1]!, y1: by[0]!, y2: by[1]! } : { x1: 0, x2: 0, y1: 0, y2: 0 },
     hasJaws: { x: !!xj, y: !!yj },
     isOpen(x: number, y: number): boolean {
-      const [u, v] = swapped ? [y, x] : [x, y];
-      return open.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
+      return swapped ? inOpen(y, x) : inOpen(x, y);
     },
     edgeDistanceMm(x: number, y: number): number {
       const [u, v] = swapped ? [y, x] : [x, y];
       let d = Infinity;
       for (const g of segments) d = Math.min(d, segmentDistance(u, v, g));
-      const inside = open.some((band) => v >= band.y0 && v <= band.y1 && u >= band.x0 && u <= band.x1);
-      return inside ? d : -d;
+      return inOpen(u, v) ? d : -d;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {
       const [pu, pv] = swapped ? [y, x] : [x, y];
@@ -120,15 +135,27 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       for (let i = 0; i < n; i++) {
         const t = ((i + 0.5) * 2 * Math.PI) / n;
         // Direction in BLD (x, y), then in the band frame.
-        const [dx, dy] = [Math.cos(t), Math.sin(t)];
-        const [du, dv] = swapped ? [dy, dx] : [dx, dy];
+        const du = swapped ? Math.sin(t) : Math.cos(t);
+        const dv = swapped ? Math.cos(t) : Math.sin(t);
         const hits: number[] = [];
-        for (const g of segments) {
-          const h = raySegment(pu, pv, du, dv, g);
-          if (h !== undefined && h > 1e-9) hits.push(h);
+        // Ray (pu, pv) + s·(du, dv) against each segment a + q·(b − a), q in [0, 1]: inline, no allocation.
+        for (let k = 0; k < flat.length; k += 4) {
+          const ex = flat[k + 2]! - flat[k]!;
+          const ey = flat[k + 3]! - flat[k + 1]!;
+          const den = du * ey - dv * ex;
+          if (Math.abs(den) < 1e-12) continue;
+          const wx = flat[k]! - pu;
+          const wy = flat[k + 1]! - pv;
+          const q = (wx * dv - wy * du) / den;
+          if (q < 0 || q > 1) continue;
+          const h = (wx * ey - wy * ex) / den;
+          if (h > 1e-9) hits.push(h);
         }
         hits.sort((a, b) => a - b);
-        out.push(hits.filter((h, k) => k === 0 || h - hits[k - 1]! > 1e-9));
+        let m = 0;
+        for (let k = 0; k < hits.length; k++) if (k === 0 || hits[k]! - hits[m - 1]! > 1e-9) hits[m++] = hits[k]!;
+        hits.length = m;
+        out.push(hits);
       }
       return out;
     },
@@ -168,19 +195,6 @@ function symmetricDifference(a: readonly [number, number], b: readonly [number, 
   if (a[0] !== b[0]) out.push([Math.min(a[0], b[0]), lo]);
   if (a[1] !== b[1]) out.push([hi, Math.max(a[1], b[1])]);
   return out;
-}
-
-/** Distance along the ray (u, v) + s·(du, dv) to where it crosses segment g, if it does. */
-function raySegment(u: number, v: number, du: number, dv: number, g: Segment): number | undefined {
-  const ex = g.bx - g.ax;
-  const ey = g.by - g.ay;
-  const den = du * ey - dv * ex;
-  if (Math.abs(den) < 1e-12) return undefined;
-  const wx = g.ax - u;
-  const wy = g.ay - v;
-  const s = (wx * ey - wy * ex) / den;
-  const q = (wx * dv - wy * du) / den;
-  return q >= 0 && q <= 1 ? s : undefined;
 }
 
 function segmentDistance(px: number, py: number, g: Segment): number {
