@@ -8,9 +8,11 @@ import { runCheck } from './check.js';
 import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
 import { resolveServiceConfig } from './beam-data-path.js';
-import { runHistory, runIntake, runServe } from './service-commands.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from './version.js';
+
+/** The service commands load the DICOM network and SQLite modules: only when one of them runs. */
+const service = () => import('./service-commands.js');
 
 /**
  * The one place that prints and picks exit codes: 0 done and within tolerance, 1 needs review,
@@ -107,7 +109,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .description('DICOM storage receiver (C-STORE, C-ECHO): every plan received is checked and recorded')
     .requiredOption('--config <file>', configOption)
     .action(async (opts: { config: string }) => {
-      outcome = await runIntake(resolveServiceConfig(opts.config), { receive: true });
+      outcome = await (await service()).runIntake(resolveServiceConfig(opts.config), { receive: true });
     });
 
   program
@@ -116,7 +118,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .argument('<folder>', "the planning system's export folder")
     .requiredOption('--config <file>', configOption)
     .action(async (folder: string, opts: { config: string }) => {
-      outcome = await runIntake(resolveServiceConfig(opts.config), { receive: false, watch: folder });
+      outcome = await (await service()).runIntake(resolveServiceConfig(opts.config), { receive: false, watch: folder });
     });
 
   program
@@ -124,7 +126,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .description("the chart-round web page on loopback: the week's checks, trends with control limits, reviews")
     .requiredOption('--config <file>', configOption)
     .action(async (opts: { config: string }) => {
-      outcome = await runServe(resolveServiceConfig(opts.config));
+      outcome = await (await service()).runServe(resolveServiceConfig(opts.config));
     });
 
   program
@@ -135,8 +137,8 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--verdict <verdict...>', "only these verdicts: 'within tolerance', 'needs review', 'beyond action level'")
     .option('--machine <name>', 'only this machine')
     .option('--json', 'print one versioned JSON document')
-    .action((opts: Record<string, unknown>) => {
-      outcome = runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
+    .action(async (opts: Record<string, unknown>) => {
+      outcome = (await service()).runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
     });
 
   program

@@ -20,8 +20,6 @@ export interface ReceiverOptions {
   /** Objects land here, complete, before their success response is sent. */
   readonly inbox: string;
   readonly log: (line: string) => void;
-  /** Called after each object is safely in the inbox. */
-  readonly onStored?: () => void;
 }
 
 const ACCEPTED_SOP_CLASSES = new Set<string>([SopClass.Verification, ...Object.values(STORAGE_CLASSES)]);
@@ -145,7 +143,6 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
           this.partial.delete(info.tmp);
           fsyncDirectory(o.inbox);
           r.setStatus(Status.Success);
-          o.onStored?.();
         }
       } catch (e) {
         o.log(`could not store an object: ${(e as Error).message}`);

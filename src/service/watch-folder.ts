@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
+import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
 import { join } from 'node:path';
 
 export interface WatchState {
@@ -63,5 +63,8 @@ function moveInto(file: string, inbox: string): void {
     }
     rmSync(file);
   }
+  // Arrival time, not the export's: the settle time counts from when the object reached the inbox.
+  const now = new Date();
+  utimesSync(tmp, now, now);
   renameSync(tmp, join(inbox, `${randomUUID()}.dcm`));
 }

@@ -1,5 +1,5 @@
 /** The watched export folder: a file is taken only once its size and time have stayed the same; then moved into the inbox under a new name. */
-import { appendFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import { appendFileSync, mkdirSync, mkdtempSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -25,5 +25,7 @@ describe('the watched folder', () => {
     expect(taken).toHaveLength(1);
     // Named anew: nothing of the exporter's file name decides where a file goes.
     expect(taken[0]).toMatch(/^[0-9a-f-]{36}\.dcm$/);
+    // Its time is its arrival in the inbox, so the settle time counts from then.
+    expect(Math.abs(statSync(join(inbox, taken[0]!)).mtimeMs - Date.now())).toBeLessThan(5000);
   });
 });
