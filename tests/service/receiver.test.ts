@@ -101,6 +101,11 @@ describe('the DICOM receiver', () => {
     expect(checks.every((c) => c.verdict !== undefined)).toBe(true);
     history.close();
     expect(readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.'))).toEqual([]);
+    // Files stay in the configured folders, named by content hash: nothing in an object decides a path.
+    const archived = readdirSync(config.folders.archive).flatMap((d) => readdirSync(join(config.folders.archive, d)));
+    expect(archived.length).toBeGreaterThanOrEqual(1000);
+    expect(archived.every((f) => /^[0-9a-f]{64}\.dcm$/.test(f))).toBe(true);
+    expect(readdirSync(root).sort()).toEqual(['archive', 'history.sqlite', 'history.sqlite-shm', 'history.sqlite-wal', 'inbox', 'load']);
   }, 120_000);
 
   it('a second send of the same plans is recognised: not checked twice', async () => {
