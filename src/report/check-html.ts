@@ -45,8 +45,8 @@ function handCalculation(b: BeamCheck): string {
   const c = b.calculation;
   const lines = c.factors.map((f) => `<tr><td>${esc(f.label)}</td><td class="num">${f.value.toFixed(4)}</td></tr>`).join('');
   return `<section class="beam"><h4>Beam ${b.beamNumber} ${esc(b.beamName ?? '')} — ${esc(c.machineBeam)}, ${c.setup} setup</h4>
-<p>Point ${mm(b.point!.patientMm)}: ${esc(b.point!.reason)}. ${c.setup} setup: ${esc(c.setupReason)}. Depth ${c.depthCm.toFixed(2)} cm below a flat surface at SSD ${c.ssdCm.toFixed(1)} cm,
-${c.offAxisCm.toFixed(2)} cm off axis. Collimator ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
+<p>Point ${mm(b.point!.patientMm)}: ${esc(b.point!.reason)}. ${c.setup} setup: ${esc(c.setupReason)}. ${esc(depthText(c))},
+${c.offAxisCm.toFixed(2)} cm off axis. ${c.modulated ? 'Mean collimator' : 'Collimator'} ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
 irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
 ${c.ct ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
 geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
@@ -103,4 +103,14 @@ ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>
 <p class="caution">${esc(doc.caution)}</p>
 </body></html>
 `;
+}
+
+/** Where the depth came from, in words: a flat surface, the CT, or the segments of a modulated beam (MU-weighted). */
+function depthText(c: NonNullable<BeamCheck['calculation']>): string {
+  const m = c.modulated;
+  if (m) {
+    return `MU-weighted over ${m.segments} segments (gantry ${m.gantryStartDeg.toFixed(0)}° to ${m.gantryEndDeg.toFixed(0)}°): depth ${c.depthCm.toFixed(2)} cm (${m.depthRangeCm[0].toFixed(2)} to ${m.depthRangeCm[1].toFixed(2)} cm), ${m.depthSource}, SSD ${c.ssdCm.toFixed(1)} cm`;
+  }
+  if (c.ct) return `Depth ${c.depthCm.toFixed(2)} cm along the ray from the body surface in the CT (SSD along the ray ${c.ssdCm.toFixed(1)} cm)`;
+  return `Depth ${c.depthCm.toFixed(2)} cm below a flat surface at SSD ${c.ssdCm.toFixed(1)} cm`;
 }
