@@ -93,7 +93,8 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
   // The open bands in order across the leaves, for a binary search by v.
-  const flat = Float64Array.from(segments.flatMap((g) => [g.ax, g.ay, g.bx, g.by]));
+  const flat = new Float64Array(4 * segments.length);
+  segments.forEach((g, k) => flat.set([g.ax, g.ay, g.bx, g.by], 4 * k));
   const inOpen = (u: number, v: number): boolean => {
     let lo = 0;
     let hi = open.length - 1;

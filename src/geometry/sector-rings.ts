@@ -42,9 +42,9 @@ export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[],
     const tx = dx > 0 ? (j.x2 - x) / dx : dx < 0 ? (j.x1 - x) / dx : Infinity;
     const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
     const jawExit = Math.max(0, Math.min(tx, ty));
-    const cuts = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy))]
-      .filter((c) => c > 1e-9 && c < jawExit)
-      .sort((a, b) => a - b);
+    // The aperture's crossings come sorted; blocks add theirs (then all are sorted again).
+    const all = blocks.length ? [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy))].sort((a, b) => a - b) : apertureCuts;
+    const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
     const rings: Ring[] = [];
     let from = 0;
     for (const to of [...cuts, jawExit]) {
