@@ -1,7 +1,7 @@
 import { findElectronBeam } from '../beamdata/index.js';
 import { axisAlignedRectangle, beamFrame, ctDepth, ctSsdAlongAxisMm, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
 import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue } from '../model/index.js';
-import { electronDosePerMu } from '../physics/index.js';
+import { electronDmaxCm, electronDosePerMu } from '../physics/index.js';
 import { comparison, isHeterogeneous } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 
@@ -114,7 +114,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
     flags.push(edgeDistanceCm < 0 ? `the point lies outside the field (${(-edgeDistanceCm).toFixed(1)} cm beyond its edge)` : `the point is ${edgeDistanceCm.toFixed(1)} cm from the field edge (margin ${policy.point.edgeMarginCm} cm)`);
   }
   const pddPercent = 100 * r.value.factors.find((f) => f.key === 'PDD')!.value;
-  const dmaxCm = deepestMaximumCm(data, field);
+  const dmaxCm = electronDmaxCm(data, field) ?? 0;
   if (lookupDepthCm < dmaxCm - 0.05) flags.push(`the point is in the build-up region (${lookupDepthCm.toFixed(1)} cm, shallower than this field's dmax ${dmaxCm.toFixed(1)} cm)`);
   else if (pddPercent < FALL_OFF_PERCENT) flags.push(`the point lies on the steep fall-off of the depth dose (PDD ${pddPercent.toFixed(0)} % < ${FALL_OFF_PERCENT} %)`);
 
@@ -146,17 +146,4 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
       fitness: { edgeDistanceCm, flags },
     },
   };
-}
-
-/** The depth of this field's maximum on the central axis (the row of its largest PDD). */
-function deepestMaximumCm(data: Parameters<typeof electronDosePerMu>[0], field: ElectronPointInput['field']): number {
-  const rows = data.pdd.rows.values;
-  let best = 0;
-  let bestValue = -Infinity;
-  for (let i = 0; i < rows.length; i++) {
-    const v = electronDosePerMu(data, { applicatorId: data.calibration.referenceApplicator, field, depthCm: rows[i]!, ssdCm: data.calibration.ssd0Cm });
-    const p = v.ok ? v.value.factors.find((f) => f.key === 'PDD')!.value : -Infinity;
-    if (p > bestValue) [best, bestValue] = [rows[i]!, p];
-  }
-  return best;
 }

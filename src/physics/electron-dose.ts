@@ -26,7 +26,7 @@ export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointI
   const fieldSideCm = f.kind === 'rectangle' ? Math.sqrt(f.xCm * f.yCm) : f.sideCm;
   const sqrtRule = (value: (side: number) => number) => (sides.length === 2 ? Math.sqrt(value(sides[0]!) * value(sides[1]!)) : value(sides[0]!));
   const se = sqrtRule((s) => app.outputFactor.at(s, 0, log));
-  const pdd = sqrtRule((s) => beam.pdd.at(d, s, log));
+  const pdd = electronPddPercent(beam, f, d, log);
   const effectiveSsdCm = typeof app.effectiveSsdCm === 'number' ? app.effectiveSsdCm : app.effectiveSsdCm.at(fieldSideCm, 0, log);
   const gap = input.ssdCm - cal.ssd0Cm;
   const factors: Factor[] = [
@@ -49,19 +49,36 @@ export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointI
   return { ok: true, value: { dosePerMuCGy: dosePerMu, factors, airGapCm: gap, effectiveSsdCm, fieldSideCm, clamps: log } };
 }
 
+/** The field's PDD (percent) at a depth: the table's, by the square-root rule for a rectangle. NaN (with a note) outside the table. */
+export function electronPddPercent(beam: ElectronBeamModel, field: ElectronPointInput['field'], depthCm: number, log: LookupNote[]): number {
+  if (field.kind === 'rectangle') return Math.sqrt(beam.pdd.at(depthCm, field.xCm, log) * beam.pdd.at(depthCm, field.yCm, log));
+  return beam.pdd.at(depthCm, field.sideCm, log);
+}
+
+/** The depth of the field's maximum on the central axis: the table row of its largest PDD. */
+export function electronDmaxCm(beam: ElectronBeamModel, field: ElectronPointInput['field']): number | undefined {
+  const rows = beam.pdd.rows.values;
+  let best: number | undefined;
+  let bestValue = -Infinity;
+  for (const d of rows) {
+    const v = electronPddPercent(beam, field, d, []);
+    if (v > bestValue) [best, bestValue] = [d, v];
+  }
+  return best;
+}
+
 /** The depth on the central axis where the PDD falls to `percent` beyond dmax (prescription to an isodose), or undefined. */
 export function electronIsodoseDepthCm(beam: ElectronBeamModel, field: ElectronPointInput['field'], percent: number): number | undefined {
-  const sides = field.kind === 'rectangle' ? [field.xCm, field.yCm] : [field.sideCm];
   const pdd = (d: number) => {
     const log: LookupNote[] = [];
-    const v = sides.length === 2 ? Math.sqrt(beam.pdd.at(d, sides[0]!, log) * beam.pdd.at(d, sides[1]!, log)) : beam.pdd.at(d, sides[0]!, log);
+    const v = electronPddPercent(beam, field, d, log);
     return log.some((n) => n.kind === 'out-of-range') ? Number.NaN : v;
   };
-  const depths = beam.pdd.rows.values;
+  const dmax = electronDmaxCm(beam, field);
+  if (dmax === undefined) return undefined;
   // Past the maximum, the PDD falls monotonically: bisect between the rows that bracket the level.
-  let k = 0;
-  for (let i = 1; i < depths.length; i++) if (pdd(depths[i]!) > pdd(depths[k]!)) k = i;
-  for (let i = k; i + 1 < depths.length; i++) {
+  const depths = beam.pdd.rows.values.filter((d) => d >= dmax);
+  for (let i = 0; i + 1 < depths.length; i++) {
     const [a, b] = [depths[i]!, depths[i + 1]!];
     if (pdd(a) >= percent && pdd(b) < percent) {
       let [lo, hi] = [a, b];
