@@ -44,6 +44,8 @@ export const ServiceConfig = z
     ct: z.object({ density: z.string().min(1), bodyThresholdHu: z.number().int().optional() }).strict().optional(),
     /** Seconds without a new object in a frame of reference before its plans are checked. */
     settleSeconds: z.number().nonnegative().default(30),
+    /** Hours a group without any plan (a CT, structures or dose alone) waits for its plan before it is archived unchecked. */
+    orphanHours: z.number().positive().default(72),
     serve: z.object({ host: z.string().min(1).default('127.0.0.1'), port: z.number().int().min(1).max(65535).default(8470) }).strict().default({ host: '127.0.0.1', port: 8470 }),
   })
   .strict();

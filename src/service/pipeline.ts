@@ -26,7 +26,7 @@ export interface PipelineRound {
   readonly checked: number;
   readonly duplicates: number;
   readonly refused: number;
-  /** Objects left in the inbox: their group is still settling, or has no plan yet. */
+  /** Objects left in the inbox: their group is still settling, or has no plan yet (for up to `orphanHours`). */
   readonly waiting: number;
 }
 
@@ -72,8 +72,14 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
   let duplicates = 0;
   let waiting = 0;
   for (const group of groups.values()) {
-    const settled = ctx.now() - Math.max(...group.map((e) => e.mtimeMs)) >= ctx.config.settleSeconds * 1000;
+    const quietMs = ctx.now() - Math.max(...group.map((e) => e.mtimeMs));
+    const settled = quietMs >= ctx.config.settleSeconds * 1000;
     const plans = group.filter((e) => e.summary.kind === 'plan');
+    if (plans.length === 0 && quietMs >= ctx.config.orphanHours * 3_600_000) {
+      ctx.log(`${group.length} object(s) (${[...new Set(group.map((e) => e.summary.kind))].join(', ')}) waited ${ctx.config.orphanHours} h for a plan in their frame of reference: archived unchecked`);
+      for (const e of group) archive(ctx, e);
+      continue;
+    }
     if (!settled || plans.length === 0) {
       waiting += group.length;
       continue;

@@ -34,6 +34,16 @@ const clinic = (f: string) => manifestPath(`fixtures/demo/clinic/${f}`);
 const ctDir = manifestPath('fixtures/demo/clinic-ct/pelvis-box');
 
 describe('the intake pipeline', () => {
+  it('a CT without its plan waits; after the orphan time it is archived unchecked, and said so', () => {
+    const s = setup();
+    for (const f of readdirSync(ctDir).slice(0, 3)) put(s.config.folders.inbox, join(ctDir, f));
+    s.advance(3600);
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 3 });
+    s.advance(72 * 3600);
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 0 });
+    expect(s.lines.join('\n')).toMatch(/3 object\(s\) \(ct\) waited 72 h for a plan .*archived unchecked/);
+  });
+
   it('waits for the settle time, then checks each plan with its CT, records it and archives every input by content hash', () => {
     const s = setup();
     put(s.config.folders.inbox, clinic('pelvis-box.dcm'));
