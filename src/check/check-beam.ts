@@ -3,7 +3,7 @@ import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, 
 import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
-import { comparison, isHeterogeneous } from './comparison.js';
+import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
@@ -200,9 +200,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         ...(ctResult ? { ct: ctResult } : {}),
         ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },
-      category,
-      tolerancePercent: policy.levels[category]!.tolerancePercent,
-      actionPercent: policy.levels[category]!.actionPercent,
+      ...levelsOf(policy, category),
       fitness: { edgeDistanceCm, flags, ...(suggestion ? { suggestion: { patientMm: suggestion.patientMm, depthCm: suggestion.depthCm, offAxisCm: suggestion.offAxisCm, edgeDistanceCm: suggestion.edgeDistanceCm } } : {}) },
       ...(suggestedPoint ? { suggestedPoint } : {}),
     },

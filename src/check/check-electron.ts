@@ -2,7 +2,7 @@ import { findElectronBeam } from '../beamdata/index.js';
 import { axisAlignedRectangle, beamFrame, ctDepth, ctSsdAlongAxisMm, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
 import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue } from '../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../physics/index.js';
-import { comparison, isHeterogeneous } from './comparison.js';
+import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 
 const MM_PER_CM = 10;
@@ -140,9 +140,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
         ...(ctResult ? { ct: ctResult } : {}),
         electron: { applicatorId: applicator.id, cutout: outline ? (rectangle ? 'rectangle' : 'shaped') : 'none', fieldSideCm: r.value.fieldSideCm, effectiveSsdCm: r.value.effectiveSsdCm, airGapCm: r.value.airGapCm, pddPercent },
       },
-      category,
-      tolerancePercent: policy.levels[category]!.tolerancePercent,
-      actionPercent: policy.levels[category]!.actionPercent,
+      ...levelsOf(policy, category),
       fitness: { edgeDistanceCm, flags },
     },
   };

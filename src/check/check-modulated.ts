@@ -3,7 +3,7 @@ import { apertureAt, beamFrame, type CtDepth, ctDepth, ctSsdAlongAxisMm, fieldEd
 import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote } from '../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
-import { comparison, isHeterogeneous } from './comparison.js';
+import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 
@@ -174,9 +174,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
           clarksonMuPercent: 100 * clarksonShare,
         },
       },
-      category,
-      tolerancePercent: policy.levels[category]!.tolerancePercent,
-      actionPercent: policy.levels[category]!.actionPercent,
+      ...levelsOf(policy, category),
       fitness: { edgeDistanceCm: mean.edgeCm, flags },
     },
   };

@@ -1,3 +1,4 @@
+import type { CaseCategory } from '../model/index.js';
 import type { Policy } from './policy.js';
 
 /**
@@ -20,4 +21,9 @@ export function comparison(plannedMu: number, dosePerMuCGy: number, planningSyst
 /** Whether the densities met on the ray leave the policy's water-like range. */
 export function isHeterogeneous(policy: Policy, densityRange: readonly [number, number] | undefined): boolean {
   return !!densityRange && (densityRange[0] < policy.ct.waterLikeDensity[0] || densityRange[1] > policy.ct.waterLikeDensity[1]);
+}
+
+/** A category with the levels the policy sets for it, as a checked beam carries them. */
+export function levelsOf(policy: Policy, category: CaseCategory): { category: CaseCategory; tolerancePercent: number; actionPercent: number } {
+  return { category, tolerancePercent: policy.levels[category]!.tolerancePercent, actionPercent: policy.levels[category]!.actionPercent };
 }
