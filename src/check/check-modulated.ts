@@ -50,8 +50,8 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   const method = ctx.heterogeneity ?? 'tpr-ratio';
   const log: LookupNote[] = [];
 
-  let dosePerMu = 0;
-  let homogeneousPerMu = 0;
+  let dosePerMuCGy = 0;
+  let homogeneousPerMuCGy = 0;
   const mean = { depthCm: 0, ssdCm: 0, offAxisCm: 0, squareCm: 0, collimatorX: 0, collimatorY: 0, collimatorSquareCm: 0, edgeCm: 0, radiologicalCm: 0 };
   const depths: number[] = [];
   const radiological: number[] = [];
@@ -106,8 +106,8 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
       radiological.push(radiologicalMm / MM_PER_CM);
       mean.radiologicalCm += s.share * (radiologicalMm / MM_PER_CM);
     }
-    dosePerMu += s.share * r.value.dosePerMuCGy * cf;
-    homogeneousPerMu += s.share * r.value.dosePerMuCGy;
+    dosePerMuCGy += s.share * r.value.dosePerMuCGy * cf;
+    homogeneousPerMuCGy += s.share * r.value.dosePerMuCGy;
     depths.push(depthCm);
     mean.depthCm += s.share * depthCm;
     mean.ssdCm += s.share * ssdCm;
@@ -122,18 +122,18 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
   }
 
   const mu = entry.beamMeterset!;
-  const compared = comparison(mu, dosePerMu, base.planningSystemDoseCGy);
-  const d0 = data.calibration.doseCGyPerMu;
+  const compared = comparison(mu, dosePerMuCGy, base.planningSystemDoseCGy);
+  const d0CGyPerMu = data.calibration.doseCGyPerMu;
   const gantryMoves = cps.some((c) => c.gantryAngleDeg !== cp0.gantryAngleDeg);
   const depthSource = ct ? `traced through the CT (${ct.bodySource}) at each segment's gantry angle` : gantryMoves ? "below a flat surface at each control point's SSD from the plan" : "below a flat surface at the plan's SSD (the gantry does not move)";
   const factors: Factor[] = [
-    { key: 'D0', value: d0, args: [] },
-    { key: 'MCI', value: dosePerMu / d0, args: [segments.length, CLARKSON_SECTORS], name: data.tpr?.kind ?? 'TPR' },
+    { key: 'D0', value: d0CGyPerMu, args: [] },
+    { key: 'MCI', value: dosePerMuCGy / d0CGyPerMu, args: [segments.length, CLARKSON_SECTORS], name: data.tpr?.kind ?? 'TPR' },
   ];
   const approximations = [
     `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${segments.length} segments between ${cps.length} control points, each with its own aperture, gantry angle and depth, weighted by its MU share; ${CLARKSON_SECTORS} sectors, leaf transmission ${transmission}`,
     `depths ${depthSource}`,
-    ...(radiological.length ? [`heterogeneity corrected per segment by ${METHOD_TEXT[method]}: dose-weighted CF ${(dosePerMu / homogeneousPerMu).toFixed(4)} (homogeneous dose ${(mu * homogeneousPerMu).toFixed(1)} cGy)`] : []),
+    ...(radiological.length ? [`heterogeneity corrected per segment by ${METHOD_TEXT[method]}: dose-weighted CF ${(dosePerMuCGy / homogeneousPerMuCGy).toFixed(4)} (homogeneous dose ${(mu * homogeneousPerMuCGy).toFixed(1)} cGy)`] : []),
     'the leaf tongue-and-groove effect and the rounded leaf ends are not modelled',
   ];
   const flags: string[] = [];
@@ -156,7 +156,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
         collimatorFieldCm: { x: mean.collimatorX, y: mean.collimatorY }, collimatorSquareCm: mean.collimatorSquareCm, irradiatedSquareCm: mean.squareCm,
         approximations,
         factors: factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
-        dosePerMuCGy: dosePerMu,
+        dosePerMuCGy,
         ...compared,
         clamps: [...new Set(log.filter((n) => n.kind === 'clamped').map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`))],
         modulated: {
@@ -167,8 +167,8 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
           gantryEndDeg: cps[cps.length - 1]!.gantryAngleDeg,
           depthSource,
           depthRangeCm: [Math.min(...depths), Math.max(...depths)],
-          ...(radiological.length ? { radiologicalDepthRangeCm: [Math.min(...radiological), Math.max(...radiological)] as [number, number], correctionFactor: dosePerMu / homogeneousPerMu,
-            homogeneousDoseCGy: mu * homogeneousPerMu } : {}),
+          ...(radiological.length ? { radiologicalDepthRangeCm: [Math.min(...radiological), Math.max(...radiological)] as [number, number], correctionFactor: dosePerMuCGy / homogeneousPerMuCGy,
+            homogeneousDoseCGy: mu * homogeneousPerMuCGy } : {}),
           ...(maxSsdDifferenceMm !== undefined ? { maxSsdDifferenceMm } : {}),
           pointCoveredMuPercent: 100 * coveredShare,
           clarksonMuPercent: 100 * clarksonShare,
