@@ -1,10 +1,11 @@
-import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
 import cliProgress from 'cli-progress';
 import { z } from 'zod';
 import { loadMachine } from '../beamdata/index.js';
-import { checkPlan } from '../check/index.js';
-import { importPlanBytes, readRtDose } from '../dicom/index.js';
+import { readRtDose } from '../dicom/index.js';
 import type { DoseGrid, Issue, PlanCheck } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
 import { checkHtml } from '../report/check-html.js';
@@ -13,6 +14,8 @@ import { writeFileAtomic } from './atomic-write.js';
 import { resolveBeamDataPath } from './beam-data-path.js';
 import { collectFiles } from './collect-files.js';
 import { checkDocument, loadPolicy } from './check-document.js';
+import { checkFile } from './check-file.js';
+import type { WorkerJob } from './check-worker.js';
 import { loadPatientCts } from './patient-ct.js';
 import type { CommandOutcome } from './outcome.js';
 
@@ -41,8 +44,34 @@ export const CheckOptionsSchema = z.object({
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
 });
 
+/** From this many files a batch without CT or dose is shared among worker threads. */
+const POOL_FROM_FILES = 200;
+const MAX_THREADS = 4;
+
+/** The worker's module beside this one: TypeScript under tsx, the bundle's own file once built. */
+function workerUrl(): URL {
+  for (const rel of ['./check-worker.ts', './check-worker.mjs', '../check-worker.mjs']) {
+    const u = new URL(rel, import.meta.url);
+    if (existsSync(fileURLToPath(u))) return u;
+  }
+  throw new Error('the check worker module is missing from the installation');
+}
+
+function runWorker(job: WorkerJob): Promise<ReturnType<typeof checkFile>[]> {
+  return new Promise((resolvePromise, reject) => {
+    const url = workerUrl();
+    // Under tsx (tests, development) the worker registers tsx's loader before loading TypeScript.
+    const w = url.pathname.endsWith('.ts')
+      ? new Worker(`import('tsx/esm/api').then((api) => { api.register(); return import(${JSON.stringify(url.href)}); });`, { eval: true, workerData: job })
+      : new Worker(url, { workerData: job });
+    w.once('message', resolvePromise);
+    w.once('error', reject);
+    w.once('exit', (code) => { if (code !== 0) reject(new Error(`a check worker stopped with code ${code}`)); });
+  });
+}
+
 /** `plumbline check`: read every plan, check it against the beam data, report; batch runs go on past bad files. */
-export function runCheck(paths: readonly string[], raw: Record<string, unknown>): CommandOutcome {
+export async function runCheck(paths: readonly string[], raw: Record<string, unknown>): Promise<CommandOutcome> {
   const parsed = CheckOptionsSchema.safeParse(raw);
   if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
   const o = parsed.data;
@@ -65,34 +94,28 @@ export function runCheck(paths: readonly string[], raw: Record<string, unknown>)
   bar?.start(files.length, 0);
   const plans: PlanCheck[] = [];
   const refused: Issue[] = [];
-  for (const f of files) {
-    bar?.increment();
-    let bytes: Buffer;
-    try {
-      bytes = readFileSync(f.path);
-    } catch (e) {
-      refused.push({ severity: 'error', code: 'unreadable', file: f.path, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
-      continue;
+  const cts = ct?.ok ? ct.value : [];
+  // A large batch without CT or RT Dose is shared among worker threads, one per core.
+  const threads = Math.min(availableParallelism(), MAX_THREADS);
+  if (!cts.length && !doseGrids.length && files.length >= POOL_FROM_FILES && threads > 1) {
+    // Dealt in turn, so long plans (arcs) are shared too; results go back into file order.
+    const shares = Array.from({ length: threads }, (_, k) => files.filter((_f, i) => i % threads === k));
+    const results = await Promise.all(shares.map((share) => runWorker({ manifest: loaded.value.manifestFile, ...(o.policy ? { policyFile: o.policy } : {}), aliases: [...aliases],
+      ...(o.point ? { point: o.point } : {}), suggestPoint: o.suggestPoint, heterogeneity: o.heterogeneity, files: share })));
+    const inOrder = files.map((_f, i) => results[i % threads]![Math.floor(i / threads)]!);
+    for (const r of inOrder) {
+      if (r.plan) plans.push(r.plan);
+      refused.push(...r.refused);
     }
-    const r = importPlanBytes(bytes, f.path);
-    if (!r.ok) {
-      // In a folder, other DICOM objects (CT, structures) and non-DICOM files are not plans: skip them.
-      if (!f.explicit && r.issues.every((i) => i.code === 'not-rt-plan' || i.code === 'not-dicom')) continue;
-      refused.push(...r.issues);
-      continue;
+    bar?.update(files.length);
+  } else {
+    for (const f of files) {
+      bar?.increment();
+      const r = checkFile(f, { machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
+        heterogeneity: o.heterogeneity, ...(doseGrids.length ? { doseGrids } : {}), cts, singlePlan: files.length === 1 });
+      if (r.plan) plans.push(r.plan);
+      refused.push(...r.refused);
     }
-    const sha256 = createHash('sha256').update(bytes).digest('hex');
-    // The CT in the plan's frame of reference; with a single CT series given for a single plan, a
-    // mismatch is the user's error and the check says so (naming both frames).
-    const cts = ct?.ok ? ct.value : [];
-    const own = cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && files.length === 1 ? cts[0] : undefined);
-    const planWarnings = cts.length && !own ? [`no CT series in this plan's frame of reference among --ct: checked without CT`] : [];
-    const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, {
-      machine: loaded.value.machine, policy: policy.value, aliases, ...(o.point ? { pointPatientMm: o.point } : {}), suggestPoint: o.suggestPoint,
-      ...(own ? { ct: own } : {}), heterogeneity: o.heterogeneity,
-      ...(doseGrids.length ? { doseGrids } : {}),
-    });
-    plans.push(planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked);
   }
   bar?.stop();
   if (plans.length === 0 && refused.length === 0) refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });

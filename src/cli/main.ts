@@ -55,8 +55,8 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--body-threshold <HU>', 'HU at or above which a voxel is the body (default from the policy)')
     .option('--structures <rs.dcm>', 'RT Structure Set: its EXTERNAL structure is the body surface (else the HU threshold)')
     .option('--dose <file...>', "the planning system's RT Dose (any summation type): its dose at the point, shown beside")
-    .action((paths: string[], opts: Record<string, unknown>) => {
-      outcome = runCheck(paths, opts);
+    .action(async (paths: string[], opts: Record<string, unknown>) => {
+      outcome = await runCheck(paths, opts);
     });
 
   program

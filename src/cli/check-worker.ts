@@ -1,0 +1,30 @@
+/**
+ * A worker of a large `check` batch: loads the beam data and policy itself, checks its share of the
+ * files (without CT or RT Dose: batches with them stay in one thread) and posts the results back.
+ */
+import { parentPort, workerData } from 'node:worker_threads';
+import { loadMachine } from '../beamdata/index.js';
+import type { HeterogeneityMethod } from '../physics/index.js';
+import { loadPolicy } from './check-document.js';
+import { checkFile } from './check-file.js';
+import type { CollectedFile } from './collect-files.js';
+
+export interface WorkerJob {
+  readonly manifest: string;
+  readonly policyFile?: string;
+  readonly aliases: [string, string][];
+  readonly point?: [number, number, number];
+  readonly suggestPoint: boolean;
+  readonly heterogeneity: HeterogeneityMethod;
+  readonly files: CollectedFile[];
+}
+
+const job = workerData as WorkerJob;
+const machine = loadMachine(job.manifest);
+const policy = loadPolicy(job.policyFile);
+if (!machine.ok || !policy.ok) throw new Error('the beam data or policy could not be loaded in a worker');
+const results = job.files.map((f) => checkFile(f, {
+  machine: machine.value.machine, policy: policy.value, aliases: new Map(job.aliases), ...(job.point ? { pointPatientMm: job.point } : {}),
+  suggestPoint: job.suggestPoint, heterogeneity: job.heterogeneity, cts: [], singlePlan: false,
+}));
+parentPort!.postMessage(results);
