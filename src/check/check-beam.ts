@@ -1,6 +1,6 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
-import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam } from '../model/index.js';
+import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
@@ -23,7 +23,6 @@ export interface BeamCheckContext {
   readonly heterogeneity?: HeterogeneityMethod;
 }
 
-const MM_PER_CM = 10;
 
 /**
  * One beam's independent dose at its calculation point, without CT: geometry in mm from the plan

@@ -1,11 +1,10 @@
 import { findElectronBeam } from '../beamdata/index.js';
 import { axisAlignedRectangle, beamFrame, ctDepth, ctSsdAlongAxisMm, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
-import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue } from '../model/index.js';
+import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue, MM_PER_CM } from '../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../physics/index.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 
-const MM_PER_CM = 10;
 /** Beyond dmax, a point where the depth dose has fallen below this lies on its steep fall-off. */
 const FALL_OFF_PERCENT = 80;
 

@@ -1,13 +1,12 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { apertureAt, beamFrame, type CtDepth, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
-import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote } from '../model/index.js';
+import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote, MM_PER_CM } from '../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 
-const MM_PER_CM = 10;
 
 /** One stretch of delivery between two control points, with the MU share it delivers. */
 export interface Segment {
@@ -52,7 +51,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
 
   let dosePerMuCGy = 0;
   let homogeneousPerMuCGy = 0;
-  const mean = { depthCm: 0, ssdCm: 0, offAxisCm: 0, squareCm: 0, collimatorX: 0, collimatorY: 0, collimatorSquareCm: 0, edgeCm: 0, radiologicalCm: 0 };
+  const mean = { depthCm: 0, ssdCm: 0, offAxisCm: 0, irradiatedSquareCm: 0, collimatorXCm: 0, collimatorYCm: 0, collimatorSquareCm: 0, edgeDistanceCm: 0 };
   const depths: number[] = [];
   const radiological: number[] = [];
   const densities = [Infinity, -Infinity];
@@ -104,7 +103,6 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
       cf = heterogeneityCorrection(method, data, traced!, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm), log);
       if (!Number.isFinite(cf)) return notChecked(`${where}: the heterogeneity correction needs TPR at ${(radiologicalMm / MM_PER_CM).toFixed(2)} cm, outside the tables`);
       radiological.push(radiologicalMm / MM_PER_CM);
-      mean.radiologicalCm += s.share * (radiologicalMm / MM_PER_CM);
     }
     dosePerMuCGy += s.share * r.value.dosePerMuCGy * cf;
     homogeneousPerMuCGy += s.share * r.value.dosePerMuCGy;
@@ -112,11 +110,11 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     mean.depthCm += s.share * depthCm;
     mean.ssdCm += s.share * ssdCm;
     mean.offAxisCm += s.share * offAxisCm;
-    mean.squareCm += s.share * (square ?? 0);
-    mean.collimatorX += s.share * field.collimatorFieldCm.x;
-    mean.collimatorY += s.share * field.collimatorFieldCm.y;
+    mean.irradiatedSquareCm += s.share * (square ?? 0);
+    mean.collimatorXCm += s.share * field.collimatorFieldCm.x;
+    mean.collimatorYCm += s.share * field.collimatorFieldCm.y;
     mean.collimatorSquareCm += s.share * r.value.geometry.collimatorSquareCm;
-    mean.edgeCm += (s.share * fieldEdgeDistanceMm(aperture, [], px, py) * depthScale) / MM_PER_CM;
+    mean.edgeDistanceCm += (s.share * fieldEdgeDistanceMm(aperture, [], px, py) * depthScale) / MM_PER_CM;
     if (field.primaryWeight < 1) coveredShare += s.share;
     if (field.clarksonSectors) clarksonShare += s.share;
   }
@@ -153,7 +151,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
         setup: 'SAD',
         setupReason: 'a modulated beam: every segment in the TPR form at the point',
         ssdCm: mean.ssdCm, depthCm: mean.depthCm, offAxisCm: mean.offAxisCm,
-        collimatorFieldCm: { x: mean.collimatorX, y: mean.collimatorY }, collimatorSquareCm: mean.collimatorSquareCm, irradiatedSquareCm: mean.squareCm,
+        collimatorFieldCm: { x: mean.collimatorXCm, y: mean.collimatorYCm }, collimatorSquareCm: mean.collimatorSquareCm, irradiatedSquareCm: mean.irradiatedSquareCm,
         approximations,
         factors: factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
         dosePerMuCGy,
@@ -175,7 +173,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
         },
       },
       ...levelsOf(policy, category),
-      fitness: { edgeDistanceCm: mean.edgeCm, flags },
+      fitness: { edgeDistanceCm: mean.edgeDistanceCm, flags },
     },
   };
 }

@@ -1,6 +1,6 @@
 import { doseAtPointGy } from '../geometry/index.js';
 import type { HeterogeneityMethod } from '../physics/index.js';
-import { type BeamCheck, cGyFromGy, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
+import { type BeamCheck, cGyFromGy, MM_PER_CM, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, type Plan, type PlanCheck, type Verdict } from '../model/index.js';
 import { isModulated, unsupportedReason } from './beam-support.js';
 import { checkElectronBeam } from './check-electron.js';
 import { checkModulatedBeam } from './check-modulated.js';
@@ -142,7 +142,7 @@ function judge(beams: BeamCheck[], policy: Policy): BeamCheck[] {
       reasons.push(`CT depths: heterogeneity corrected by ${ct.method ?? 'the TPR ratio'}, CF = ${ct.correctionFactor.toFixed(4)} (homogeneous dose ${ct.homogeneousDoseCGy.toFixed(1)} cGy)`);
       if (ct.ssdDifferenceMm !== undefined && Math.abs(ct.ssdDifferenceMm) > policy.ct.ssdToleranceMm) {
         verdict = worst(verdict, 'needs review');
-        reasons.push(`the SSD from the CT (${(ct.ssdAlongAxisMm! / 10).toFixed(1)} cm) differs from the plan's (${(ct.planSsdMm! / 10).toFixed(1)} cm) by ${ct.ssdDifferenceMm.toFixed(1)} mm (tolerance ${policy.ct.ssdToleranceMm} mm): bolus missing, wrong CT or wrong isocenter?`);
+        reasons.push(`the SSD from the CT (${(ct.ssdAlongAxisMm! / MM_PER_CM).toFixed(1)} cm) differs from the plan's (${(ct.planSsdMm! / MM_PER_CM).toFixed(1)} cm) by ${ct.ssdDifferenceMm.toFixed(1)} mm (tolerance ${policy.ct.ssdToleranceMm} mm): bolus missing, wrong CT or wrong isocenter?`);
       }
     }
     const theirs = b.calculation.planningSystemDepths;

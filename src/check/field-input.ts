@@ -1,8 +1,7 @@
 import { type Aperture, type BlockOutline, pointIsOpen, sectorRings } from '../geometry/index.js';
-import type { ClarksonSector } from '../model/index.js';
+import { type ClarksonSector, MM_PER_CM } from '../model/index.js';
 import { equivalentSquareOfOutlineCm } from '../physics/index.js';
 
-const MM_PER_CM = 10;
 /** Sectors of the Clarkson integration (at least 36 are recommended; more near edges do no harm). */
 export const CLARKSON_SECTORS = 72;
 
@@ -12,8 +11,6 @@ export interface FieldInput {
   readonly collimatorFieldCm: { readonly x: number; readonly y: number };
   readonly jawAreaMm2: number;
   readonly irradiatedSquareCm: number;
-  /** Shaped by leaves inside the jaws, or blocked, or (in a modulated beam) the point is covered. */
-  readonly irregular: boolean;
   /** The open area: the aperture's, or with blocks the open rings' around the point. */
   readonly openAreaMm2: number;
   readonly clarksonSectors?: readonly ClarksonSector[];
@@ -36,10 +33,11 @@ export function fieldInput(aperture: Aperture, blocks: readonly BlockOutline[], 
   const open = pointIsOpen(aperture, blocks, x, y);
   const inJaws = x >= j.x1 && x <= j.x2 && y >= j.y1 && y <= j.y2;
   const primaryWeight = open ? 1 : inJaws && blocks.length === 0 ? leafTransmission : 0;
+  // Shaped by leaves inside the jaws, or blocked, or (in a modulated beam) the point is covered: Clarkson.
   const irregular = (aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99) || blocks.length > 0 || !open;
   const rings = irregular ? sectorRings(aperture, blocks, x, y, CLARKSON_SECTORS, leafTransmission) : undefined;
   return {
-    collimatorFieldCm, jawAreaMm2, irradiatedSquareCm, irregular,
+    collimatorFieldCm, jawAreaMm2, irradiatedSquareCm,
     openAreaMm2: rings && blocks.length ? openArea(rings) : aperture.areaMm2,
     ...(rings ? { clarksonSectors: rings.map((sector) => ({ crossingsCm: [], rings: sector.map((r) => ({ outerCm: (r.outerMm * depthScale) / MM_PER_CM, weight: r.weight })) })) } : {}),
     primaryWeight,

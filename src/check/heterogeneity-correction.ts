@@ -1,8 +1,7 @@
 import type { CtDepth } from '../geometry/index.js';
-import type { LookupLog, PhotonBeamModel } from '../model/index.js';
+import { type LookupLog, type PhotonBeamModel, MM_PER_CM } from '../model/index.js';
 import { bathoCorrection, type HeterogeneityMethod, tprRatioCorrection } from '../physics/index.js';
 
-const MM_PER_CM = 10;
 
 /** How each method is named in the result. */
 export const METHOD_TEXT: Readonly<Record<HeterogeneityMethod, string>> = {

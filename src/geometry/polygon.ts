@@ -54,10 +54,10 @@ export function polygonArea(poly: Polygon): number {
 }
 
 /** The sides of an axis-aligned rectangle given as its four corners, or undefined for any other shape. */
-export function axisAlignedRectangle(poly: Polygon): { readonly x: number; readonly y: number; readonly centre: readonly [number, number] } | undefined {
+export function axisAlignedRectangle(poly: Polygon): { readonly x: number; readonly y: number } | undefined {
   if (poly.length !== 4) return undefined;
   const xs = [...new Set(poly.map((p) => p[0]))];
   const ys = [...new Set(poly.map((p) => p[1]))];
   if (xs.length !== 2 || ys.length !== 2) return undefined;
-  return { x: Math.abs(xs[1]! - xs[0]!), y: Math.abs(ys[1]! - ys[0]!), centre: [(xs[0]! + xs[1]!) / 2, (ys[0]! + ys[1]!) / 2] };
+  return { x: Math.abs(xs[1]! - xs[0]!), y: Math.abs(ys[1]! - ys[0]!) };
 }

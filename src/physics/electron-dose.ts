@@ -1,5 +1,6 @@
 import type { ElectronBeamModel, ElectronPointInput, ElectronPointOutcome, Factor, Issue, LookupNote } from '../model/index.js';
 import { inverseSquareFactor } from './inverse-square.js';
+import { refusals } from './refusals.js';
 
 /**
  * Dose per MU at a point of an electron beam (AAPM TG-71):
@@ -37,16 +38,10 @@ export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointI
       : { key: 'PDD', value: pdd / 100, args: [d, f.sideCm, beam.pdd.ssdCm] },
     { key: 'ISF', value: inverseSquareFactor(effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap), args: [effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap], name: `effective SSD ${effectiveSsdCm.toFixed(1)} cm, air gap ${gap.toFixed(1)} cm` },
   ];
-  let dosePerMu = 1;
-  for (const x of factors) dosePerMu *= x.value;
-  const refused = log.filter((n) => n.kind === 'out-of-range');
-  if (refused.length || !Number.isFinite(dosePerMu)) {
-    return { ok: false, issues: refused.length ? refused.map((n): Issue => ({ severity: 'error', code: 'out-of-range',
-      message: `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} is outside the table (${n.range[0].toFixed(2)} to ${n.range[1].toFixed(2)} ${n.unit}) and no clamp is allowed there`,
-      expected: `${n.axis} within ${n.range[0].toFixed(2)} to ${n.range[1].toFixed(2)} ${n.unit}`, found: `${n.requested.toFixed(2)} ${n.unit}` }))
-      : [{ severity: 'error', code: 'physical-range', message: `electron beam ${beam.id}: a factor is not a finite number` }] };
-  }
-  return { ok: true, value: { dosePerMuCGy: dosePerMu, factors, airGapCm: gap, effectiveSsdCm, fieldSideCm, clamps: log } };
+  let dosePerMuCGy = 1;
+  for (const x of factors) dosePerMuCGy *= x.value;
+  if (!Number.isFinite(dosePerMuCGy) || log.some((n) => n.kind === 'out-of-range')) return { ok: false, issues: refusals(log, beam.id) };
+  return { ok: true, value: { dosePerMuCGy, factors, airGapCm: gap, effectiveSsdCm, fieldSideCm, clamps: log } };
 }
 
 /** The field's PDD (percent) at a depth: the table's, by the square-root rule for a rectangle. NaN (with a note) outside the table. */

@@ -3,8 +3,7 @@ import { pddAt, scAt, spAt, tprAt } from './beam-factors.js';
 import { clarksonSpTpr } from './clarkson.js';
 import { collimatorEquivalentSquareCm, equivalentSquareCm } from './equivalent-square.js';
 import { inverseSquareFactor, projectFieldCm } from './inverse-square.js';
-
-const fmt = (v: number, digits = 2) => v.toFixed(digits);
+import { refusals } from './refusals.js';
 
 /**
  * Dose per MU at a point (AAPM TG-71):
@@ -98,20 +97,6 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       clamps: log,
     },
   };
-}
-
-/** Every refused lookup as an issue; a non-finite factor without one is a data problem. */
-function refusals(log: readonly LookupNote[], beamId: string): Issue[] {
-  const out: Issue[] = log
-    .filter((n) => n.kind === 'out-of-range')
-    .map((n) => ({
-      severity: 'error' as const,
-      code: 'out-of-range' as const,
-      message: `${n.table}: ${n.axis} ${fmt(n.requested)} ${n.unit} is outside the table (${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}) and no clamp is allowed there`,
-      expected: `${n.axis} within ${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}`,
-      found: `${fmt(n.requested)} ${n.unit}`,
-    }));
-  return out.length ? out : [{ severity: 'error', code: 'physical-range', message: `beam ${beamId}: a factor is not a finite number` }];
 }
 
 /** MU that deliver `doseCGy` at the point: the dose-per-MU product inverted. */
