@@ -21,6 +21,18 @@ const numberOption = (what: string, zeroAllowed: boolean) =>
   });
 const positive = (what: string) => numberOption(what, false);
 
+/** `X` or `XxY` in cm, both positive: a square's side or a rectangle's sides (y absent for one side). */
+const sidesOption = (message: string) =>
+  z.string().optional().transform((s, ctx) => {
+    if (s === undefined) return undefined;
+    const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
+    if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
+      ctx.addIssue({ code: 'custom', message: `${message}, found "${s}"` });
+      return z.NEVER;
+    }
+    return { x: Number(m[1]), ...(m[2] !== undefined ? { y: Number(m[2]) } : {}) } as { x: number; y?: number };
+  });
+
 /** The options of `plumbline calc`, validated before anything is computed. */
 export const CalcOptions = z
   .object({
@@ -28,27 +40,12 @@ export const CalcOptions = z
     energy: positive('--energy (MV)'),
     fff: z.boolean().default(false),
     setup: z.enum(['SAD', 'SSD'], { message: '--setup must be SAD or SSD' }).optional(),
-    field: z.string().optional().transform((s, ctx) => {
-      if (s === undefined) return undefined;
-      const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
-      if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
-        ctx.addIssue({ code: 'custom', message: `--field must be XxY in cm (e.g. 10x12) or one side for a square, found "${s}"` });
-        return z.NEVER;
-      }
-      return { x: Number(m[1]), y: Number(m[2] ?? m[1]) };
-    }),
+    field: sidesOption('--field must be XxY in cm (e.g. 10x12) or one side for a square').transform((v) => v && { x: v.x, y: v.y ?? v.x }),
     irradiated: positive('--irradiated (equivalent square, cm)').optional(),
     depth: numberOption('--depth (cm)', true).optional(),
     applicator: z.string().min(1).optional(),
-    cutout: z.string().optional().transform((s, ctx) => {
-      if (s === undefined) return undefined;
-      const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
-      if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
-        ctx.addIssue({ code: 'custom', message: `--cutout must be XxY in cm (a rectangle) or one equivalent square side, found "${s}"` });
-        return z.NEVER;
-      }
-      return m[2] === undefined ? { kind: 'equivalent-square' as const, sideCm: Number(m[1]), method: 'as given' } : { kind: 'rectangle' as const, xCm: Number(m[1]), yCm: Number(m[2]) };
-    }),
+    cutout: sidesOption('--cutout must be XxY in cm (a rectangle) or one equivalent square side')
+      .transform((v) => v && (v.y === undefined ? { kind: 'equivalent-square' as const, sideCm: v.x, method: 'as given' } : { kind: 'rectangle' as const, xCm: v.x, yCm: v.y })),
     isodose: positive('--isodose (%)').optional(),
     mu: positive('--mu').optional(),
     dose: positive('--dose (cGy)').optional(),
