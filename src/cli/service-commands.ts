@@ -21,10 +21,7 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
   stamp(CAUTION);
   const service = await runService(opened.value, { receive: o.receive, ...(o.watch ? { watch: o.watch } : {}), log: stamp });
   if (o.watch) stamp(`watching ${o.watch}`);
-  await new Promise<void>((done) => {
-    process.once('SIGINT', () => done());
-    process.once('SIGTERM', () => done());
-  });
+  await untilStopped();
   await service.stop();
   return { stdout: [], stderr: ['stopped'], exitCode: 0 };
 }
@@ -36,10 +33,7 @@ export async function runServe(configFile: string): Promise<CommandOutcome> {
   const history = new HistoryStore(config.value.history.database);
   stamp(CAUTION);
   const web = await startWebServer({ host: config.value.serve.host, port: config.value.serve.port, history, log: stamp });
-  await new Promise<void>((done) => {
-    process.once('SIGINT', () => done());
-    process.once('SIGTERM', () => done());
-  });
+  await untilStopped();
   await web.close();
   history.close();
   return { stdout: [], stderr: ['stopped'], exitCode: 0 };
@@ -75,6 +69,14 @@ export function runHistory(raw: Record<string, unknown>): CommandOutcome {
   } finally {
     store.close();
   }
+}
+
+/** Long-running commands run until SIGINT or SIGTERM. */
+function untilStopped(): Promise<void> {
+  return new Promise((done) => {
+    process.once('SIGINT', () => done());
+    process.once('SIGTERM', () => done());
+  });
 }
 
 function refuse(lines: readonly string[]): CommandOutcome {

@@ -87,9 +87,8 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly oth
     issues.push(...head.issues);
     return undefined;
   }
-  const { parsed: value, size } = head.value;
-  const parsed = { value };
-  const ds = parsed.value.dataSet;
+  const { parsed, size } = head.value;
+  const ds = parsed.dataSet;
   const r = new ItemReader(ds, { file, path: '' }, issues, 'latin1');
   const sopClassUid = r.string('SOPClassUID');
   if (sopClassUid !== CT_IMAGE_STORAGE) return { otherSopClassUid: sopClassUid };
@@ -114,7 +113,7 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly oth
     issues.push({ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'only 16-bit greyscale CT is read', expected: '16 bits, 1 sample', found: `${bits} bits` });
     return undefined;
   }
-  const deflatedFile = parsed.value.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
+  const deflatedFile = parsed.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
   if (el.length !== rows * columns * 2 || el.dataOffset + el.length > (deflatedFile ? ds.byteArray.length : size)) {
     issues.push({ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match Rows × Columns or run past the end of the file', expected: `${rows * columns * 2} bytes`, found: `${el.length}` });
     return undefined;
@@ -124,7 +123,7 @@ function readHeader(file: string, issues: Issue[]): SliceHeader | { readonly oth
   return {
     file, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
     signed: r.integer('PixelRepresentation') === 1, bitsStored: Math.min(16, Math.max(1, r.integer('BitsStored') ?? 16)), slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
-    bigEndian: parsed.value.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
+    bigEndian: parsed.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
     ...(deflatedPixels ? { pixels: deflatedPixels } : {}),
   };
 }
@@ -213,7 +212,9 @@ function readInto(file: string, target: Uint8Array, position: number): void {
 function rescaleInPlace(slice: Int16Array, signed: boolean, bitsStored: number, intercept: number): void {
   const min = signed ? -(2 ** (bitsStored - 1)) : 0;
   const max = signed ? 2 ** (bitsStored - 1) - 1 : 2 ** bitsStored - 1;
-  if (min + intercept >= -32768 && max + intercept <= 32767 && slice.byteOffset % 4 === 0) {
+  // Bits Stored bounds the stored values: when no result can leave Int16, the 16-bit wrap-around
+  // addition is exact whatever the stored values' sign (the bits above Bits Stored must be clear).
+  if (min + intercept >= -32768 && max + intercept <= 32767) {
     addInPlace(slice, intercept);
     return;
   }

@@ -28,9 +28,8 @@ export interface ObjectSummary {
 export function readObjectSummary(file: string): { ok: true; value: ObjectSummary } | { ok: false; issues: Issue[] } {
   const head = parseHead(file);
   if (!head.ok) return head;
-  const parsed = { value: head.value.parsed };
   const issues: Issue[] = [];
-  const r = new ItemReader(parsed.value.dataSet, { file, path: '' }, issues, 'latin1');
+  const r = new ItemReader(head.value.parsed.dataSet, { file, path: '' }, issues, 'latin1');
   const sopClassUid = r.string('SOPClassUID');
   const sopInstanceUid = r.string('SOPInstanceUID');
   const kind = (Object.keys(STORAGE_CLASSES) as ObjectKind[]).find((k) => STORAGE_CLASSES[k] === sopClassUid);
