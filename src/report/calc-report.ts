@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { factorLabel, type LookupNote, type MachineModel, type PhotonBeamModel, type PhotonPointInput, type PhotonPointResult } from '../model/index.js';
 
 import { CAUTION } from './caution.js';
+import { handCalculation } from './hand-calculation.js';
 
 
 export interface CalcReport {
@@ -29,12 +30,7 @@ export function calcText(r: CalcReport): string[] {
     `  irradiated equivalent square ${g.surfaceSquareCm.toFixed(2)} cm at the surface, ${g.squareAtD0Cm.toFixed(2)} cm at d0, ${g.squareAtDepthCm.toFixed(2)} cm at depth`,
     `  depth ${r.input.depthCm} cm, SSD ${r.input.ssdCm} cm (${r.ssdNote}), source to point ${g.sourceToPointCm.toFixed(2)} cm, off-axis ${g.offAxisCm} cm`,
     '',
-    ...r.result.factors.map((f) => `  ${factorLabel(f).padEnd(44)} = ${f.value.toFixed(4)}`),
-    `  ${'dose per MU'.padEnd(44)} = ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU`,
-    '',
-    r.given === 'mu'
-      ? `  dose = ${r.mu} MU x ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU = ${r.doseCGy.toFixed(1)} cGy`
-      : `  MU = ${r.doseCGy} cGy / ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU = ${r.mu.toFixed(1)} MU`,
+    ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
   ];
   if (r.result.clamps.length) out.push('', ...r.result.clamps.map((n) => `  note: ${note(n)}`));
   out.push('', CAUTION);

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { type ElectronBeamModel, type ElectronPointInput, type ElectronPointResult, factorLabel, type MachineModel } from '../model/index.js';
 import { CAUTION } from './caution.js';
+import { handCalculation } from './hand-calculation.js';
 
 export interface ElectronCalcReport {
   readonly machine: MachineModel;
@@ -25,12 +26,7 @@ export function electronCalcText(r: ElectronCalcReport): string[] {
     `  applicator ${r.input.applicatorId}, ${fieldText(r.input.field)}`,
     `  depth ${r.input.depthCm.toFixed(2)} cm${r.isodosePercent !== undefined ? ` (the depth of the ${r.isodosePercent} % isodose on the central axis)` : ''}, SSD ${r.input.ssdCm} cm (air gap ${r.result.airGapCm.toFixed(1)} cm, effective SSD ${r.result.effectiveSsdCm.toFixed(1)} cm)`,
     '',
-    ...r.result.factors.map((f) => `  ${factorLabel(f).padEnd(44)} = ${f.value.toFixed(4)}`),
-    `  ${'dose per MU'.padEnd(44)} = ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU`,
-    '',
-    r.given === 'mu'
-      ? `  dose = ${r.mu} MU x ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU = ${r.doseCGy.toFixed(1)} cGy`
-      : `  MU = ${r.doseCGy} cGy / ${r.result.dosePerMuCGy.toFixed(4)} cGy/MU = ${r.mu.toFixed(1)} MU`,
+    ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
     ...r.result.clamps.map((n) => `  note: ${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}, as the beam data allow`),
     '',
     CAUTION,
