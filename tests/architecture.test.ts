@@ -11,7 +11,7 @@ const SRC = fileURLToPath(new URL('../src/', import.meta.url));
 
 const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   model: ['model', 'zod'],
-  dicom: ['model', 'dicom', 'dicom-parser', 'node:zlib', 'node:fs'],
+  dicom: ['model', 'dicom', 'dicom-parser', 'node:zlib', 'node:fs', 'node:worker_threads'], // a second thread reads CT pixels
   geometry: ['model', 'geometry'],
   beamdata: ['model', 'beamdata', 'zod', 'node:fs', 'node:path'],
   physics: ['model', 'physics'],

@@ -34,7 +34,7 @@ try {
   const pyCode = 'import sys, glob, time, pydicom\nt = time.time()\nfor f in glob.glob(sys.argv[1] + "/*.dcm"): pydicom.dcmread(f).pixel_array\nprint(time.time() - t)';
   const py = python ? Math.min(...[0, 1].map(() => Number(seconds(python, ['-c', pyCode, dir]).stdout))) : Number.NaN;
   const load = best.loadMs / 1000;
-  console.log(`CT 200 x 512 x 512: load ${load.toFixed(2)} s, cat ${cat.toFixed(2)} s: ratio ${(load / cat).toFixed(1)}x (target <= 3x); pydicom with pixel data ${py.toFixed(2)} s: plumbline / pydicom = ${(load / py).toFixed(2)} (target < 1)`);
+  console.log(`CT 200 x 512 x 512: load ${(1000 * load).toFixed(0)} ms, cat ${(1000 * cat).toFixed(0)} ms: ratio ${(load / cat).toFixed(1)}x (target <= 3x); pydicom with pixel data ${(1000 * py).toFixed(0)} ms: plumbline / pydicom = ${(load / py).toFixed(2)} (target < 1)`);
   console.log(`trace: four-field plan ${best.fourFieldTraceMs.toFixed(1)} ms (4 rays), two-arc plan ${best.twoArcTraceMs.toFixed(1)} ms (356 rays)`);
   console.log(`peak memory ${(best.peakKb / 1024).toFixed(0)} MiB; Int16 volume ${(best.volumeBytes / 2 ** 20).toFixed(0)} MiB + Node baseline ${(baseline / 1024).toFixed(0)} MiB = ${((best.volumeBytes / 1024 + baseline) / 1024).toFixed(0)} MiB; target <= 1.5 x volume + baseline = ${((1.5 * best.volumeBytes / 1024 + baseline) / 1024).toFixed(0)} MiB`);
 } finally {

@@ -20,7 +20,7 @@ const BODY = [0x01, 0x01, 0x7b, ...CODE]; // one local of type v128
 const MODULE = new Uint8Array([
   0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
   0x01, 0x07, 0x01, 0x60, 0x03, 0x7f, 0x7f, 0x7f, 0x00, // type: (i32 i32 i32) -> ()
-  0x02, 0x0c, 0x01, 0x03, 0x65, 0x6e, 0x76, 0x03, 0x6d, 0x65, 0x6d, 0x02, 0x00, 0x01, // import env.mem (memory 1)
+  0x02, 0x0f, 0x01, 0x03, 0x65, 0x6e, 0x76, 0x03, 0x6d, 0x65, 0x6d, 0x02, 0x03, 0x01, 0x80, 0x80, 0x04, // import env.mem (shared memory 1 .. 65536 pages)
   0x03, 0x02, 0x01, 0x00, // function 0 of type 0
   0x07, 0x07, 0x01, 0x03, 0x61, 0x64, 0x64, 0x00, 0x00, // export "add"
   0x0a, BODY.length + 2, 0x01, BODY.length, ...BODY, // code
@@ -28,12 +28,16 @@ const MODULE = new Uint8Array([
 
 const PAGE_BYTES = 65536;
 type Add = (fromByte: number, toByte: number, k: number) => void;
-const added = new WeakMap<ArrayBuffer, Add>();
+const added = new WeakMap<ArrayBufferLike, Add>();
 
-/** A zeroed Int16Array of n values; in WebAssembly memory (so `addInPlace` can use SIMD) when available. */
+/**
+ * A zeroed Int16Array of n values; in shared WebAssembly memory when available, so `addInPlace` can
+ * use SIMD and a second thread can read files into it (see parallel-read.ts).
+ */
 export function allocateInt16(n: number): Int16Array {
   if (typeof WebAssembly === 'undefined' || !WebAssembly.validate(MODULE)) return new Int16Array(n);
-  const memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil((2 * n) / PAGE_BYTES)) });
+  const pages = Math.max(1, Math.ceil((2 * n) / PAGE_BYTES));
+  const memory = new WebAssembly.Memory({ initial: pages, maximum: pages, shared: true });
   const instance = new WebAssembly.Instance(new WebAssembly.Module(MODULE), { env: { mem: memory } });
   added.set(memory.buffer, instance.exports.add as Add);
   return new Int16Array(memory.buffer, 0, n);
@@ -41,7 +45,7 @@ export function allocateInt16(n: number): Int16Array {
 
 /** values[i] += k for every value (16-bit wrap-around: the caller has made sure no result leaves Int16). */
 export function addInPlace(values: Int16Array, k: number): void {
-  const add = added.get(values.buffer as ArrayBuffer);
+  const add = added.get(values.buffer);
   let from = 0;
   if (add && values.byteOffset % 16 === 0) {
     const whole = values.length - (values.length % 8);
