@@ -1,6 +1,6 @@
 /**
  * A worker of a large `check` batch: loads the beam data and policy itself, checks its share of the
- * files (without CT or RT Dose: batches with them stay in one thread) and posts the results back.
+ * files (without CT or RT Dose: batches with them stay in one thread) and posts each result back.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadMachine } from '../beamdata/index.js';
@@ -19,12 +19,20 @@ export interface WorkerJob {
   readonly files: CollectedFile[];
 }
 
+/** One file's result (k: its place in the share), sent as soon as it is checked; then `done`. */
+export type WorkerMessage = { readonly done?: undefined; readonly k: number; readonly result: ReturnType<typeof checkFile> } | { readonly done: true };
+
 const job = workerData as WorkerJob;
 const machine = loadMachine(job.manifest);
 const policy = loadPolicy(job.policyFile);
 if (!machine.ok || !policy.ok) throw new Error('the beam data or policy could not be loaded in a worker');
-const results = job.files.map((f) => checkFile(f, {
-  machine: machine.value.machine, policy: policy.value, aliases: new Map(job.aliases), ...(job.point ? { pointPatientMm: job.point } : {}),
-  suggestPoint: job.suggestPoint, heterogeneity: job.heterogeneity, cts: [], singlePlan: false,
-}));
-parentPort!.postMessage(results);
+const aliases = new Map(job.aliases);
+// Sent one by one, so the main thread takes in results while this one checks the next files.
+job.files.forEach((f, k) => {
+  const result = checkFile(f, {
+    machine: machine.value.machine, policy: policy.value, aliases, ...(job.point ? { pointPatientMm: job.point } : {}),
+    suggestPoint: job.suggestPoint, heterogeneity: job.heterogeneity, cts: [], singlePlan: false,
+  });
+  parentPort!.postMessage({ k, result } satisfies WorkerMessage);
+});
+parentPort!.postMessage({ done: true } satisfies WorkerMessage);

@@ -15,7 +15,7 @@ import { resolveBeamDataPath } from './beam-data-path.js';
 import { collectFiles } from './collect-files.js';
 import { checkDocument, loadPolicy } from './check-document.js';
 import { checkFile } from './check-file.js';
-import type { WorkerJob } from './check-worker.js';
+import type { WorkerJob, WorkerMessage } from './check-worker.js';
 import { loadPatientCts } from './patient-ct.js';
 import type { CommandOutcome } from './outcome.js';
 
@@ -57,14 +57,15 @@ function workerUrl(): URL {
   throw new Error('the check worker module is missing from the installation');
 }
 
-function runWorker(job: WorkerJob): Promise<ReturnType<typeof checkFile>[]> {
+/** Runs one worker over its share; each file's result arrives as soon as it is checked (k: its place in the share). */
+function runWorker(job: WorkerJob, onResult: (k: number, r: ReturnType<typeof checkFile>) => void): Promise<void> {
   return new Promise((resolvePromise, reject) => {
     const url = workerUrl();
     // Under tsx (tests, development) the worker registers tsx's loader before loading TypeScript.
     const w = url.pathname.endsWith('.ts')
       ? new Worker(`import('tsx/esm/api').then((api) => { api.register(); return import(${JSON.stringify(url.href)}); });`, { eval: true, workerData: job })
       : new Worker(url, { workerData: job });
-    w.once('message', resolvePromise);
+    w.on('message', (m: WorkerMessage) => (m.done ? resolvePromise() : onResult(m.k, m.result)));
     w.once('error', reject);
     w.once('exit', (code) => { if (code !== 0) reject(new Error(`a check worker stopped with code ${code}`)); });
   });
@@ -100,10 +101,13 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
   if (!cts.length && !doseGrids.length && files.length >= POOL_FROM_FILES && threads > 1) {
     // Dealt in turn, so long plans (arcs) are shared too; results go back into file order.
     const shares = Array.from({ length: threads }, (_, k) => files.filter((_f, i) => i % threads === k));
-    const results = await Promise.all(shares.map((share) => runWorker({ manifest: loaded.value.manifestFile, ...(o.policy ? { policyFile: o.policy } : {}), aliases: [...aliases],
-      ...(o.point ? { point: o.point } : {}), suggestPoint: o.suggestPoint, heterogeneity: o.heterogeneity, files: share })));
-    const inOrder = files.map((_f, i) => results[i % threads]![Math.floor(i / threads)]!);
-    for (const r of inOrder) {
+    const results: ReturnType<typeof checkFile>[] = new Array(files.length);
+    await Promise.all(shares.map((share, t) => runWorker({ manifest: loaded.value.manifestFile, ...(o.policy ? { policyFile: o.policy } : {}), aliases: [...aliases],
+      ...(o.point ? { point: o.point } : {}), suggestPoint: o.suggestPoint, heterogeneity: o.heterogeneity, files: share }, (k, r) => {
+      results[k * threads + t] = r;
+      bar?.increment();
+    })));
+    for (const r of results) {
       if (r.plan) plans.push(r.plan);
       refused.push(...r.refused);
     }
