@@ -92,9 +92,16 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
   // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
-  // The open bands in order across the leaves, for a binary search by v.
-  const flat = new Float64Array(4 * segments.length);
-  segments.forEach((g, k) => flat.set([g.ax, g.ay, g.bx, g.by], 4 * k));
+  // The outline's edges are all along u or along v: kept apart as (position, from, to) triples, so a
+  // ray's crossing with each is one multiplication and a range test (the sectors' hot loop).
+  const alongV: number[] = [];
+  const alongU: number[] = [];
+  for (const g of segments) {
+    if (g.ax === g.bx && g.ay !== g.by) alongV.push(g.ax, Math.min(g.ay, g.by), Math.max(g.ay, g.by));
+    else if (g.ay === g.by && g.ax !== g.bx) alongU.push(g.ay, Math.min(g.ax, g.bx), Math.max(g.ax, g.bx));
+  }
+  const edgesV = Float64Array.from(alongV);
+  const edgesU = Float64Array.from(alongU);
   const inOpen = (u: number, v: number): boolean => {
     let lo = 0;
     let hi = open.length - 1;
@@ -139,18 +146,24 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
         const du = swapped ? Math.sin(t) : Math.cos(t);
         const dv = swapped ? Math.cos(t) : Math.sin(t);
         const hits: number[] = [];
-        // Ray (pu, pv) + s·(du, dv) against each segment a + q·(b − a), q in [0, 1]: inline, no allocation.
-        for (let k = 0; k < flat.length; k += 4) {
-          const ex = flat[k + 2]! - flat[k]!;
-          const ey = flat[k + 3]! - flat[k + 1]!;
-          const den = du * ey - dv * ex;
-          if (Math.abs(den) < 1e-12) continue;
-          const wx = flat[k]! - pu;
-          const wy = flat[k + 1]! - pv;
-          const q = (wx * dv - wy * du) / den;
-          if (q < 0 || q > 1) continue;
-          const h = (wx * ey - wy * ex) / den;
-          if (h > 1e-9) hits.push(h);
+        // Ray (pu, pv) + s·(du, dv) against each edge, inline and without allocation.
+        if (Math.abs(du) > 1e-12) {
+          const inv = 1 / du;
+          for (let k = 0; k < edgesV.length; k += 3) {
+            const h = (edgesV[k]! - pu) * inv;
+            if (h <= 1e-9) continue;
+            const at = pv + h * dv;
+            if (at >= edgesV[k + 1]! && at <= edgesV[k + 2]!) hits.push(h);
+          }
+        }
+        if (Math.abs(dv) > 1e-12) {
+          const inv = 1 / dv;
+          for (let k = 0; k < edgesU.length; k += 3) {
+            const h = (edgesU[k]! - pv) * inv;
+            if (h <= 1e-9) continue;
+            const at = pu + h * du;
+            if (at >= edgesU[k + 1]! && at <= edgesU[k + 2]!) hits.push(h);
+          }
         }
         hits.sort((a, b) => a - b);
         let m = 0;
