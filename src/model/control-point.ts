@@ -1,6 +1,14 @@
 import { z } from 'zod';
 import { finite, PatientPointMm } from './vectors.js';
 
+/**
+ * A list of finite numbers, checked in one pass. Why not z.array(finite): a VMAT plan holds some
+ * 170 000 leaf positions, and a schema per value made the model's check a quarter of the import.
+ */
+const finiteNumbers = z.custom<readonly number[]>((v) => Array.isArray(v) && v.every((x) => typeof x === 'number' && Number.isFinite(x)), {
+  message: 'expected a list of finite numbers',
+});
+
 export const RotationDirection = z.enum(['CW', 'CC', 'NONE']);
 export type RotationDirection = z.infer<typeof RotationDirection>;
 
@@ -12,7 +20,7 @@ export type BeamLimitingDeviceType = z.infer<typeof BeamLimitingDeviceType>;
  * the isocenter plane. Jaws: [X1, X2] (or [Y1, Y2]). Leaves: bank 1 (leaves 1..N) then bank 2.
  */
 export const DevicePosition = z
-  .object({ type: BeamLimitingDeviceType, positionsMm: z.array(finite).readonly() })
+  .object({ type: BeamLimitingDeviceType, positionsMm: finiteNumbers })
   .readonly();
 export type DevicePosition = z.infer<typeof DevicePosition>;
 
