@@ -1,12 +1,11 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
-import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
+import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type PlanningSystemDepths, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import type { PatientCt } from './patient-ct.js';
-import { planningSystemDepths } from './planning-system-depths.js';
 import type { Policy } from './policy.js';
 
 export interface BeamCheckContext {
@@ -21,6 +20,8 @@ export interface BeamCheckContext {
   readonly ct?: PatientCt;
   /** How photon doses are corrected for heterogeneity with the CT (default: the TPR ratio). */
   readonly heterogeneity?: HeterogeneityMethod;
+  /** The planning system's own depths at this point, when the plan carries them (see planning-system-depths.ts). */
+  readonly planningSystemDepths?: PlanningSystemDepths | undefined;
 }
 
 
@@ -174,7 +175,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
 
   const heterogeneous = isHeterogeneous(policy, ctResult?.densityRange);
   const category = categorize(policy, { wedged: !!wedgeIn, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
-  const planningSystemDepths = theirDepths(beam, entry, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
+  const planningSystemDepths = theirDepths(ctx.planningSystemDepths, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
     ok: true,
     value: {
@@ -285,8 +286,7 @@ function suggest(aperture: Aperture, blocks: readonly BlockOutline[], at: Return
 }
 
 /** The planning system's own depth data beside ours, with the differences. */
-function theirDepths(beam: Beam, entry: ReferencedBeam, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
-  const t = planningSystemDepths(beam, entry);
+function theirDepths(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
   if (!t) return undefined;
   return {
     ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),

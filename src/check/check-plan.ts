@@ -6,6 +6,7 @@ import { checkElectronBeam } from './check-electron.js';
 import { checkModulatedBeam } from './check-modulated.js';
 import { beamStub, checkBeam } from './check-beam.js';
 import { choosePoint } from './choose-point.js';
+import { planningSystemDepths } from './planning-system-depths.js';
 import { matchMachine } from './match-machine.js';
 import type { PatientCt } from './patient-ct.js';
 import type { Policy } from './policy.js';
@@ -60,7 +61,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
       if (!point) return { ...stub, reason: 'no calculation point: the plan names none and the beam has no isocenter' };
       if (o.ct && !ct) return { ...stub, reason: 'the CT does not belong to this plan' };
-      const r = (beam.radiationType === 'ELECTRON' ? checkElectronBeam : isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}), ...(o.heterogeneity ? { heterogeneity: o.heterogeneity } : {}) });
+      const r = (beam.radiationType === 'ELECTRON' ? checkElectronBeam : isModulated(beam) ? checkModulatedBeam : checkBeam)({ beam, entry, point, patientPosition: position!, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ...(ct ? { ct } : {}), ...(o.heterogeneity ? { heterogeneity: o.heterogeneity } : {}), planningSystemDepths: planningSystemDepths(plan, g, entry, beam, point) });
       if (!r.ok) {
         issues.push({ ...r.issue, file: file.path });
         return { ...stub, reason: r.issue.message };

@@ -21,7 +21,7 @@ export function choosePoint(plan: Plan, group: FractionGroup, entry: ReferencedB
   const byUid = entry.doseReferenceUid ? plan.doseReferences.find((d) => d.uid === entry.doseReferenceUid && d.pointPatientMm) : undefined;
   if (byUid) {
     return { source: 'dose-reference', reason: `dose reference ${byUid.number} named by the beam's Referenced Dose Reference UID`,
-      patientMm: [...byUid.pointPatientMm!] as Point3, planningSystemDoseHere: true };
+      patientMm: [...byUid.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: byUid.number };
   }
   const groupRefs = group.doseReferences
     .map((r) => plan.doseReferences.find((d) => d.number === r.doseReferenceNumber))
@@ -29,13 +29,13 @@ export function choosePoint(plan: Plan, group: FractionGroup, entry: ReferencedB
   if (groupRefs.length === 1) {
     const d = groupRefs[0]!;
     return { source: 'dose-reference', reason: `dose reference ${d.number}, the fraction group's only dose reference with coordinates`,
-      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true };
+      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
   }
   const targets = plan.doseReferences.filter((d) => d.pointPatientMm && d.type === 'TARGET');
   if (targets.length === 1) {
     const d = targets[0]!;
     return { source: 'prescription-point', reason: `dose reference ${d.number}, the plan's only target point`,
-      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true };
+      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
   }
   const iso = beam.controlPoints[0]?.isocenterPatientMm;
   if (!iso) return undefined;

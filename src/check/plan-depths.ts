@@ -18,7 +18,7 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
       const sadMm = beam.sourceAxisDistanceMm ?? DEFAULT_SAD_MM;
       const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
       const point = choosePoint(plan, g, entry, beam);
-      const theirs = planningSystemDepths(beam, entry);
+      const theirs = planningSystemDepths(plan, g, entry, beam, point);
       for (const cp of arc ? cps : [cps[0]!]) {
         const base = { beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}), ...(arc ? { controlPointIndex: cp.index } : {}), gantryAngleDeg: cp.gantryAngleDeg,
           ...(cp.ssdMm !== undefined ? { planSsdMm: cp.ssdMm } : {}), ...(theirs && !arc ? { planningSystem: theirs } : {}) };

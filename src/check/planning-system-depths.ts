@@ -1,11 +1,27 @@
-import type { Beam, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
+import type { Beam, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
+import { choosePoint } from './choose-point.js';
+
+/** Points within this distance are the same point (coordinates are written to 0.1 mm or finer). */
+const SAME_POINT_MM = 0.5;
 
 /**
- * The planning system's Beam Dose Point Depth, Equivalent Depth and SSD for a beam: the current
- * Beam Dose Verification Control Point Sequence first, else the retired per-beam attributes.
+ * The planning system's Beam Dose Point Depth, Equivalent Depth and SSD for a beam at the point
+ * where it states the beam's dose: from the Beam Dose Verification Control Point Sequence of that
+ * point's dose reference, else from the retired per-beam attributes (which go with the Beam Dose).
+ * None for a point of the user's elsewhere: the planning system's depths belong to its own point.
+ * When the plan names no point (the isocenter is used), the first depths the beam carries.
  */
-export function planningSystemDepths(beam: Beam, entry: ReferencedBeam): PlanningSystemDepths | undefined {
-  const v = beam.doseVerification.flatMap((d) => d.points).find((p) => p.pointDepthMm !== undefined || p.ssdMm !== undefined);
+export function planningSystemDepths(plan: Plan, group: FractionGroup, entry: ReferencedBeam, beam: Beam, point: CalculationPoint | undefined): PlanningSystemDepths | undefined {
+  if (point?.source === 'user' && !point.planningSystemDoseHere) return undefined;
+  const stated = point?.source === 'user' ? choosePoint(plan, group, entry, beam) : point;
+  const references = stated?.doseReferenceNumber !== undefined ? [stated.doseReferenceNumber]
+    : stated?.source === 'beam-dose-specification-point'
+      ? plan.doseReferences.filter((d) => d.pointPatientMm && d.pointPatientMm.every((v, i) => Math.abs(v - stated.patientMm[i]!) < SAME_POINT_MM)).map((d) => d.number)
+      : undefined;
+  const v = beam.doseVerification
+    .filter((d) => !references || references.includes(d.doseReferenceNumber))
+    .flatMap((d) => d.points)
+    .find(hasDepths);
   const depthMm = v?.pointDepthMm ?? entry.pointDepthMm;
   const equivalentDepthMm = v?.equivalentDepthMm ?? entry.equivalentDepthMm;
   const ssdMm = v?.ssdMm ?? entry.pointSsdMm;
@@ -15,4 +31,8 @@ export function planningSystemDepths(beam: Beam, entry: ReferencedBeam): Plannin
     ...(equivalentDepthMm !== undefined ? { equivalentDepthMm } : {}),
     ...(ssdMm !== undefined ? { ssdMm } : {}),
   };
+}
+
+function hasDepths(p: DoseVerificationPoint): boolean {
+  return p.pointDepthMm !== undefined || p.equivalentDepthMm !== undefined || p.ssdMm !== undefined;
 }

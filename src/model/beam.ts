@@ -78,6 +78,8 @@ export const DoseVerificationPoint = z
   })
   .readonly();
 
+export type DoseVerificationPoint = z.infer<typeof DoseVerificationPoint>;
+
 export const BeamDoseVerification = z
   .object({
     doseReferenceNumber: z.number().int(),

@@ -16,6 +16,8 @@ export const CalculationPoint = z.object({
   patientMm: z.tuple([z.number(), z.number(), z.number()]),
   /** Whether the planning system's Beam Dose is stated at this point (else the comparison is an assumption). */
   planningSystemDoseHere: z.boolean(),
+  /** The dose reference whose point this is, when it is one. */
+  doseReferenceNumber: z.number().int().optional(),
 });
 export type CalculationPoint = z.infer<typeof CalculationPoint>;
 
