@@ -24,9 +24,7 @@ export interface FieldInput {
  * equivalent square; anything else gets Clarkson sectors (geometry in mm hands over to cm here).
  */
 export function fieldInput(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, depthScale: number, leafTransmission: number): FieldInput {
-  const e = aperture.openExtentMm;
-  const j = { x1: aperture.hasJaws.x ? aperture.jawsMm.x1 : e.x1, x2: aperture.hasJaws.x ? aperture.jawsMm.x2 : e.x2,
-    y1: aperture.hasJaws.y ? aperture.jawsMm.y1 : e.y1, y2: aperture.hasJaws.y ? aperture.jawsMm.y2 : e.y2 };
+  const j = aperture.collimatingMm;
   const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
   const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
   const irradiatedSquareCm = equivalentSquareOfOutlineCm(aperture.areaMm2 / (MM_PER_CM * MM_PER_CM), aperture.perimeterMm / MM_PER_CM);

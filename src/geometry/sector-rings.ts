@@ -1,4 +1,4 @@
-import type { Aperture } from './aperture.js';
+import type { Aperture, Ring } from './aperture.js';
 import { insidePolygon, polygonEdgeDistance, polygonRayCrossings, type Polygon } from './polygon.js';
 
 export interface BlockOutline {
@@ -7,23 +7,21 @@ export interface BlockOutline {
   readonly transmission: number;
 }
 
-export interface Ring {
-  /** Outer radius of the ring from the point, mm at the isocenter plane. */
-  readonly outerMm: number;
-  /** 1 where open, the leaves' or the block's transmission where they block, 0 beyond the jaws. */
-  readonly weight: number;
-}
-
 /**
- * The rings of each of n sectors around (x, y): every place the sector crosses an edge (of the
- * jaws, the leaves or a block) starts a new ring, and each ring is weighed by what covers its
- * middle. Handles any outline the three make together, re-entrant or not.
+ * The rings of each of n sectors around (x, y). Jaws and leaves alone: the aperture walks its leaf
+ * bands (`sectorRingsMm`). With blocks: every place the sector crosses an edge (of the jaws, the
+ * leaves or a block) starts a new ring, and each ring is weighed by what covers its middle, which
+ * handles any outline the three make together, re-entrant or not.
  */
 export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
+  if (blocks.length === 0) return aperture.sectorRingsMm(x, y, n, leafTransmission);
+  return crossingRings(aperture, blocks, x, y, n, leafTransmission);
+}
+
+/** The general form (any blocks), by the crossings of each sector with every edge; exported for the tests. */
+export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
   // Along an axis without jaws the leaves' open extent bounds the field (no transmission beyond it).
-  const e = aperture.openExtentMm;
-  const jaws = aperture.jawsMm;
-  const j = { x1: aperture.hasJaws.x ? jaws.x1 : e.x1, x2: aperture.hasJaws.x ? jaws.x2 : e.x2, y1: aperture.hasJaws.y ? jaws.y1 : e.y1, y2: aperture.hasJaws.y ? jaws.y2 : e.y2 };
+  const j = aperture.collimatingMm;
   const inJaws = (px: number, py: number) => px >= j.x1 && px <= j.x2 && py >= j.y1 && py <= j.y2;
   const weightAt = (px: number, py: number): number => {
     if (!inJaws(px, py)) return 0;
@@ -43,7 +41,9 @@ export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[],
     const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
     const jawExit = Math.max(0, Math.min(tx, ty));
     // The aperture's crossings come sorted; blocks add theirs (then all are sorted again).
-    const all = blocks.length ? [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy))].sort((a, b) => a - b) : apertureCuts;
+    // Entering the collimating opening (a point outside it) also starts a ring.
+    const enter = Math.max(dx > 0 ? (j.x1 - x) / dx : dx < 0 ? (j.x2 - x) / dx : -Infinity, dy > 0 ? (j.y1 - y) / dy : dy < 0 ? (j.y2 - y) / dy : -Infinity);
+    const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort((a, b) => a - b);
     const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
     const rings: Ring[] = [];
     let from = 0;
