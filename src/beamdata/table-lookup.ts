@@ -62,7 +62,7 @@ export function makeTableLookup(spec: TableSpec): TableLookup {
   const interp1 = (v0: number, v1: number, t: number, useLog: boolean): number =>
     useLog && v0 > 0 && v1 > 0 ? Math.exp(Math.log(v0) + t * (Math.log(v1) - Math.log(v0))) : v0 + t * (v1 - v0);
 
-  return {
+  const lookup: TableLookup = {
     name,
     rows,
     ...(columns ? { columns } : {}),
@@ -91,5 +91,32 @@ export function makeTableLookup(spec: TableSpec): TableLookup {
       const v1 = interp1(values[i0 * nc + j1]!, values[i1 * nc + j1]!, tr, logRows);
       return v0 + tc * (v1 - v0);
     },
+    atRow(row: number, log: LookupLog): (column: number, log: LookupLog) => number {
+      // A refused row stays refused by every lookup, each writing its note, as `at` does.
+      const notes: LookupLog = [];
+      const r = Number.isFinite(row) ? along(rows, row, c.rowsBelow ?? 0, c.rowsAbove ?? 0, notes) : Number.NaN;
+      if (!columns || Number.isNaN(r)) return (column, l) => lookup.at(row, column, l);
+      log.push(...notes);
+      // The same arithmetic as `at`, the row's part done once per column.
+      const ra = rows.values;
+      const i = bracket(ra, r);
+      const tr = i < 0 ? 0 : (r - ra[i]!) / (ra[i + 1]! - ra[i]!);
+      const i0 = i < 0 ? 0 : i;
+      const i1 = i < 0 ? 0 : i + 1;
+      const slice = new Float64Array(nc);
+      for (let j = 0; j < nc; j++) slice[j] = interp1(values[i0 * nc + j]!, values[i1 * nc + j]!, tr, logRows);
+      const ca = columns.values;
+      return (column: number, l: LookupLog): number => {
+        if (!Number.isFinite(column)) return lookup.at(row, column, l);
+        const col = along(columns, column, c.columnsBelow ?? 0, c.columnsAbove ?? 0, l);
+        if (Number.isNaN(col)) return Number.NaN;
+        const j = bracket(ca, col);
+        const tc = j < 0 ? 0 : (col - ca[j]!) / (ca[j + 1]! - ca[j]!);
+        const v0 = slice[j < 0 ? 0 : j]!;
+        const v1 = slice[j < 0 ? 0 : j + 1]!;
+        return v0 + tc * (v1 - v0);
+      };
+    },
   };
+  return lookup;
 }

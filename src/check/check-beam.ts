@@ -196,7 +196,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
         dosePerMuCGy,
         ...compared,
-        clamps: r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`),
+        clamps: [...new Set(r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`))],
         ...(ctResult ? { ct: ctResult } : {}),
         ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },

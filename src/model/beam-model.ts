@@ -36,6 +36,12 @@ export interface TableLookup {
   readonly rows: TableAxis;
   readonly columns?: TableAxis;
   at(row: number, column: number, log: LookupLog): number;
+  /**
+   * The table at one row (e.g. one depth) as a function of the column: equal to `at(row, column)`
+   * for every column, with the row's interpolation done once (the row's notes are written here,
+   * once). For many lookups at one depth, as the sectors of a Clarkson integration make.
+   */
+  atRow(row: number, log: LookupLog): (column: number, log: LookupLog) => number;
 }
 
 export interface PhotonCalibration {

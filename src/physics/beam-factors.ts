@@ -29,6 +29,19 @@ function pddTableAtD0(beam: PhotonBeamModel, depthCm: number, surfaceSideCm: num
   return Math.abs(t.normalizationDepthCm - d0) < 1e-9 ? v : (100 * v) / t.at(d0, surfaceSideCm, log);
 }
 
+/**
+ * `tprAt` at one depth as a function of the field side: the same values, the depth interpolation
+ * of a measured TPR table done once (Clarkson sums look up many sides at one depth).
+ */
+export function tprAtDepth(beam: PhotonBeamModel, depthCm: number, log: LookupLog): (sideAtDepthCm: number, log: LookupLog) => number {
+  const t = beam.tpr;
+  if (!t) return (side, l) => tprAt(beam, depthCm, side, l);
+  const at = t.atRow(depthCm, log);
+  if (Math.abs(t.normalizationDepthCm - beam.calibration.d0Cm) < 1e-9) return at;
+  const atD0 = t.atRow(beam.calibration.d0Cm, log);
+  return (side, l) => at(side, l) / atD0(side, l);
+}
+
 /** TPR normalized at d0 for a field side at depth rd. */
 export function tprAt(beam: PhotonBeamModel, depthCm: number, sideAtDepthCm: number, log: LookupLog): number {
   const d0 = beam.calibration.d0Cm;

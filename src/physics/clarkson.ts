@@ -1,5 +1,5 @@
 import type { ClarksonSector, LookupLog, PhotonBeamModel } from '../model/index.js';
-import { spAt, tprAt } from './beam-factors.js';
+import { spAt, tprAt, tprAtDepth } from './beam-factors.js';
 import { equivalentSquareOfCircleCm } from './equivalent-square.js';
 
 export interface ClarksonResult {
@@ -36,7 +36,8 @@ export function clarksonSpTpr(
   };
   const sp0 = extrapolate((s) => spAt(beam, s, log));
   const tpr0 = extrapolate((s) => tprAt(beam, depthCm, s, log));
-  const spr = (side: number) => (spAt(beam, side, log) * tprAt(beam, depthCm, side, log)) / sp0 - tpr0;
+  const tprHere = tprAtDepth(beam, depthCm, log);
+  const spr = (side: number) => (spAt(beam, side, log) * tprHere(side, log)) / sp0 - tpr0;
   const spr1 = spr(s1);
   // Below the smallest measured field, SPR falls linearly to 0 at zero field.
   const sprOfRadius = (r: number) => {

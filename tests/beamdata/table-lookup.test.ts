@@ -50,4 +50,25 @@ describe('table interpolation', () => {
     expect(t.at(10, 0, log)).toBe(1);
     expect(t.at(10.1, 0, log)).toBeNaN();
   });
+  it('a row taken once answers exactly as the full lookup, with the same refusals and clamps', () => {
+    const exp = makeTableLookup({ name: 'exp', rows: axis('depth', [0, 10, 20]), columns: axis('fieldSide', [5, 10, 20]),
+      values: Float64Array.from([1, 1, 1, 0.6, 0.62, 0.65, 0.35, 0.38, 0.41]), interpolation: 'log-linear-rows', clamp: { columnsAbove: 2, rowsBelow: 0.5 } });
+    for (const t of [plane({ columnsAbove: 1 }), exp]) {
+      for (const depth of [0, 3.3, 10, 17.25, 20, -0.3]) {
+        const fromRow: LookupLog = [];
+        const row = t.atRow(depth, fromRow);
+        for (const side of [5, 6.1, 9.99, 10, 10.5, 12, 21, 25, Number.NaN]) {
+          const a: LookupLog = [];
+          const b: LookupLog = [];
+          const full = t.at(depth, side, a);
+          expect(Object.is(row(side, b), full) || (Number.isNaN(full) && Number.isNaN(row(side, [])))).toBe(true);
+          // The column's notes come with each lookup; the row's (a clamped depth) once, with the row.
+          expect([...fromRow, ...b]).toEqual(expect.arrayContaining(a));
+        }
+      }
+    }
+    const refused: LookupLog = [];
+    expect(plane().atRow(25, refused)(7, refused)).toBeNaN();
+    expect(refused.filter((n) => n.kind === 'out-of-range')).toHaveLength(1);
+  });
 });
