@@ -94,7 +94,6 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   } else {
     bands.push({ y0: v1, y1: v2, x0: u1, x1: u2 });
   }
-  const segments = boundary(bands);
   const toBld = (u: number, v: number): [number, number] => (swapped ? [v, u] : [u, v]);
   let area = 0;
   let cu = 0;
@@ -106,20 +105,25 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     cu += a * ((band.x0 + band.x1) / 2);
     cv += a * ((band.y0 + band.y1) / 2);
   }
-  const perimeter = segments.reduce((s, g) => s + Math.hypot(g.bx - g.ax, g.by - g.ay), 0);
+  const perimeter = outlineLength(bands);
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
   // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
-  // The outline's edges are all along u or along v: kept apart as (position, from, to) triples, so a
-  // ray's crossing with each is one multiplication and a range test (the sectors' hot loop).
-  const alongV: number[] = [];
-  const alongU: number[] = [];
-  for (const g of segments) {
-    if (g.ax === g.bx && g.ay !== g.by) alongV.push(g.ax, Math.min(g.ay, g.by), Math.max(g.ay, g.by));
-    else if (g.ay === g.by && g.ax !== g.bx) alongU.push(g.ay, Math.min(g.ax, g.bx), Math.max(g.ax, g.bx));
-  }
-  const edgesV = Float64Array.from(alongV);
-  const edgesU = Float64Array.from(alongU);
+  // The outline's edges, built when first needed (edge distances, the general sector crossings;
+  // the sector walk of jaw-and-leaf fields does without them). All are along u or along v: kept
+  // apart as (position, from, to) triples, a ray's crossing with each is one multiplication.
+  let outline: { segments: Segment[]; edgesV: Float64Array; edgesU: Float64Array } | undefined;
+  const edges = () => {
+    if (outline) return outline;
+    const segments = boundary(bands);
+    const alongV: number[] = [];
+    const alongU: number[] = [];
+    for (const g of segments) {
+      if (g.ax === g.bx && g.ay !== g.by) alongV.push(g.ax, Math.min(g.ay, g.by), Math.max(g.ay, g.by));
+      else if (g.ay === g.by && g.ax !== g.bx) alongU.push(g.ay, Math.min(g.ax, g.bx), Math.max(g.ax, g.bx));
+    }
+    return (outline = { segments, edgesV: Float64Array.from(alongV), edgesU: Float64Array.from(alongU) });
+  };
   const inOpen = (u: number, v: number): boolean => {
     let lo = 0;
     let hi = open.length - 1;
@@ -142,7 +146,12 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const box = { x1: xj ? jaws.x1 : extent.x1, x2: xj ? jaws.x2 : extent.x2, y1: yj ? jaws.y1 : extent.y1, y2: yj ? jaws.y2 : extent.y2 };
   // The open bands as flat (v0, v1, u0, u1) for the sector walk.
   const openFlat = new Float64Array(4 * open.length);
-  open.forEach((b, k) => openFlat.set([b.y0, b.y1, b.x0, b.x1], 4 * k));
+  open.forEach((b, k) => {
+    openFlat[4 * k] = b.y0;
+    openFlat[4 * k + 1] = b.y1;
+    openFlat[4 * k + 2] = b.x0;
+    openFlat[4 * k + 3] = b.x1;
+  });
   return {
     jawsMm: jaws,
     leaves: !!(mlc && leaves),
@@ -158,11 +167,12 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     edgeDistanceMm(x: number, y: number): number {
       const [u, v] = swapped ? [y, x] : [x, y];
       let d = Infinity;
-      for (const g of segments) d = Math.min(d, segmentDistance(u, v, g));
+      for (const g of edges().segments) d = Math.min(d, segmentDistance(u, v, g));
       return inOpen(u, v) ? d : -d;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {
       const [pu, pv] = swapped ? [y, x] : [x, y];
+      const { edgesV, edgesU } = edges();
       const out: number[][] = [];
       for (let i = 0; i < n; i++) {
         const t = ((i + 0.5) * 2 * Math.PI) / n;
@@ -329,6 +339,26 @@ function boundary(bands: readonly Band[]): Segment[] {
     }
   }
   return out;
+}
+
+/** The length of `boundary(bands)`, added up the same way without building it. */
+function outlineLength(bands: readonly Band[]): number {
+  const open = (b: Band | undefined) => (b && b.x1 > b.x0 ? b : undefined);
+  let length = 0;
+  for (const b of bands) if (open(b)) length += 2 * (b.y1 - b.y0);
+  for (let i = -1; i < bands.length; i++) {
+    const lower = open(bands[i]);
+    const upper = open(bands[i + 1]);
+    if (lower && upper && Math.abs(lower.y1 - upper.y0) < 1e-9) {
+      const lo = Math.max(lower.x0, upper.x0);
+      const hi = Math.min(lower.x1, upper.x1);
+      length += hi <= lo ? lower.x1 - lower.x0 + (upper.x1 - upper.x0) : Math.abs(lower.x0 - upper.x0) + Math.abs(lower.x1 - upper.x1);
+    } else {
+      if (lower) length += lower.x1 - lower.x0;
+      if (upper) length += upper.x1 - upper.x0;
+    }
+  }
+  return length;
 }
 
 function symmetricDifference(a: readonly [number, number], b: readonly [number, number]): [number, number][] {

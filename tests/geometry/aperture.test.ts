@@ -76,3 +76,27 @@ describe('sector crossings for Clarkson integration', () => {
     expect(a.sectorCrossingsMm(30, -10, 2)[0]).toEqual([expect.closeTo(5, 9), expect.closeTo(15, 9), expect.closeTo(25, 9)]);
   });
 });
+
+describe('the outline length of a jaw-and-leaf opening', () => {
+  it('equals the count of cell edges between open and closed cells of a 0.5 mm raster (leaf and jaw positions on that grid)', () => {
+    let seed = 99;
+    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const step = 0.5;
+    for (let trial = 0; trial < 20; trial++) {
+      const pairs = 10;
+      const width = 10;
+      const bank1 = Array.from({ length: pairs }, () => Math.round(rand() * 120 - 80) * step * 2);
+      const bank2 = bank1.map((l) => (rand() < 0.2 ? l : l + Math.round(rand() * 80) * step * 2));
+      const a = apertureAt(beam({ pairs, width }), cp([-60, 55], [-42.5, 37.5], [...bank1, ...bank2]))!;
+      // Raster cell centres, inside = open (cells are never on an edge: edges lie on the grid).
+      const n = Math.round(200 / step);
+      const inside = (i: number, j: number) => i >= 0 && j >= 0 && i < n && j < n && a.isOpen(-100 + (i + 0.5) * step, -100 + (j + 0.5) * step);
+      let edges = 0;
+      for (let i = -1; i < n; i++) for (let j = -1; j < n; j++) {
+        if (inside(i, j) !== inside(i + 1, j)) edges++;
+        if (inside(i, j) !== inside(i, j + 1)) edges++;
+      }
+      expect(a.perimeterMm).toBeCloseTo(edges * step, 9);
+    }
+  });
+});
