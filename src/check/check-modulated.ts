@@ -65,6 +65,7 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     let ssdMm: number;
     let radiologicalMm: number | undefined;
     let traced: CtDepth | undefined;
+    let flat: ReturnType<typeof flatDepth> | undefined;
     if (ct) {
       const t = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ct.bodyThresholdHu, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) });
       if (!t.ok) return notChecked(`CT, ${where}: ${t.message}`);
@@ -79,10 +80,11 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     } else {
       if (s.ssdMm === undefined) return notChecked(`${where}: the plan gives no SSD there and no CT was given, so the depth at that gantry angle cannot be found`);
       ssdMm = s.ssdMm;
-      depthMm = flatDepth(frame, point.patientMm, ssdMm).depthMm;
+      flat = flatDepth(frame, point.patientMm, ssdMm);
+      depthMm = flat.depthMm;
     }
     if (depthMm < 0) return notChecked(`${where}: the calculation point lies ${(-depthMm / MM_PER_CM).toFixed(1)} cm above the surface`);
-    const at = flatDepth(frame, point.patientMm, ssdMm);
+    const at = flat ?? flatDepth(frame, point.patientMm, ssdMm);
     const aperture = apertureAt(beam, s.mid);
     if (!aperture) return notChecked(`${where}: no aperture (no jaws and no leaves along an axis)`);
     const depthScale = at.sourceToPointAxialMm / sadMm;

@@ -73,10 +73,16 @@ export function clarksonSpTpr(
   return { spTpr: sp0 * (primaryWeight * tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };
 }
 
-/** The two smallest field sides that both the Sp (or Scp) table and the depth-dose table cover. */
-function smallestSides(beam: PhotonBeamModel): [number, number] {
+const SMALLEST = new WeakMap<PhotonBeamModel, readonly [number, number]>();
+
+/** The two smallest field sides that both the Sp (or Scp) table and the depth-dose table cover (once per beam model). */
+function smallestSides(beam: PhotonBeamModel): readonly [number, number] {
+  const known = SMALLEST.get(beam);
+  if (known) return known;
   const sp = (beam.sp ?? beam.scp)!.rows.values;
   const dd = (beam.tpr ?? beam.pdd)!.columns!.values;
   const common = [...sp].filter((s) => s >= dd[0]! - 1e-9).sort((a, b) => a - b);
-  return [common[0] ?? sp[0]!, common[1] ?? sp[1]!];
+  const sides = [common[0] ?? sp[0]!, common[1] ?? sp[1]!] as const;
+  SMALLEST.set(beam, sides);
+  return sides;
 }
