@@ -1,11 +1,11 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
+import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
 import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type PlanningSystemDepths, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
-import type { PatientCt } from './patient-ct.js';
+import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
 import type { Policy } from './policy.js';
 
 export interface BeamCheckContext {
@@ -70,9 +70,9 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   let traced: ReturnType<typeof ctDepth> | undefined;
   let ssdAlongAxisMm: number | undefined;
   if (ctx.ct) {
-    traced = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density, ...(ctx.ct.bodyMask ? { bodyMask: ctx.ct.bodyMask } : {}) });
+    traced = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, ctDepthOptions(ctx.ct));
     if (!traced.ok) return notChecked(`CT: ${traced.message}`);
-    ssdAlongAxisMm = ctSsdAlongAxisMm(ctx.ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ctx.ct.bodyThresholdHu, ctx.ct.bodyMask);
+    ssdAlongAxisMm = ctAxisSsdMm(ctx.ct, frame, sadMm);
   }
   const depthCm = (traced?.ok ? traced.value.geometricDepthMm : at.depthMm) / MM_PER_CM;
   const offAxisCm = at.offAxisMm / MM_PER_CM;
@@ -162,7 +162,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
   let suggestedPoint: BeamCheck['suggestedPoint'];
   if (suggestion && ctx.suggestPoint) {
     // The suggested point gets its own sectors and, with the CT, its own traced depth and correction.
-    const there = ctx.ct ? ctDepth(ctx.ct.volume, frame.sourcePatientMm, suggestion.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density, ...(ctx.ct.bodyMask ? { bodyMask: ctx.ct.bodyMask } : {}) }) : undefined;
+    const there = ctx.ct ? ctDepth(ctx.ct.volume, frame.sourcePatientMm, suggestion.patientMm, ctDepthOptions(ctx.ct)) : undefined;
     const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : suggestion.depthCm;
     const s = photonDosePerMu(data, machine.sadCm, { ...input, offAxisCm: suggestion.offAxisCm, depthCm: depthThereCm,
       ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),

@@ -1,9 +1,10 @@
 import { findElectronBeam } from '../beamdata/index.js';
-import { axisAlignedRectangle, beamFrame, ctDepth, ctSsdAlongAxisMm, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
+import { axisAlignedRectangle, beamFrame, ctDepth, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
 import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue, MM_PER_CM } from '../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../physics/index.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
+import { ctAxisSsdMm, ctDepthOptions } from './patient-ct.js';
 
 /** Beyond dmax, a point where the depth dose has fallen below this lies on its steep fall-off. */
 const FALL_OFF_PERCENT = 80;
@@ -67,9 +68,9 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
   let ctResult: NonNullable<BeamCheck['calculation']>['ct'];
   let lookupDepthCm = depthCm;
   if (ctx.ct) {
-    const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ctx.ct.bodyThresholdHu, density: ctx.ct.density, ...(ctx.ct.bodyMask ? { bodyMask: ctx.ct.bodyMask } : {}) });
+    const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, ctDepthOptions(ctx.ct));
     if (!t.ok) return notChecked(`CT: ${t.message}`);
-    const axis = ctSsdAlongAxisMm(ctx.ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ctx.ct.bodyThresholdHu, ctx.ct.bodyMask);
+    const axis = ctAxisSsdMm(ctx.ct, frame, sadMm);
     depthCm = t.value.geometricDepthMm / MM_PER_CM;
     ssdCm = t.value.ssdMm / MM_PER_CM;
     lookupDepthCm = t.value.radiologicalDepthMm / MM_PER_CM;

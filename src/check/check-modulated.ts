@@ -1,11 +1,12 @@
 import { findPhotonBeam } from '../beamdata/index.js';
-import { apertureAt, beamFrame, type CtDepth, ctDepth, ctSsdAlongAxisMm, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
+import { apertureAt, beamFrame, type CtDepth, ctDepth, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
 import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote, MM_PER_CM } from '../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
+import { ctAxisSsdMm, ctDepthOptions } from './patient-ct.js';
 
 
 /** One stretch of delivery between two control points, with the MU share it delivers. */
@@ -67,14 +68,14 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
     let traced: CtDepth | undefined;
     let flat: ReturnType<typeof flatDepth> | undefined;
     if (ct) {
-      const t = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, { bodyThresholdHu: ct.bodyThresholdHu, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) });
+      const t = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, ctDepthOptions(ct));
       if (!t.ok) return notChecked(`CT, ${where}: ${t.message}`);
       [depthMm, ssdMm, radiologicalMm] = [t.value.geometricDepthMm, t.value.ssdMm, t.value.radiologicalDepthMm];
       traced = t.value;
       densities[0] = Math.min(densities[0]!, t.value.densityRange[0]);
       densities[1] = Math.max(densities[1]!, t.value.densityRange[1]);
       if (s.ssdMm !== undefined) {
-        const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ct.bodyThresholdHu, ct.bodyMask);
+        const axis = ctAxisSsdMm(ct, frame, sadMm);
         if (axis !== undefined && (maxSsdDifferenceMm === undefined || Math.abs(axis - s.ssdMm) > Math.abs(maxSsdDifferenceMm))) maxSsdDifferenceMm = axis - s.ssdMm;
       }
     } else {

@@ -1,7 +1,7 @@
 import { beamFrame, ctDepth, ctSsdAlongAxisMm } from '../geometry/index.js';
 import type { BeamDepth, Plan } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
-import type { PatientCt } from './patient-ct.js';
+import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
 
 const DEFAULT_SAD_MM = 1000;
@@ -9,7 +9,7 @@ const DEFAULT_SAD_MM = 1000;
 /** Per beam of every fraction group (per control point for an arc): the SSD from the plan and from the CT, the traced depths. */
 export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
   const rows: BeamDepth[] = [];
-  const body = { bodyThresholdHu: ct.bodyThresholdHu, density: ct.density, ...(ct.bodyMask ? { bodyMask: ct.bodyMask } : {}) };
+  const body = ctDepthOptions(ct);
   for (const g of plan.fractionGroups) {
     for (const entry of g.beams) {
       const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
@@ -27,7 +27,7 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
           rows.push({ ...base, point: { source: 'isocenter', reason: '', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
           continue;
         }
-        const axis = ctSsdAlongAxisMm(ct.volume, frame.sourcePatientMm, frame.directionPatient, 2 * sadMm, ct.bodyThresholdHu, ct.bodyMask);
+        const axis = ctAxisSsdMm(ct, frame, sadMm);
         const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, body);
         rows.push({
           ...base,

@@ -1,7 +1,7 @@
 import { loadDensityTable } from '../beamdata/index.js';
 import type { PatientCt } from '../check/patient-ct.js';
 import { readCtVolumes, readRtStruct } from '../dicom/index.js';
-import { bodyMask } from '../geometry/index.js';
+import { bodySurface } from '../geometry/index.js';
 import type { Issue, Structure } from '../model/index.js';
 import { collectFiles } from './collect-files.js';
 import { resolveDemoFile } from './beam-data-path.js';
@@ -32,7 +32,7 @@ export function loadPatientCts(ctPaths: readonly string[], density: string | und
     value: volumes.map((volume) => {
       const own = external && (!external.frameOfReferenceUid || external.frameOfReferenceUid === volume.frameOfReferenceUid) ? external : undefined;
       return { volume, density: table.value.density, densityTable: table.value.file, bodyThresholdHu,
-        ...(own ? { bodyMask: bodyMask(volume, own), bodySource: `EXTERNAL "${own.name}"` } : { bodySource: `HU >= ${bodyThresholdHu}` }) };
+        ...(own ? { body: bodySurface(volume, own), bodySource: `EXTERNAL "${own.name}"` } : { bodySource: `HU >= ${bodyThresholdHu}` }) };
     }),
   };
 }

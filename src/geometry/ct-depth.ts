@@ -1,12 +1,13 @@
 import type { CtVolume } from '../model/index.js';
+import type { BodySurface } from './body-surface.js';
 import { traceRay } from './ray-trace.js';
 import { type Vec3, add, norm, scale, sub } from './vector.js';
 
 export interface CtDepthOptions {
   /** Voxels at or above this HU are the body (used when no EXTERNAL contour is given). */
   readonly bodyThresholdHu: number;
-  /** The body from the EXTERNAL contour, one byte per voxel; overrides the threshold. */
-  readonly bodyMask?: Uint8Array;
+  /** The body from the EXTERNAL contour, its surface found exactly; overrides the threshold. */
+  readonly body?: BodySurface;
   /** Relative electron density for an HU value; NaN when the clinic's table does not cover it. */
   readonly density: (hu: number) => number;
   /** A density step larger than this along the ray is an interface. */
@@ -32,7 +33,9 @@ export type CtDepthOutcome = { readonly ok: true; readonly value: CtDepth } | { 
 
 /**
  * SSD, geometric and radiological depth of a point along the ray from the source, from the CT:
- * the surface is where the ray first meets a voxel at or above the body threshold.
+ * the surface is where the ray enters the EXTERNAL contour when given, else where it first meets a
+ * voxel at or above the body threshold. The radiological depth adds up the voxels' densities from
+ * the surface on (a voxel the surface cuts counts from the surface).
  */
 export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDepthOptions): CtDepthOutcome {
   const total = norm(sub(pointMm, sourceMm));
@@ -45,11 +48,20 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   let refused: number | undefined;
   const step = o.interfaceStep ?? 0.2;
   const layers: { distanceToPointMm: number; density: number }[] = [];
-  traceRay(volume, sourceMm, pointMm, (voxel, start, length) => {
+  const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
+  if (o.body && surface === undefined) return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
+  traceRay(volume, sourceMm, pointMm, (voxel, voxelStart, voxelLength) => {
     if (refused !== undefined) return;
     const hu = volume.hu[voxel]!;
-    if (entry < 0) {
-      if (o.bodyMask ? o.bodyMask[voxel] === 0 : hu < o.bodyThresholdHu) return;
+    let start = voxelStart;
+    let length = voxelLength;
+    if (surface !== undefined) {
+      if (voxelStart + voxelLength <= surface) return;
+      start = Math.max(voxelStart, surface);
+      length = voxelStart + voxelLength - start;
+      if (entry < 0) entry = start;
+    } else if (entry < 0) {
+      if (hu < o.bodyThresholdHu) return;
       entry = start;
     }
     const rho = o.density(hu);
@@ -83,10 +95,12 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
 }
 
 /** Source to the body surface along the central axis (for the SSD cross-check with the plan). */
-export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPatient: Vec3, maxMm: number, bodyThresholdHu: number, bodyMask?: Uint8Array): number | undefined {
+export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPatient: Vec3, maxMm: number, bodyThresholdHu: number, body?: BodySurface): number | undefined {
+  const farMm = add(sourceMm, scale(directionPatient, maxMm));
+  if (body) return body.entryMm(sourceMm, farMm);
   let entry: number | undefined;
-  traceRay(volume, sourceMm, add(sourceMm, scale(directionPatient, maxMm)), (voxel, start) => {
-    if (entry === undefined && (bodyMask ? bodyMask[voxel] === 1 : volume.hu[voxel]! >= bodyThresholdHu)) entry = start;
+  traceRay(volume, sourceMm, farMm, (voxel, start) => {
+    if (entry === undefined && volume.hu[voxel]! >= bodyThresholdHu) entry = start;
   });
   return entry;
 }

@@ -5,6 +5,6 @@ export * from './aperture.js';
 export * from './ray-trace.js';
 export * from './ct-depth.js';
 export * from './dose-at-point.js';
-export * from './body-mask.js';
 export * from './polygon.js';
 export * from './sector-rings.js';
+export * from './body-surface.js';

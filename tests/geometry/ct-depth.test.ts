@@ -132,7 +132,7 @@ describe('a water cylinder (radius 100 mm)', () => {
   it('gantry 0, 90, 180 and 270 to its centre: depth 100 mm within 0.1 mm (the surface on voxel faces)', () => {
     for (const g of [0, 90, 180, 270]) expect(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm).toBeCloseTo(100, 1);
   });
-  it('oblique gantry angles: depth 100 mm within half a voxel diagonal (the surface is a 4 mm staircase there)', () => {
+  it('oblique gantry angles, body by the HU threshold: depth 100 mm within half a voxel diagonal (the surface is a 4 mm staircase there; drawn as an EXTERNAL contour it is exact, below)', () => {
     for (const g of [30, 45, 135, 300]) expect(Math.abs(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm - 100)).toBeLessThan(2 * Math.SQRT2);
   });
   it('an off-centre point 50 mm left (x = +50) from gantry 90 (entering from the patient\'s left): depth 50 mm', () => {
@@ -156,23 +156,71 @@ describe('reading a CT series', () => {
 });
 
 describe('the body from an EXTERNAL contour', () => {
-  it('overrides the HU threshold: a body drawn 20 mm inside the anterior face gives SSD 920 mm', async () => {
+  /** Writes an EXTERNAL structure (one contour per slice centre from z = −98 to 98) and reads its surface back. */
+  async function external(name: string, volume: CtVolume, outline: (z: number) => (readonly [number, number, number])[]) {
     const { writeRtStruct } = await import('../../scripts/fixtures/rt-struct.js');
     const { readRtStruct } = await import('../../src/dicom/index.js');
-    const { bodyMask } = await import('../../src/geometry/index.js');
-    const file = join(work, 'rs.dcm');
-    // One square contour per slice from z = −98 to 98 (slice centres), y from −80 to 100, x ±100.
-    const contours = Array.from({ length: 50 }, (_, k) => -98 + 4 * k).map((z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]] as const);
-    writeRtStruct(file, 'body', '1.2.826.0.1.3680043.2.1125.1', [{ number: 1, name: 'Body', type: 'EXTERNAL', contours }]);
+    const { bodySurface } = await import('../../src/geometry/index.js');
+    const file = join(work, `${name}.dcm`);
+    const contours = Array.from({ length: 50 }, (_, k) => -98 + 4 * k).map(outline);
+    writeRtStruct(file, name, '1.2.826.0.1.3680043.2.1125.1', [{ number: 1, name: 'Body', type: 'EXTERNAL', contours }]);
     const rs = readRtStruct(file);
     if (!rs.ok) throw new Error(rs.issues.map((i) => i.message).join('; '));
-    const mask = bodyMask(water, rs.value.structures[0]!);
+    return bodySurface(volume, rs.value.structures[0]!);
+  }
+  const withBody = (v: CtVolume, body: Awaited<ReturnType<typeof external>>, c: ControlPoint, point: Vec3) => {
+    const f = beamFrame(c, 'HFS', 1000)!;
+    const r = ctDepth(v, f.sourcePatientMm, point, { ...opts, body });
+    if (!r.ok) throw new Error(r.message);
+    return r.value;
+  };
+
+  it('overrides the HU threshold: a body drawn 20 mm inside the anterior face gives SSD 920 mm', async () => {
+    const body = await external('box-body', water, (z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]]);
+    const d = withBody(water, body, cp(0), [0, 50, 0]);
+    expect(d.ssdMm).toBeCloseTo(920, 6);
+    expect(d.geometricDepthMm).toBeCloseTo(130, 6);
+    // The densities count from the drawn surface on: 130 mm of water.
+    expect(d.radiologicalDepthMm).toBeCloseTo(130, 6);
     const f = beamFrame(cp(0), 'HFS', 1000)!;
-    const d = ctDepth(water, f.sourcePatientMm, [0, 50, 0], { ...opts, bodyMask: mask });
-    if (!d.ok) throw new Error(d.message);
-    // Voxel centres inside the contour: y from −78 upwards, so the first body voxel starts at y = −80.
-    expect(d.value.ssdMm).toBeCloseTo(920, 1);
-    expect(d.value.geometricDepthMm).toBeCloseTo(130, 1);
+    expect(ctSsdAlongAxisMm(water, f.sourcePatientMm, f.directionPatient, 2000, -500, body)).toBeCloseTo(920, 6);
+  });
+
+  // The cylinder of radius 100 mm drawn as a 720-gon: its sides lie within 100·(1 − cos 0.25°) = 0.001 mm of the circle.
+  const circle = (z: number) => Array.from({ length: 720 }, (_, i) => [100 * Math.cos((i * Math.PI) / 360), 100 * Math.sin((i * Math.PI) / 360), z] as const);
+
+  it('a water cylinder drawn by its contour: depth 100 mm to its centre within 0.1 mm from every gantry angle, the voxels notwithstanding', async () => {
+    const body = await external('cylinder-body', cylinder, circle);
+    for (const g of [0, 30, 45, 90, 135, 200, 300, 337.5]) {
+      const d = withBody(cylinder, body, cp(g), [0, 0, 0]);
+      expect(Math.abs(d.ssdMm - 900), `gantry ${g}`).toBeLessThan(0.1);
+      expect(Math.abs(d.geometricDepthMm - 100), `gantry ${g}`).toBeLessThan(0.1);
+      // The voxels the surface cuts are air or water by their centres (4 mm voxels): the water path is within a voxel diagonal.
+      expect(Math.abs(d.radiologicalDepthMm - 100), `gantry ${g}`).toBeLessThan(4 * Math.SQRT2);
+    }
+  });
+
+  it('a cylinder seen with the couch turned: a point 50 mm off its axis, and rays that cross the slices', async () => {
+    const body = await external('cylinder-body-2', cylinder, circle);
+    // Gantry 90 (source at the patient's left, +x), point at x = −50: depth = the chord from x = 100 to −50... along the beam.
+    expect(withBody(cylinder, body, cp(90), [-50, 0, 0]).geometricDepthMm).toBeCloseTo(150, 1);
+    // Gantry 90 with the couch at 30° and 330°: the beam turns in the horizontal plane (x–z for HFS) and meets the
+    // cylinder's side at x = 100, a path of 100 / cos 30° = 115.47 mm to the centre (entering at |z| = 57.7 mm).
+    for (const couch of [30, 330]) {
+      const d = withBody(cylinder, body, cp(90, 0, couch), [0, 0, 0]);
+      expect(Math.abs(d.geometricDepthMm - 100 / Math.cos(Math.PI / 6)), `couch ${couch}`).toBeLessThan(0.1);
+      expect(Math.abs(Math.abs(d.entryPatientMm[2]) - 100 * Math.tan(Math.PI / 6)), `couch ${couch}`).toBeLessThan(0.1);
+    }
+    // Couch 90, gantry 90: the beam runs along the cylinder's axis and enters through its end, z = ±100.
+    const end = withBody(cylinder, body, cp(90, 0, 90), [0, 0, 0]);
+    expect(end.geometricDepthMm).toBeCloseTo(100, 6);
+  });
+
+  it('a point outside the drawn body is refused, naming why', async () => {
+    const body = await external('box-body-2', water, (z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]]);
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    const r = ctDepth(water, f.sourcePatientMm, [0, -90, 0], { ...opts, body });
+    expect(!r.ok && r.message).toMatch(/never enters the EXTERNAL contour/);
   });
 });
 
