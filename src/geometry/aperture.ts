@@ -180,25 +180,9 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
         const du = swapped ? Math.sin(t) : Math.cos(t);
         const dv = swapped ? Math.cos(t) : Math.sin(t);
         const hits: number[] = [];
-        // Ray (pu, pv) + s·(du, dv) against each edge, inline and without allocation.
-        if (Math.abs(du) > 1e-12) {
-          const inv = 1 / du;
-          for (let k = 0; k < edgesV.length; k += 3) {
-            const h = (edgesV[k]! - pu) * inv;
-            if (h <= 1e-9) continue;
-            const at = pv + h * dv;
-            if (at >= edgesV[k + 1]! && at <= edgesV[k + 2]!) hits.push(h);
-          }
-        }
-        if (Math.abs(dv) > 1e-12) {
-          const inv = 1 / dv;
-          for (let k = 0; k < edgesU.length; k += 3) {
-            const h = (edgesU[k]! - pv) * inv;
-            if (h <= 1e-9) continue;
-            const at = pu + h * du;
-            if (at >= edgesU[k + 1]! && at <= edgesU[k + 2]!) hits.push(h);
-          }
-        }
+        // Ray (pu, pv) + s·(du, dv) against each edge: along v (u constant), then along u.
+        edgeHits(edgesV, pu, pv, du, dv, hits);
+        edgeHits(edgesU, pv, pu, dv, du, hits);
         hits.sort((a, b) => a - b);
         let m = 0;
         for (let k = 0; k < hits.length; k++) if (k === 0 || hits[k]! - hits[m - 1]! > 1e-9) hits[m++] = hits[k]!;
@@ -274,6 +258,21 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       return out;
     },
   };
+}
+
+/**
+ * Adds to `hits` the distances s > 0 at which p + s·dp reaches each edge's position while q + s·dq
+ * lies within the edge's extent; edges are flat (position, from, to) triples. No allocation.
+ */
+function edgeHits(edges: Float64Array, p: number, q: number, dp: number, dq: number, hits: number[]): void {
+  if (Math.abs(dp) <= 1e-12) return;
+  const inv = 1 / dp;
+  for (let k = 0; k < edges.length; k += 3) {
+    const h = (edges[k]! - p) * inv;
+    if (h <= 1e-9) continue;
+    const at = q + h * dq;
+    if (at >= edges[k + 1]! && at <= edges[k + 2]!) hits.push(h);
+  }
 }
 
 /** Adds a ring out to `outerMm`, merged with the last when of the same weight; none shorter than EPS_MM. */
