@@ -16,11 +16,15 @@ export interface ReadRange {
   readonly length: number;
 }
 
-/** Per range: 0 not taken (or just taken), 1 being read, 2 done, 3 failed (this thread retries it to learn why). */
+/** Per range: 0 not taken (or just taken), 1 being read, 2 done, 3 failed (this thread reads it again to learn why). */
 const TAKEN = 1;
 const DONE = 2;
-/** How long to wait for a range the helper took before reading it here (the bytes are the same). */
-const HELPER_WAIT_MS = 30_000;
+/**
+ * How long to wait for a range the helper is reading. Past it the read fails rather than be taken
+ * over here: a helper that wakes up later would write stored values over rescaled ones.
+ */
+const HELPER_WAIT_MS = 60_000;
+const FAILED = 3;
 
 // Plain CommonJS run by `eval`, so it needs no module file beside the bundle.
 const HELPER = `
@@ -45,7 +49,7 @@ parentPort.on('message', ({ target, state, ranges }) => {
         }
       } finally { closeSync(fd); }
     } catch { ok = false; }
-    Atomics.store(s, 1 + k, ok ? ${DONE} : 3);
+    Atomics.store(s, 1 + k, ok ? ${DONE} : ${FAILED});
     Atomics.notify(s, 1 + k);
   }
 });`;
@@ -99,7 +103,8 @@ export function readRanges(target: Uint8Array, ranges: readonly ReadRange[], hel
     let v: number;
     while ((v = Atomics.load(state, 1 + k)) < DONE && performance.now() < deadline) Atomics.wait(state, 1 + k, v, deadline - performance.now());
     if (v === DONE) byHelper++;
-    else readRange(target, ranges[k]!); // failed or stuck: read here, and throw here if it cannot be read
+    else if (v === FAILED) readRange(target, ranges[k]!); // to throw its error here (or read it after all)
+    else throw Object.assign(new Error(`the helper thread did not finish reading within ${HELPER_WAIT_MS / 1000} s`), { code: 'ETIMEDOUT', file: ranges[k]!.file });
     then(k);
   }
   return byHelper;
