@@ -37,7 +37,12 @@ const added = new WeakMap<ArrayBufferLike, Add>();
 export function allocateInt16(n: number): Int16Array {
   if (typeof WebAssembly === 'undefined' || !WebAssembly.validate(MODULE)) return new Int16Array(n);
   const pages = Math.max(1, Math.ceil((2 * n) / PAGE_BYTES));
-  const memory = new WebAssembly.Memory({ initial: pages, maximum: pages, shared: true });
+  let memory: WebAssembly.Memory;
+  try {
+    memory = new WebAssembly.Memory({ initial: pages, maximum: pages, shared: true });
+  } catch {
+    return new Int16Array(n); // beyond WebAssembly's 4 GiB, or refused: plain memory, read by one thread
+  }
   const instance = new WebAssembly.Instance(new WebAssembly.Module(MODULE), { env: { mem: memory } });
   added.set(memory.buffer, instance.exports.add as Add);
   return new Int16Array(memory.buffer, 0, n);
