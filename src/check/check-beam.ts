@@ -1,12 +1,13 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { type Aperture, apertureAt, beamFrame, bldToPatient, type BlockOutline, ctDepth, fieldEdgeDistanceMm, flatDepth, pointIsOpen, type Vec3 } from '../geometry/index.js';
-import { cGyFromGy, factorLabel, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type PlanningSystemDepths, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
+import { cGyFromGy, type Beam, type BeamCheck, type ControlPoint, type CalculationPoint, type CaseCategory, type Issue, type LookupNote, type MachineModel, type PhotonPointInput, type PlanningSystemDepths, type ReferencedBeam, MM_PER_CM } from '../model/index.js';
 import { type HeterogeneityMethod, photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
 import type { Policy } from './policy.js';
+import { clampTexts, factorRows } from './calculation-parts.js';
 
 export interface BeamCheckContext {
   readonly beam: Beam;
@@ -193,10 +194,10 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
         irradiatedSquareCm,
         ...(wedgeIn?.id ? { wedgeId: wedgeIn.id } : {}),
         approximations,
-        factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
+        factors: factorRows(r.value.factors),
         dosePerMuCGy,
         ...compared,
-        clamps: [...new Set(r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`))],
+        clamps: clampTexts(r.value.clamps),
         ...(ctResult ? { ct: ctResult } : {}),
         ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },

@@ -1,10 +1,11 @@
 import { findElectronBeam } from '../beamdata/index.js';
 import { axisAlignedRectangle, beamFrame, ctDepth, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../geometry/index.js';
-import { type BeamCheck, type ElectronPointInput, factorLabel, type Issue, MM_PER_CM } from '../model/index.js';
+import { type BeamCheck, type ElectronPointInput, type Issue, MM_PER_CM } from '../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../physics/index.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 import { ctAxisSsdMm, ctDepthOptions } from './patient-ct.js';
+import { clampTexts, factorRows } from './calculation-parts.js';
 
 /** Beyond dmax, a point where the depth dose has fallen below this lies on its steep fall-off. */
 const FALL_OFF_PERCENT = 80;
@@ -133,10 +134,10 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
         ssdCm, depthCm, offAxisCm,
         collimatorFieldCm: { x: applicator.sideCm, y: applicator.sideCm }, collimatorSquareCm: applicator.sideCm, irradiatedSquareCm: r.value.fieldSideCm,
         approximations,
-        factors: r.value.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
+        factors: factorRows(r.value.factors),
         dosePerMuCGy,
         ...compared,
-        clamps: r.value.clamps.map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`),
+        clamps: clampTexts(r.value.clamps),
         ...(ctResult ? { ct: ctResult } : {}),
         electron: { applicatorId: applicator.id, cutout: outline ? (rectangle ? 'rectangle' : 'shaped') : 'none', fieldSideCm: r.value.fieldSideCm, effectiveSsdCm: r.value.effectiveSsdCm, airGapCm: r.value.airGapCm, pddPercent },
       },

@@ -1,12 +1,13 @@
 import { findPhotonBeam } from '../beamdata/index.js';
 import { apertureAt, beamFrame, type CtDepth, ctDepth, fieldEdgeDistanceMm, flatDepth } from '../geometry/index.js';
-import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, factorLabel, type Issue, type LookupNote, MM_PER_CM } from '../model/index.js';
+import { type BeamCheck, type CaseCategory, type ControlPoint, type Factor, type Issue, type LookupNote, MM_PER_CM } from '../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../physics/index.js';
 import { heterogeneityCorrection, METHOD_TEXT } from './heterogeneity-correction.js';
 import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub } from './check-beam.js';
 import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import { ctAxisSsdMm, ctDepthOptions } from './patient-ct.js';
+import { clampTexts, factorRows } from './calculation-parts.js';
 
 
 /** One stretch of delivery between two control points, with the MU share it delivers. */
@@ -156,10 +157,10 @@ export function checkModulatedBeam(ctx: BeamCheckContext): { ok: true; value: Be
         ssdCm: mean.ssdCm, depthCm: mean.depthCm, offAxisCm: mean.offAxisCm,
         collimatorFieldCm: { x: mean.collimatorXCm, y: mean.collimatorYCm }, collimatorSquareCm: mean.collimatorSquareCm, irradiatedSquareCm: mean.irradiatedSquareCm,
         approximations,
-        factors: factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
+        factors: factorRows(factors),
         dosePerMuCGy,
         ...compared,
-        clamps: [...new Set(log.filter((n) => n.kind === 'clamped').map((n) => `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}`))],
+        clamps: clampTexts(log),
         modulated: {
           method: 'modified Clarkson integration',
           controlPoints: cps.length,
