@@ -1,4 +1,6 @@
 #!/usr/bin/env node
-import { main } from './main.js';
+import './zod-setup.js';
 
+// Loaded after zod's configuration: bundled, the schemas are built when their chunk is evaluated.
+const { main } = await import('./main.js');
 process.exitCode = await main(process.argv.slice(2));
