@@ -78,6 +78,8 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   });
   if (refused !== undefined) return { ok: false, message: `HU ${refused} on the ray lies outside the HU to electron density table` };
   if (entry < 0) return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
+  // The drawn body must lie in the CT where the ray enters it: outside, there are no densities to add.
+  if (surface !== undefined && entry > surface + 1e-6) return { ok: false, message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there` };
   const dir = scale(sub(pointMm, sourceMm), 1 / total);
   return {
     ok: true,

@@ -216,6 +216,14 @@ describe('the body from an EXTERNAL contour', () => {
     expect(end.geometricDepthMm).toBeCloseTo(100, 6);
   });
 
+  it('a body drawn beyond the CT along the ray is refused: there are no densities there', async () => {
+    // The CT spans y from −128 to 128 mm; this body starts at y = −140.
+    const body = await external('wide-body', water, (z) => [[-100, -140, z], [100, -140, z], [100, 100, z], [-100, 100, z]]);
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    const r = ctDepth(water, f.sourcePatientMm, [0, 50, 0], { ...opts, body });
+    expect(!r.ok && r.message).toMatch(/enters the EXTERNAL contour 12\.0 mm before it enters the CT/);
+  });
+
   it('a point outside the drawn body is refused, naming why', async () => {
     const body = await external('box-body-2', water, (z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]]);
     const f = beamFrame(cp(0), 'HFS', 1000)!;
