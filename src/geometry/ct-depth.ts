@@ -50,8 +50,10 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   const layers: { distanceToPointMm: number; density: number }[] = [];
   const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
   if (o.body && surface === undefined) return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
+  let firstVoxelMm = -1;
   traceRay(volume, sourceMm, pointMm, (voxel, voxelStart, voxelLength) => {
     if (refused !== undefined) return;
+    if (firstVoxelMm < 0) firstVoxelMm = voxelStart;
     const hu = volume.hu[voxel]!;
     let start = voxelStart;
     let length = voxelLength;
@@ -78,6 +80,9 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   });
   if (refused !== undefined) return { ok: false, message: `HU ${refused} on the ray lies outside the HU to electron density table` };
   if (entry < 0) return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
+  // By the threshold, a body already there in the first voxel the ray meets runs out of the CT's
+  // field of view: where it begins (the SSD) is unknown.
+  if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0) return { ok: false, message: 'the first CT voxel the ray meets is already body: the CT\'s field of view cuts the body there, so the surface (and the SSD) is unknown' };
   // The drawn body must lie in the CT where the ray enters it: outside, there are no densities to add.
   if (surface !== undefined && entry > surface + 1e-6) return { ok: false, message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there` };
   const dir = scale(sub(pointMm, sourceMm), 1 / total);
@@ -101,8 +106,11 @@ export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPati
   const farMm = add(sourceMm, scale(directionPatient, maxMm));
   if (body) return body.entryMm(sourceMm, farMm);
   let entry: number | undefined;
+  let first: number | undefined;
   traceRay(volume, sourceMm, farMm, (voxel, start) => {
+    first ??= start;
     if (entry === undefined && volume.hu[voxel]! >= bodyThresholdHu) entry = start;
   });
-  return entry;
+  // A body already in the first voxel runs out of the CT's field of view: its surface is unknown.
+  return entry !== undefined && entry === first ? undefined : entry;
 }

@@ -128,6 +128,20 @@ describe('heterogeneous phantoms', () => {
   });
 });
 
+describe("a body the CT's field of view cuts", () => {
+  // Water across the whole width of the CT (x from −128 to 128 mm) between y = ±100.
+  const truncated = phantom('truncated', (_x, y, z) => (Math.abs(y) < 100 && Math.abs(z) < 100 ? 0 : -1000));
+  it('from the side, where the body leaves the CT: refused, the surface is unknown', () => {
+    const f = beamFrame(cp(90), 'HFS', 1000)!;
+    const r = ctDepth(truncated, f.sourcePatientMm, [0, 0, 0], opts);
+    expect(!r.ok && r.message).toMatch(/field of view cuts the body/);
+    expect(ctSsdAlongAxisMm(truncated, f.sourcePatientMm, f.directionPatient, 2000, -500)).toBeUndefined();
+  });
+  it('from the front, where the body lies in the CT: SSD 900 mm', () => {
+    expect(depth(truncated, 'HFS', cp(0), [0, 0, 0]).ssdMm).toBeCloseTo(900, 6);
+  });
+});
+
 describe('a water cylinder (radius 100 mm)', () => {
   it('gantry 0, 90, 180 and 270 to its centre: depth 100 mm within 0.1 mm (the surface on voxel faces)', () => {
     for (const g of [0, 90, 180, 270]) expect(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm).toBeCloseTo(100, 1);
