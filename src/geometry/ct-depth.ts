@@ -51,9 +51,11 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
   if (o.body && surface === undefined) return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
   let firstVoxelMm = -1;
+  let lastVoxelEndMm = -1;
   traceRay(volume, sourceMm, pointMm, (voxel, voxelStart, voxelLength) => {
     if (refused !== undefined) return;
     if (firstVoxelMm < 0) firstVoxelMm = voxelStart;
+    lastVoxelEndMm = voxelStart + voxelLength;
     const hu = volume.hu[voxel]!;
     let start = voxelStart;
     let length = voxelLength;
@@ -80,6 +82,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   });
   if (refused !== undefined) return { ok: false, message: `HU ${refused} on the ray lies outside the HU to electron density table` };
   if (entry < 0) return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
+  if (lastVoxelEndMm < total - 1e-6) return { ok: false, message: `the point lies outside the CT: the ray leaves the CT ${(total - lastVoxelEndMm).toFixed(1)} mm before it, with no densities there` };
   // By the threshold, a body already there in the first voxel the ray meets runs out of the CT's
   // field of view: where it begins (the SSD) is unknown.
   if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0) return { ok: false, message: 'the first CT voxel the ray meets is already body: the CT\'s field of view cuts the body there, so the surface (and the SSD) is unknown' };

@@ -137,6 +137,14 @@ describe("a body the CT's field of view cuts", () => {
     expect(!r.ok && r.message).toMatch(/field of view cuts the body/);
     expect(ctSsdAlongAxisMm(truncated, f.sourcePatientMm, f.directionPatient, 2000, -500)).toBeUndefined();
   });
+  it('a point beyond the end of the CT is refused: the ray would leave the densities behind', () => {
+    // Water between y = ±100 along the whole CT; the CT ends at z = 128 mm, the point lies at z = 140 mm:
+    // the ray from the source enters the water at z = 126 mm and leaves the CT at 128.
+    const long = phantom('long', (_x, y) => (Math.abs(y) < 100 ? 0 : -1000));
+    const f = beamFrame(cp(0), 'HFS', 1000)!;
+    const r = ctDepth(long, f.sourcePatientMm, [0, 0, 140], opts);
+    expect(!r.ok && r.message).toMatch(/the point lies outside the CT/);
+  });
   it('from the front, where the body lies in the CT: SSD 900 mm', () => {
     expect(depth(truncated, 'HFS', cp(0), [0, 0, 0]).ssdMm).toBeCloseTo(900, 6);
   });
