@@ -8,6 +8,7 @@ import { CLARKSON_SECTORS, fieldInput } from './field-input.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
 import type { Policy } from './policy.js';
 import { clampTexts, factorRows } from './calculation-parts.js';
+import { besideOurs } from './planning-system-depths.js';
 
 export interface BeamCheckContext {
   readonly beam: Beam;
@@ -176,7 +177,7 @@ export function checkBeam(ctx: BeamCheckContext): { ok: true; value: BeamCheck }
 
   const heterogeneous = isHeterogeneous(policy, ctResult?.densityRange);
   const category = categorize(policy, { wedged: !!wedgeIn, offAxisCm, irradiatedSquareCm, openFraction, ssdCm, shaped: aperture.leaves || blocks.length > 0, heterogeneous });
-  const planningSystemDepths = theirDepths(ctx.planningSystemDepths, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
+  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, depthCm * MM_PER_CM, ctResult?.radiologicalDepthMm, ssdCm * MM_PER_CM);
   return {
     ok: true,
     value: {
@@ -284,14 +285,4 @@ function suggest(aperture: Aperture, blocks: readonly BlockOutline[], at: Return
   const patientMm = bldToPatient(frame, pointBld).map((v) => Math.round(v * 10) / 10) as [number, number, number];
   return { patientMm, atIsocenterPlaneMm: [bx, by] as const, depthCm: (at.sourceToPointAxialMm - ssdMm) / MM_PER_CM,
     offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
-}
-
-/** The planning system's own depth data beside ours, with the differences. */
-function theirDepths(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
-  if (!t) return undefined;
-  return {
-    ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),
-    ...(t.equivalentDepthMm !== undefined ? { equivalentDepthMm: t.equivalentDepthMm, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - t.equivalentDepthMm } : {}) } : {}),
-    ...(t.ssdMm !== undefined ? { ssdMm: t.ssdMm, ssdDifferenceMm: ssdMm - t.ssdMm } : {}),
-  };
 }

@@ -6,6 +6,7 @@ import { comparison, isHeterogeneous, levelsOf } from './comparison.js';
 import { type BeamCheckContext, beamStub, categorize } from './check-beam.js';
 import { ctAxisSsdMm, ctDepthOptions } from './patient-ct.js';
 import { clampTexts, factorRows } from './calculation-parts.js';
+import { besideOurs } from './planning-system-depths.js';
 
 /** Beyond dmax, a point where the depth dose has fallen below this lies on its steep fall-off. */
 const FALL_OFF_PERCENT = 80;
@@ -122,6 +123,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
   const heterogeneous = isHeterogeneous(policy, ctResult?.densityRange);
   const openArea = outline ? polygonArea(outline) : (2 * half) ** 2;
   const category = categorize(policy, { wedged: false, offAxisCm, irradiatedSquareCm: r.value.fieldSideCm, openFraction: openArea / (2 * half) ** 2, ssdCm, shaped: !!outline && !rectangle, heterogeneous });
+  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, depthCm * MM_PER_CM, ctResult ? lookupDepthCm * MM_PER_CM : undefined, ssdCm * MM_PER_CM);
   return {
     ok: true,
     value: {
@@ -139,6 +141,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): { ok: true; value: Bea
         ...compared,
         clamps: clampTexts(r.value.clamps),
         ...(ctResult ? { ct: ctResult } : {}),
+        ...(planningSystemDepths ? { planningSystemDepths } : {}),
         electron: { applicatorId: applicator.id, cutout: outline ? (rectangle ? 'rectangle' : 'shaped') : 'none', fieldSideCm: r.value.fieldSideCm, effectiveSsdCm: r.value.effectiveSsdCm, airGapCm: r.value.airGapCm, pddPercent },
       },
       ...levelsOf(policy, category),

@@ -1,4 +1,4 @@
-import type { Beam, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
+import type { Beam, BeamCheck, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 
 /** Points within this distance are the same point (coordinates are written to 0.1 mm or finer). */
@@ -35,4 +35,14 @@ export function planningSystemDepths(plan: Plan, group: FractionGroup, entry: Re
 
 function hasDepths(p: DoseVerificationPoint): boolean {
   return p.pointDepthMm !== undefined || p.equivalentDepthMm !== undefined || p.ssdMm !== undefined;
+}
+
+/** The planning system's own depth data beside ours, with the differences. */
+export function besideOurs(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
+  if (!t) return undefined;
+  return {
+    ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),
+    ...(t.equivalentDepthMm !== undefined ? { equivalentDepthMm: t.equivalentDepthMm, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - t.equivalentDepthMm } : {}) } : {}),
+    ...(t.ssdMm !== undefined ? { ssdMm: t.ssdMm, ssdDifferenceMm: ssdMm - t.ssdMm } : {}),
+  };
 }

@@ -11,19 +11,27 @@ import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
-const plan = (name: string, depthMm: number, extra: { applicator?: string; cutout?: readonly (readonly [number, number])[] } = {}): PlanCheck => {
+const plan = (name: string, depthMm: number, extra: { applicator?: string; cutout?: readonly (readonly [number, number])[]; depthData?: { depthMm: number; equivalentDepthMm: number; ssdMm: number } } = {}): PlanCheck => {
   const point: [number, number, number] = [0, depthMm, 0];
   return check(planFromSpec({
     file: `${name}.dcm`, patientId: 'E-1', patientName: 'Electron^Test', label: name, name, description: 'test',
     doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
     fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
     beams: [staticBeam(1, 'E9', 9, 0, 1000, iso, { radiation: 'ELECTRON', applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' },
-      ...(extra.cutout ? { cutout: extra.cutout } : {}), first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
+      ...(extra.cutout ? { cutout: extra.cutout } : {}), ...(extra.depthData ? { depthData: extra.depthData } : {}), first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
   }).plan, demo);
 };
 const beam = (r: PlanCheck): BeamCheck => beams(r)[0]!;
 
 describe('electron beams in the check', () => {
+  it("sets the planning system's depth and SSD beside ours, with the differences (values invented for the test)", () => {
+    // Ours: SSD 1000 mm from the plan, the point 20 mm below the surface.
+    const t = beam(plan('e-depths', 20, { depthData: { depthMm: 21.5, equivalentDepthMm: 21.5, ssdMm: 999 } })).calculation!.planningSystemDepths!;
+    expect([t.depthMm, t.ssdMm]).toEqual([21.5, 999]);
+    expect(t.depthDifferenceMm).toBeCloseTo(-1.5, 9);
+    expect(t.ssdDifferenceMm).toBeCloseTo(1, 9);
+    expect(t.equivalentDepthDifferenceMm).toBeUndefined(); // no CT: no radiological depth of ours
+  });
   it('at the open applicator\'s dmax (2.0 cm for 9 MeV, A10): PDD 100 %, Se 1, no flag', () => {
     const b = beam(plan('e-dmax', 20));
     expect(b.calculation!.depthCm).toBeCloseTo(2, 9);
