@@ -85,7 +85,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   if (lastVoxelEndMm < total - 1e-6) return { ok: false, message: `the point lies outside the CT: the ray leaves the CT ${(total - lastVoxelEndMm).toFixed(1)} mm before it, with no densities there` };
   // By the threshold, a body already there in the first voxel the ray meets runs out of the CT's
   // field of view: where it begins (the SSD) is unknown.
-  if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0) return { ok: false, message: 'the first CT voxel the ray meets is already body: the CT\'s field of view cuts the body there, so the surface (and the SSD) is unknown' };
+  if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0) return { ok: false, message: `the first CT voxel the ray meets is already at or above the body threshold (${o.bodyThresholdHu} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface` };
   // The drawn body must lie in the CT where the ray enters it: outside, there are no densities to add.
   if (surface !== undefined && entry > surface + 1e-6) return { ok: false, message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there` };
   const dir = scale(sub(pointMm, sourceMm), 1 / total);
