@@ -57,6 +57,8 @@ try {
   const t = Math.min(...theirs);
   console.log(`batch: 1 000 four-field + 100 two-arc plans: plumbline check ${o.toFixed(2)} s (${(files.length / o).toFixed(0)} plans/s), ` +
     `dcmdump ${t.toFixed(2)} s (${(files.length / t).toFixed(0)} plans/s): ratio ${(o / t).toFixed(2)} (best of 3; target < 0.5)`);
+  const single = Math.min(...[0, 1].map(() => seconds(process.execPath, [CLI, 'check', dir, '--beam-data', 'demo', '--threads', '1'])));
+  console.log(`  the same batch in one thread (--threads 1): ${single.toFixed(2)} s: ratio ${(single / t).toFixed(2)}; the worker threads make it ${(single / o).toFixed(2)}x faster`);
   // The same two kinds apart, to show where the time goes.
   for (const [label, prefix, count] of [['1 000 four-field plans alone', 'ff-', 1000], ['100 two-arc plans alone', 'arc-', 100]] as const) {
     const part = join(work, prefix);

@@ -42,6 +42,7 @@ export const CheckOptionsSchema = z.object({
   density: z.string().min(1).optional(),
   heterogeneity: z.enum(['tpr-ratio', 'batho'], { message: '--heterogeneity must be tpr-ratio or batho' }).default('tpr-ratio'),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
+  threads: z.string().regex(/^[1-9]\d*$/, '--threads must be a whole number of at least 1').transform(Number).optional(),
 });
 
 /** From this many files a batch without CT or dose is shared among worker threads. */
@@ -96,8 +97,8 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
   const plans: PlanCheck[] = [];
   const refused: Issue[] = [];
   const cts = ct?.ok ? ct.value : [];
-  // A large batch without CT or RT Dose is shared among worker threads, one per core.
-  const threads = Math.min(availableParallelism(), MAX_THREADS);
+  // A large batch without CT or RT Dose is shared among worker threads, one per core (or --threads).
+  const threads = o.threads ?? Math.min(availableParallelism(), MAX_THREADS);
   if (!cts.length && !doseGrids.length && files.length >= POOL_FROM_FILES && threads > 1) {
     // Dealt in turn, so long plans (arcs) are shared too; results go back into file order.
     const shares = Array.from({ length: threads }, (_, k) => files.filter((_f, i) => i % threads === k));

@@ -55,6 +55,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--body-threshold <HU>', 'HU at or above which a voxel is the body (default from the policy)')
     .option('--structures <rs.dcm>', 'RT Structure Set: its EXTERNAL structure is the body surface (else the HU threshold)')
     .option('--dose <file...>', "the planning system's RT Dose (any summation type): its dose at the point, shown beside")
+    .option('--threads <n>', 'worker threads for a batch of 200 files or more (default: one per core, up to 4; 1 checks in this thread)')
     .action(async (paths: string[], opts: Record<string, unknown>) => {
       outcome = await runCheck(paths, opts);
     });

@@ -24,5 +24,13 @@ describe('a large check batch', () => {
     const alone = SOURCES.map((f) => CheckDocument.parse(JSON.parse(run('check', f, '--beam-data', 'demo', '--json').stdout)).plans[0]!);
     const strip = (p: (typeof alone)[number]) => ({ ...p, file: '' });
     batch.plans.forEach((p, i) => expect(strip(p)).toEqual(strip(alone[i % 3]!)));
-  }, 120_000);
+    // --threads 1 checks the same batch in one thread, --threads 3 in three: the same document.
+    for (const n of ['1', '3']) {
+      const other = CheckDocument.parse(JSON.parse(run('check', dir, '--beam-data', 'demo', '--json', '--threads', n).stdout));
+      expect(other.plans.map(strip)).toEqual(batch.plans.map(strip));
+    }
+    const refused = run('check', dir, '--beam-data', 'demo', '--threads', '0');
+    expect(refused.status).toBe(2);
+    expect(refused.stderr).toMatch(/--threads must be a whole number of at least 1/);
+  }, 180_000);
 });
