@@ -42,7 +42,8 @@ export const CheckOptionsSchema = z.object({
   density: z.string().min(1).optional(),
   heterogeneity: z.enum(['tpr-ratio', 'batho'], { message: '--heterogeneity must be tpr-ratio or batho' }).default('tpr-ratio'),
   bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
-  threads: z.string().regex(/^[1-9]\d*$/, '--threads must be a whole number of at least 1').transform(Number).optional(),
+  threads: z.string().regex(/^[1-9]\d*$/, '--threads must be a whole number of at least 1').transform(Number)
+    .refine((n) => n <= 64, '--threads must be at most 64').optional(),
 });
 
 /** From this many files a batch without CT or dose is shared among worker threads. */
@@ -98,7 +99,7 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
   const refused: Issue[] = [];
   const cts = ct?.ok ? ct.value : [];
   // A large batch without CT or RT Dose is shared among worker threads, one per core (or --threads).
-  const threads = o.threads ?? Math.min(availableParallelism(), MAX_THREADS);
+  const threads = Math.min(o.threads ?? Math.min(availableParallelism(), MAX_THREADS), files.length);
   if (!cts.length && !doseGrids.length && files.length >= POOL_FROM_FILES && threads > 1) {
     // Dealt in turn, so long plans (arcs) are shared too; results go back into file order.
     const shares = Array.from({ length: threads }, (_, k) => files.filter((_f, i) => i % threads === k));
