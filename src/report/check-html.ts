@@ -1,6 +1,7 @@
 import type { BeamCheck, PlanCheck } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { fixed as n, pointMm as mm, signed } from './table.js';
+import { planningDepthsText } from './planning-depths-text.js';
 
 const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 
@@ -57,6 +58,7 @@ heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixe
 MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).
 Category ${esc(b.category ?? '')}: tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %. Verdict: <b>${esc(b.verdict ?? '')}</b>.</p>
 ${b.verdictReasons.length ? `<ul>${b.verdictReasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>` : ''}
+${c.planningSystemDepths ? `<p class="note">Beside ours, ${esc(planningDepthsText(c.planningSystemDepths))}.</p>` : ''}
 ${c.clamps.length ? `<p class="note">Clamped lookups: ${c.clamps.map(esc).join('; ')}</p>` : ''}</section>`;
 }
 

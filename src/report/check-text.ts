@@ -2,6 +2,7 @@ import type { BeamCheck, PlanCheck } from '../model/index.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { fixed, pointMm as mm, signed, textTable } from './table.js';
+import { planningDepthsText } from './planning-depths-text.js';
 
 
 const HEADER = ['beam', 'name', 'energy', 'setup', 'depth cm', 'off-axis cm', 'rc cm', 'irr cm', 'Sc|Se', 'Sp', 'TPR/PDD', 'OAR', 'WF', 'MU plan', 'MU indep', 'TPS cGy', 'indep cGy', 'dev %', 'tol/action %', 'verdict'];
@@ -53,6 +54,7 @@ export function planCheckText(p: PlanCheck): string[] {
       const s = b.fitness.suggestion;
       notes.push(`${who}: a better point at the same depth: ${mm(s.patientMm)} (${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${b.suggestedPoint ? `: independent dose there ${b.suggestedPoint.independentDoseCGy.toFixed(1)} cGy (the planning system's dose there is not in the plan)` : ''}`);
     }
+    if (b.calculation!.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation!.planningSystemDepths)}`);
     for (const c of b.calculation!.clamps) notes.push(`${who}: ${c}`);
   }
   if (notes.length) out.push('  notes:', ...notes.map((n) => `    - ${n}`));
