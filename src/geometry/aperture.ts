@@ -199,11 +199,7 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
         const t = ((i + 0.5) * 2 * Math.PI) / n;
         const dx = Math.cos(t);
         const dy = Math.sin(t);
-        // Where the ray is inside the collimating opening: [enter, exit] (slabs, in the BLD frame).
-        const [ex0, ex1] = slab(box.x1, box.x2, x, dx);
-        const [ey0, ey1] = slab(box.y1, box.y2, y, dy);
-        const exit = Math.max(0, Math.min(ex1, ey1));
-        const enter = Math.max(0, ex0, ey0);
+        const [enter, exit] = spanInside(box, x, y, dx, dy);
         const rings: Ring[] = [];
         out.push(rings);
         if (enter >= exit) {
@@ -281,6 +277,13 @@ function pushRing(rings: Ring[], outerMm: number, weight: number): void {
   if (outerMm - (last?.outerMm ?? 0) < EPS_MM) return;
   if (last && last.weight === weight) rings[rings.length - 1] = { outerMm, weight };
   else rings.push({ outerMm, weight });
+}
+
+/** Where the ray (x, y) + s·(dx, dy), s ≥ 0, lies inside a rectangle: [enter, exit] (slabs; enter ≥ exit when it misses). */
+export function spanInside(box: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number }, x: number, y: number, dx: number, dy: number): [number, number] {
+  const [ex0, ex1] = slab(box.x1, box.x2, x, dx);
+  const [ey0, ey1] = slab(box.y1, box.y2, y, dy);
+  return [Math.max(0, ex0, ey0), Math.max(0, Math.min(ex1, ey1))];
 }
 
 /** The ray parameters [s0, s1] over which p + s·d lies in [lo, hi] (all s, or none, for d = 0). */

@@ -1,4 +1,4 @@
-import type { Aperture, Ring } from './aperture.js';
+import { type Aperture, type Ring, spanInside } from './aperture.js';
 import { insidePolygon, polygonEdgeDistance, polygonRayCrossings, type Polygon } from './polygon.js';
 
 export interface BlockOutline {
@@ -37,12 +37,9 @@ export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[
     const t = ((i + 0.5) * 2 * Math.PI) / n;
     const dx = Math.cos(t);
     const dy = Math.sin(t);
-    const tx = dx > 0 ? (j.x2 - x) / dx : dx < 0 ? (j.x1 - x) / dx : Infinity;
-    const ty = dy > 0 ? (j.y2 - y) / dy : dy < 0 ? (j.y1 - y) / dy : Infinity;
-    const jawExit = Math.max(0, Math.min(tx, ty));
-    // The aperture's crossings come sorted; blocks add theirs (then all are sorted again).
-    // Entering the collimating opening (a point outside it) also starts a ring.
-    const enter = Math.max(dx > 0 ? (j.x1 - x) / dx : dx < 0 ? (j.x2 - x) / dx : -Infinity, dy > 0 ? (j.y1 - y) / dy : dy < 0 ? (j.y2 - y) / dy : -Infinity);
+    // The aperture's and the blocks' crossings, and where the ray enters the collimating opening
+    // (a point outside it), each start a ring; the opening's far side ends the last.
+    const [enter, jawExit] = spanInside(j, x, y, dx, dy);
     const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort((a, b) => a - b);
     const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
     const rings: Ring[] = [];
