@@ -1,5 +1,5 @@
 import type { ClarksonSector, LookupLog, PhotonBeamModel } from '../model/index.js';
-import { spAt, tprAt, tprAtDepth } from './beam-factors.js';
+import { spAt, tprAtDepth } from './beam-factors.js';
 import { equivalentSquareOfCircleCm } from './equivalent-square.js';
 
 export interface ClarksonResult {
@@ -35,8 +35,8 @@ export function clarksonSpTpr(
     return a - (s1 * (b - a)) / (s2 - s1);
   };
   const sp0 = extrapolate((s) => spAt(beam, s, log));
-  const tpr0 = extrapolate((s) => tprAt(beam, depthCm, s, log));
   const tprHere = tprAtDepth(beam, depthCm, log);
+  const tpr0 = extrapolate((s) => tprHere(s, log));
   const spr = (side: number) => (spAt(beam, side, log) * tprHere(side, log)) / sp0 - tpr0;
   const spr1 = spr(s1);
   // Below the smallest measured field, SPR falls linearly to 0 at zero field.

@@ -1,8 +1,7 @@
 import type { BeamCheck } from '../model/index.js';
+import { signed } from './table.js';
 
 type Theirs = NonNullable<NonNullable<BeamCheck['calculation']>['planningSystemDepths']>;
-
-const signed = (v: number) => `${v >= 0 ? '+' : ''}${v.toFixed(1)}`;
 
 /** "the planning system's depth 98.0 mm (ours +2.0 mm), …": its own depth data beside ours, one line for the terminal and the HTML report. */
 export function planningDepthsText(t: Theirs): string {
