@@ -8,14 +8,6 @@ interface Band {
   readonly x1: number;
 }
 
-/** A boundary segment of the opening, isocenter plane, mm, BEAM LIMITING DEVICE frame. */
-interface Segment {
-  readonly ax: number;
-  readonly ay: number;
-  readonly bx: number;
-  readonly by: number;
-}
-
 /**
  * The opening at the isocenter plane made by the jaws and the MLC leaves (blocks are not part of
  * it: beams with blocks are handled elsewhere). Coordinates in the BEAM LIMITING DEVICE frame; for
@@ -112,18 +104,8 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   // The outline's edges, built when first needed (edge distances, the general sector crossings;
   // the sector walk of jaw-and-leaf fields does without them). All are along u or along v: kept
   // apart as (position, from, to) triples, a ray's crossing with each is one multiplication.
-  let outline: { segments: Segment[]; edgesV: Float64Array; edgesU: Float64Array } | undefined;
-  const edges = () => {
-    if (outline) return outline;
-    const segments = boundary(bands);
-    const alongV: number[] = [];
-    const alongU: number[] = [];
-    for (const g of segments) {
-      if (g.ax === g.bx && g.ay !== g.by) alongV.push(g.ax, Math.min(g.ay, g.by), Math.max(g.ay, g.by));
-      else if (g.ay === g.by && g.ax !== g.bx) alongU.push(g.ay, Math.min(g.ax, g.bx), Math.max(g.ax, g.bx));
-    }
-    return (outline = { segments, edgesV: Float64Array.from(alongV), edgesU: Float64Array.from(alongU) });
-  };
+  let outline: { edgesV: Float64Array; edgesU: Float64Array } | undefined;
+  const edges = () => (outline ??= boundary(bands));
   const inOpen = (u: number, v: number): boolean => {
     let lo = 0;
     let hi = open.length - 1;
@@ -165,9 +147,10 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       return swapped ? inOpen(y, x) : inOpen(x, y);
     },
     edgeDistanceMm(x: number, y: number): number {
-      const [u, v] = swapped ? [y, x] : [x, y];
-      let d = Infinity;
-      for (const g of edges().segments) d = Math.min(d, segmentDistance(u, v, g));
+      const u = swapped ? y : x;
+      const v = swapped ? x : y;
+      const { edgesV, edgesU } = edges();
+      const d = Math.sqrt(Math.min(edgeDistance2(edgesV, u, v), edgeDistance2(edgesU, v, u)));
       return inOpen(u, v) ? d : -d;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {
@@ -321,26 +304,41 @@ function firstBandFrom(flat: Float64Array, v: number, down: boolean): number {
 /**
  * The outline of a stack of bands: each open band's two ends, and between neighbouring bands the
  * parts of the shared boundary covered by one band only (the symmetric difference of their openings).
+ * Every edge runs along v (u constant) or along u (v constant): kept as flat (position, from, to)
+ * triples, so a ray's crossing with one, or a point's distance to it, needs no object.
  */
-function boundary(bands: readonly Band[]): Segment[] {
-  const out: Segment[] = [];
+function boundary(bands: readonly Band[]): { edgesV: Float64Array; edgesU: Float64Array } {
+  const alongV: number[] = [];
+  const alongU: number[] = [];
   const open = (b: Band | undefined) => (b && b.x1 > b.x0 ? b : undefined);
   for (const b of bands) {
     if (!open(b)) continue;
-    out.push({ ax: b.x0, ay: b.y0, bx: b.x0, by: b.y1 }, { ax: b.x1, ay: b.y0, bx: b.x1, by: b.y1 });
+    alongV.push(b.x0, b.y0, b.y1, b.x1, b.y0, b.y1);
   }
   for (let i = -1; i < bands.length; i++) {
     const lower = open(bands[i]);
     const upper = open(bands[i + 1]);
     // Bands are contiguous only when they share the boundary line.
     if (lower && upper && Math.abs(lower.y1 - upper.y0) < 1e-9) {
-      for (const [a, b] of symmetricDifference([lower.x0, lower.x1], [upper.x0, upper.x1])) out.push({ ax: a, ay: lower.y1, bx: b, by: lower.y1 });
+      for (const [a, b] of symmetricDifference([lower.x0, lower.x1], [upper.x0, upper.x1])) alongU.push(lower.y1, a, b);
     } else {
-      if (lower) out.push({ ax: lower.x0, ay: lower.y1, bx: lower.x1, by: lower.y1 });
-      if (upper) out.push({ ax: upper.x0, ay: upper.y0, bx: upper.x1, by: upper.y0 });
+      if (lower) alongU.push(lower.y1, lower.x0, lower.x1);
+      if (upper) alongU.push(upper.y0, upper.x0, upper.x1);
     }
   }
-  return out;
+  return { edgesV: Float64Array.from(alongV), edgesU: Float64Array.from(alongU) };
+}
+
+/** The squared distance from (p, q) to the nearest of flat (position, from, to) edges along q. */
+function edgeDistance2(edges: Float64Array, p: number, q: number): number {
+  let best = Infinity;
+  for (let k = 0; k < edges.length; k += 3) {
+    const dp = p - edges[k]!;
+    const dq = q < edges[k + 1]! ? edges[k + 1]! - q : q > edges[k + 2]! ? q - edges[k + 2]! : 0;
+    const d2 = dp * dp + dq * dq;
+    if (d2 < best) best = d2;
+  }
+  return best;
 }
 
 /** The length of `boundary(bands)`, added up the same way without building it. */
@@ -371,12 +369,4 @@ function symmetricDifference(a: readonly [number, number], b: readonly [number, 
   if (a[0] !== b[0]) out.push([Math.min(a[0], b[0]), lo]);
   if (a[1] !== b[1]) out.push([hi, Math.max(a[1], b[1])]);
   return out;
-}
-
-function segmentDistance(px: number, py: number, g: Segment): number {
-  const dx = g.bx - g.ax;
-  const dy = g.by - g.ay;
-  const len2 = dx * dx + dy * dy;
-  const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((px - g.ax) * dx + (py - g.ay) * dy) / len2));
-  return Math.hypot(px - (g.ax + t * dx), py - (g.ay + t * dy));
 }

@@ -100,3 +100,34 @@ describe('the outline length of a jaw-and-leaf opening', () => {
     }
   });
 });
+
+describe('the distance from a point to the outline of a jaw-and-leaf opening', () => {
+  it('equals the distance to the nearest 0.5 mm raster cell on the other side, within a cell (random leaf patterns)', () => {
+    let seed = 2024;
+    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const step = 0.5;
+    for (let trial = 0; trial < 12; trial++) {
+      const pairs = 10;
+      const bank1 = Array.from({ length: pairs }, () => Math.round(rand() * 120 - 80));
+      const bank2 = bank1.map((l) => (rand() < 0.2 ? l : l + Math.round(rand() * 80)));
+      const a = apertureAt(beam({ pairs, width: 10 }), cp([-60, 55], [-42.5, 37.5], [...bank1, ...bank2]))!;
+      const n = Math.round(160 / step);
+      const centres: [number, number, boolean][] = [];
+      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+        const x = -80 + (i + 0.5) * step;
+        const y = -80 + (j + 0.5) * step;
+        centres.push([x, y, a.isOpen(x, y)]);
+      }
+      for (let k = 0; k < 5; k++) {
+        const px = rand() * 120 - 60;
+        const py = rand() * 80 - 40;
+        const open = a.isOpen(px, py);
+        let nearest = Infinity;
+        for (const [x, y, o] of centres) if (o !== open) nearest = Math.min(nearest, Math.hypot(x - px, y - py));
+        const d = a.edgeDistanceMm(px, py);
+        expect(Math.sign(d) || 1, `trial ${trial} point ${k}`).toBe(open ? 1 : -1);
+        expect(Math.abs(Math.abs(d) - nearest), `trial ${trial} point ${k}`).toBeLessThanOrEqual(step);
+      }
+    }
+  });
+});
