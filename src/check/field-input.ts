@@ -1,5 +1,5 @@
-import { type Aperture, type BlockOutline, pointIsOpen, sectorRings } from '../geometry/index.js';
-import { type ClarksonSector, MM_PER_CM } from '../model/index.js';
+import { type Aperture, type BlockOutline, type PackedRings, pointIsOpen, sectorRings } from '../geometry/index.js';
+import { type ClarksonRings, MM_PER_CM } from '../model/index.js';
 import { equivalentSquareOfOutlineCm } from '../physics/index.js';
 
 /** Sectors of the Clarkson integration (at least 36 are recommended; more near edges do no harm). */
@@ -13,7 +13,7 @@ export interface FieldInput {
   readonly irradiatedSquareCm: number;
   /** The open area: the aperture's, or with blocks the open rings' around the point. */
   readonly openAreaMm2: number;
-  readonly clarksonSectors?: readonly ClarksonSector[];
+  readonly clarksonSectors?: ClarksonRings;
   /** The fluence at the point: 1 open, the leaf transmission under the leaves, 0 beyond the jaws. */
   readonly primaryWeight: number;
 }
@@ -37,19 +37,28 @@ export function fieldInput(aperture: Aperture, blocks: readonly BlockOutline[], 
   return {
     collimatorFieldCm, jawAreaMm2, irradiatedSquareCm,
     openAreaMm2: rings && blocks.length ? openArea(rings) : aperture.areaMm2,
-    ...(rings ? { clarksonSectors: rings.map((sector) => ({ crossingsCm: [], rings: sector.map((r) => ({ outerCm: (r.outerMm * depthScale) / MM_PER_CM, weight: r.weight })) })) } : {}),
+    ...(rings ? { clarksonSectors: { start: rings.start, outerCm: atDepthCm(rings.outerMm, depthScale), weight: rings.weight } } : {}),
     primaryWeight,
   };
 }
 
+/** Ring radii at the isocenter plane (mm) to the point's depth (cm). */
+function atDepthCm(outerMm: readonly number[], depthScale: number): number[] {
+  const out = new Array<number>(outerMm.length);
+  for (let k = 0; k < outerMm.length; k++) out[k] = (outerMm[k]! * depthScale) / MM_PER_CM;
+  return out;
+}
+
 /** Area of the open rings (weight 1) of n equal sectors: Σ (π/n)(r_out² − r_in²). */
-function openArea(sectors: readonly (readonly { outerMm: number; weight: number }[])[]): number {
+function openArea(p: PackedRings): number {
+  const n = p.start.length - 1;
   let area = 0;
-  for (const rings of sectors) {
+  for (let i = 0; i < n; i++) {
     let inner = 0;
-    for (const r of rings) {
-      if (r.weight === 1) area += (Math.PI / sectors.length) * (r.outerMm * r.outerMm - inner * inner);
-      inner = r.outerMm;
+    for (let k = p.start[i]!; k < p.start[i + 1]!; k++) {
+      const outer = p.outerMm[k]!;
+      if (p.weight[k] === 1) area += (Math.PI / n) * (outer * outer - inner * inner);
+      inner = outer;
     }
   }
   return area;

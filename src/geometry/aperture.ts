@@ -1,4 +1,5 @@
 import type { Beam, ControlPoint } from '../model/index.js';
+import { type PackedRings, RING_EPS_MM, RingWriter } from './packed-rings.js';
 
 /** An axis-aligned opening band: y in [y0, y1], x in [x0, x1] (empty when x1 <= x0). Isocenter plane, mm. */
 interface Band {
@@ -39,18 +40,31 @@ export interface Aperture {
    * opening: weight 1 where open, `leafTransmission` under the leaves, 0 outside the opening.
    * Walks the leaf bands the ray crosses instead of testing every edge (see sector-rings.ts).
    */
-  sectorRingsMm(x: number, y: number, n: number, leafTransmission: number): Ring[][];
-}
-
-export interface Ring {
-  /** Outer radius of the ring from the point, mm at the isocenter plane. */
-  readonly outerMm: number;
-  /** 1 where open, the leaves' or the block's transmission where they block, 0 beyond the jaws. */
-  readonly weight: number;
+  sectorRingsMm(x: number, y: number, n: number, leafTransmission: number): PackedRings;
 }
 
 /** Lengths below this are no ring (and crossings closer than it are one). */
-const EPS_MM = 1e-9;
+const EPS_MM = RING_EPS_MM;
+
+const DIRECTIONS = new Map<number, Float64Array>();
+
+/** cos and sin of the mid-sector directions ((i + ½)·2π/n) of n equal sectors, computed once per n. */
+export function sectorDirections(n: number): Float64Array {
+  let d = DIRECTIONS.get(n);
+  if (!d) {
+    d = new Float64Array(2 * n);
+    for (let i = 0; i < n; i++) {
+      const t = ((i + 0.5) * 2 * Math.PI) / n;
+      d[2 * i] = Math.cos(t);
+      d[2 * i + 1] = Math.sin(t);
+    }
+    DIRECTIONS.set(n, d);
+  }
+  return d;
+}
+
+/** Reused by every sector walk (one thread, no re-entry). */
+const writer = new RingWriter();
 
 const UNBOUNDED_MM = 1e4;
 
@@ -149,19 +163,18 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     edgeDistanceMm(x: number, y: number): number {
       const u = swapped ? y : x;
       const v = swapped ? x : y;
-      const { edgesV, edgesU } = edges();
-      const d = Math.sqrt(Math.min(edgeDistance2(edgesV, u, v), edgeDistance2(edgesU, v, u)));
+      const d = outlineDistance(bands, u, v);
       return inOpen(u, v) ? d : -d;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {
       const [pu, pv] = swapped ? [y, x] : [x, y];
       const { edgesV, edgesU } = edges();
+      const dirs = sectorDirections(n);
       const out: number[][] = [];
       for (let i = 0; i < n; i++) {
-        const t = ((i + 0.5) * 2 * Math.PI) / n;
         // Direction in BLD (x, y), then in the band frame.
-        const du = swapped ? Math.sin(t) : Math.cos(t);
-        const dv = swapped ? Math.cos(t) : Math.sin(t);
+        const du = swapped ? dirs[2 * i + 1]! : dirs[2 * i]!;
+        const dv = swapped ? dirs[2 * i]! : dirs[2 * i + 1]!;
         const hits: number[] = [];
         // Ray (pu, pv) + s·(du, dv) against each edge: along v (u constant), then along u.
         edgeHits(edgesV, pu, pv, du, dv, hits);
@@ -174,22 +187,22 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       }
       return out;
     },
-    sectorRingsMm(x: number, y: number, n: number, leafTransmission: number): Ring[][] {
-      const [pu, pv] = swapped ? [y, x] : [x, y];
+    sectorRingsMm(x: number, y: number, n: number, leafTransmission: number): PackedRings {
+      const pu = swapped ? y : x;
+      const pv = swapped ? x : y;
       const m = openFlat.length / 4;
-      const out: Ring[][] = [];
+      const dirs = sectorDirections(n);
+      writer.begin(n);
       for (let i = 0; i < n; i++) {
-        const t = ((i + 0.5) * 2 * Math.PI) / n;
-        const dx = Math.cos(t);
-        const dy = Math.sin(t);
+        const dx = dirs[2 * i]!;
+        const dy = dirs[2 * i + 1]!;
         const [enter, exit] = spanInside(box, x, y, dx, dy);
-        const rings: Ring[] = [];
-        out.push(rings);
         if (enter >= exit) {
-          if (exit >= EPS_MM) rings.push({ outerMm: exit, weight: 0 });
+          writer.push(exit, 0);
+          writer.endSector();
           continue;
         }
-        if (enter >= EPS_MM) rings.push({ outerMm: enter, weight: 0 });
+        writer.push(enter, 0);
         // The open stretches of the ray, band by band outward from the point (bands are in v order);
         // inline slab arithmetic: this loop runs for every sector of every segment of an arc.
         const du = swapped ? dy : dx;
@@ -228,13 +241,14 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
           const from = Math.max(a, c, enter);
           const to = Math.min(b, d, exit);
           if (to - from < EPS_MM || to <= reached) continue;
-          if (from - reached >= EPS_MM) pushRing(rings, from, leafTransmission);
-          pushRing(rings, to, 1);
+          if (from - reached >= EPS_MM) writer.push(from, leafTransmission);
+          writer.push(to, 1);
           reached = to;
         }
-        pushRing(rings, exit, leafTransmission);
+        writer.push(exit, leafTransmission);
+        writer.endSector();
       }
-      return out;
+      return writer.finish();
     },
   };
 }
@@ -252,14 +266,6 @@ function edgeHits(edges: Float64Array, p: number, q: number, dp: number, dq: num
     const at = q + h * dq;
     if (at >= edges[k + 1]! && at <= edges[k + 2]!) hits.push(h);
   }
-}
-
-/** Adds a ring out to `outerMm`, merged with the last when of the same weight; none shorter than EPS_MM. */
-function pushRing(rings: Ring[], outerMm: number, weight: number): void {
-  const last = rings.length ? rings[rings.length - 1]! : undefined;
-  if (outerMm - (last?.outerMm ?? 0) < EPS_MM) return;
-  if (last && last.weight === weight) rings[rings.length - 1] = { outerMm, weight };
-  else rings.push({ outerMm, weight });
 }
 
 /** Where the ray (x, y) + s·(dx, dy), s ≥ 0, lies inside a rectangle: [enter, exit] (slabs; enter ≥ exit when it misses). */
@@ -301,72 +307,75 @@ function firstBandFrom(flat: Float64Array, v: number, down: boolean): number {
   return lo - 1;
 }
 
+/** Receives the outline's edges: along v (at u = p, from v = a to b) or along u (at v = p, from u = a to b), a < b. */
+interface OutlineVisitor {
+  alongV(p: number, a: number, b: number): void;
+  alongU(p: number, a: number, b: number): void;
+}
+
 /**
  * The outline of a stack of bands: each open band's two ends, and between neighbouring bands the
  * parts of the shared boundary covered by one band only (the symmetric difference of their openings).
- * Every edge runs along v (u constant) or along u (v constant): kept as flat (position, from, to)
- * triples, so a ray's crossing with one, or a point's distance to it, needs no object.
+ * Every edge runs along v or along u; the visitor gets each as (position, from, to), so the length,
+ * the edges and a point's distance to them come from this one walk without edge objects.
  */
-function boundary(bands: readonly Band[]): { edgesV: Float64Array; edgesU: Float64Array } {
-  const alongV: number[] = [];
-  const alongU: number[] = [];
+function visitOutline(bands: readonly Band[], to: OutlineVisitor): void {
   const open = (b: Band | undefined) => (b && b.x1 > b.x0 ? b : undefined);
   for (const b of bands) {
     if (!open(b)) continue;
-    alongV.push(b.x0, b.y0, b.y1, b.x1, b.y0, b.y1);
+    to.alongV(b.x0, b.y0, b.y1);
+    to.alongV(b.x1, b.y0, b.y1);
   }
   for (let i = -1; i < bands.length; i++) {
     const lower = open(bands[i]);
     const upper = open(bands[i + 1]);
     // Bands are contiguous only when they share the boundary line.
     if (lower && upper && Math.abs(lower.y1 - upper.y0) < 1e-9) {
-      for (const [a, b] of symmetricDifference([lower.x0, lower.x1], [upper.x0, upper.x1])) alongU.push(lower.y1, a, b);
+      const lo = Math.max(lower.x0, upper.x0);
+      const hi = Math.min(lower.x1, upper.x1);
+      if (hi <= lo) {
+        to.alongU(lower.y1, lower.x0, lower.x1);
+        to.alongU(lower.y1, upper.x0, upper.x1);
+      } else {
+        if (lower.x0 !== upper.x0) to.alongU(lower.y1, Math.min(lower.x0, upper.x0), lo);
+        if (lower.x1 !== upper.x1) to.alongU(lower.y1, hi, Math.max(lower.x1, upper.x1));
+      }
     } else {
-      if (lower) alongU.push(lower.y1, lower.x0, lower.x1);
-      if (upper) alongU.push(upper.y0, upper.x0, upper.x1);
+      if (lower) to.alongU(lower.y1, lower.x0, lower.x1);
+      if (upper) to.alongU(upper.y0, upper.x0, upper.x1);
     }
   }
+}
+
+/** The outline's edges as flat (position, from, to) triples, along v and along u. */
+function boundary(bands: readonly Band[]): { edgesV: Float64Array; edgesU: Float64Array } {
+  const alongV: number[] = [];
+  const alongU: number[] = [];
+  visitOutline(bands, { alongV: (p, a, b) => alongV.push(p, a, b), alongU: (p, a, b) => alongU.push(p, a, b) });
   return { edgesV: Float64Array.from(alongV), edgesU: Float64Array.from(alongU) };
 }
 
-/** The squared distance from (p, q) to the nearest of flat (position, from, to) edges along q. */
-function edgeDistance2(edges: Float64Array, p: number, q: number): number {
-  let best = Infinity;
-  for (let k = 0; k < edges.length; k += 3) {
-    const dp = p - edges[k]!;
-    const dq = q < edges[k + 1]! ? edges[k + 1]! - q : q > edges[k + 2]! ? q - edges[k + 2]! : 0;
-    const d2 = dp * dp + dq * dq;
-    if (d2 < best) best = d2;
-  }
-  return best;
-}
-
-/** The length of `boundary(bands)`, added up the same way without building it. */
+/** The length of the outline. */
 function outlineLength(bands: readonly Band[]): number {
-  const open = (b: Band | undefined) => (b && b.x1 > b.x0 ? b : undefined);
   let length = 0;
-  for (const b of bands) if (open(b)) length += 2 * (b.y1 - b.y0);
-  for (let i = -1; i < bands.length; i++) {
-    const lower = open(bands[i]);
-    const upper = open(bands[i + 1]);
-    if (lower && upper && Math.abs(lower.y1 - upper.y0) < 1e-9) {
-      const lo = Math.max(lower.x0, upper.x0);
-      const hi = Math.min(lower.x1, upper.x1);
-      length += hi <= lo ? lower.x1 - lower.x0 + (upper.x1 - upper.x0) : Math.abs(lower.x0 - upper.x0) + Math.abs(lower.x1 - upper.x1);
-    } else {
-      if (lower) length += lower.x1 - lower.x0;
-      if (upper) length += upper.x1 - upper.x0;
-    }
-  }
+  visitOutline(bands, { alongV: (_p, a, b) => (length += b - a), alongU: (_p, a, b) => (length += b - a) });
   return length;
 }
 
-function symmetricDifference(a: readonly [number, number], b: readonly [number, number]): [number, number][] {
-  const lo = Math.max(a[0], b[0]);
-  const hi = Math.min(a[1], b[1]);
-  if (hi <= lo) return [[a[0], a[1]], [b[0], b[1]]];
-  const out: [number, number][] = [];
-  if (a[0] !== b[0]) out.push([Math.min(a[0], b[0]), lo]);
-  if (a[1] !== b[1]) out.push([hi, Math.max(a[1], b[1])]);
-  return out;
+/** The distance from (u, v) to the nearest edge of the outline. */
+function outlineDistance(bands: readonly Band[], u: number, v: number): number {
+  let best = Infinity;
+  visitOutline(bands, {
+    alongV: (p, a, b) => {
+      const dp = u - p;
+      const dq = v < a ? a - v : v > b ? v - b : 0;
+      best = Math.min(best, dp * dp + dq * dq);
+    },
+    alongU: (p, a, b) => {
+      const dp = v - p;
+      const dq = u < a ? a - u : u > b ? u - b : 0;
+      best = Math.min(best, dp * dp + dq * dq);
+    },
+  });
+  return Math.sqrt(best);
 }

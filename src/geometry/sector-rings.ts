@@ -1,5 +1,9 @@
-import { type Aperture, type Ring, spanInside } from './aperture.js';
+import { type Aperture, sectorDirections, spanInside } from './aperture.js';
+import { type PackedRings, RingWriter } from './packed-rings.js';
 import { insidePolygon, polygonEdgeDistance, polygonRayCrossings, type Polygon } from './polygon.js';
+
+/** Reused by the general form (one thread, no re-entry). */
+const writer = new RingWriter();
 
 export interface BlockOutline {
   readonly kind: 'APERTURE' | 'SHIELDING';
@@ -13,13 +17,13 @@ export interface BlockOutline {
  * leaves or a block) starts a new ring, and each ring is weighed by what covers its middle, which
  * handles any outline the three make together, re-entrant or not.
  */
-export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
+export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): PackedRings {
   if (blocks.length === 0) return aperture.sectorRingsMm(x, y, n, leafTransmission);
   return crossingRings(aperture, blocks, x, y, n, leafTransmission);
 }
 
 /** The general form (any blocks), by the crossings of each sector with every edge; exported for the tests. */
-export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): Ring[][] {
+export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): PackedRings {
   // Along an axis without jaws the leaves' open extent bounds the field (no transmission beyond it).
   const j = aperture.collimatingMm;
   const inJaws = (px: number, py: number) => px >= j.x1 && px <= j.x2 && py >= j.y1 && py <= j.y2;
@@ -33,28 +37,26 @@ export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[
     return w;
   };
   const crossings = aperture.sectorCrossingsMm(x, y, n);
-  return crossings.map((apertureCuts, i) => {
-    const t = ((i + 0.5) * 2 * Math.PI) / n;
-    const dx = Math.cos(t);
-    const dy = Math.sin(t);
+  const dirs = sectorDirections(n);
+  writer.begin(n);
+  crossings.forEach((apertureCuts, i) => {
+    const dx = dirs[2 * i]!;
+    const dy = dirs[2 * i + 1]!;
     // The aperture's and the blocks' crossings, and where the ray enters the collimating opening
     // (a point outside it), each start a ring; the opening's far side ends the last.
     const [enter, jawExit] = spanInside(j, x, y, dx, dy);
     const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort((a, b) => a - b);
     const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
-    const rings: Ring[] = [];
     let from = 0;
     for (const to of [...cuts, jawExit]) {
       if (to - from < 1e-9) continue;
       const mid = (from + to) / 2;
-      const weight = weightAt(x + mid * dx, y + mid * dy);
-      const last = rings[rings.length - 1];
-      if (last && last.weight === weight) rings[rings.length - 1] = { outerMm: to, weight };
-      else rings.push({ outerMm: to, weight });
+      writer.push(to, weightAt(x + mid * dx, y + mid * dy));
       from = to;
     }
-    return rings;
+    writer.endSector();
   });
+  return writer.finish();
 }
 
 /** Whether the point itself is open (not under a leaf, a jaw or a block). */

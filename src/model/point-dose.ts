@@ -23,9 +23,20 @@ export interface PhotonPointInput {
    * For an irregular field in an SAD setup, the sectors around the point: Sp·TPR then comes from
    * Clarkson integration instead of the equivalent square.
    */
-  readonly clarksonSectors?: readonly ClarksonSector[];
+  readonly clarksonSectors?: readonly ClarksonSector[] | ClarksonRings;
   /** With Clarkson sectors: the fluence at the point itself (1 open, the leaf transmission under the leaves). */
   readonly primaryWeight?: number;
+}
+
+/**
+ * The rings of every sector around the point in flat arrays (cm at the point's depth): sector i's
+ * rings are entries start[i] to start[i + 1] − 1, outward, each with its weight (1 open, a
+ * transmission where blocked, 0 beyond the jaws). The form the geometry hands over for MLC fields.
+ */
+export interface ClarksonRings {
+  readonly start: readonly number[];
+  readonly outerCm: readonly number[];
+  readonly weight: readonly number[];
 }
 
 /**
@@ -36,8 +47,6 @@ export interface PhotonPointInput {
 export interface ClarksonSector {
   readonly crossingsCm: readonly number[];
   readonly jawLimitCm?: number;
-  /** Instead of crossings: rings out from the point, each with its weight (1 open, a transmission where blocked). */
-  readonly rings?: readonly { readonly outerCm: number; readonly weight: number }[];
 }
 
 /**

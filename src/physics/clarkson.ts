@@ -1,4 +1,4 @@
-import type { ClarksonSector, LookupLog, PhotonBeamModel } from '../model/index.js';
+import type { ClarksonRings, ClarksonSector, LookupLog, PhotonBeamModel } from '../model/index.js';
 import { spAt, tprAtDepth } from './beam-factors.js';
 import { equivalentSquareOfCircleCm } from './equivalent-square.js';
 
@@ -23,7 +23,7 @@ export interface ClarksonResult {
 export function clarksonSpTpr(
   beam: PhotonBeamModel,
   depthCm: number,
-  sectorRadiiCm: readonly (number | readonly number[] | ClarksonSector)[],
+  sectorRadiiCm: readonly (number | readonly number[] | ClarksonSector)[] | ClarksonRings,
   log: LookupLog,
   leafTransmission = 0,
   primaryWeight = 1,
@@ -45,32 +45,43 @@ export function clarksonSpTpr(
     return side < s1 ? (spr1 * side) / s1 : spr(side);
   };
   let sum = 0;
-  for (const sector of sectorRadiiCm) {
-    // Scatter-sum form: each ring [a, b) of the sector adds weight × (SPR(b) − SPR(a)), weight 1
-    // where open, the leaf transmission where the leaves block it inside the jaws, 0 beyond the jaws.
-    const s = typeof sector === 'number' ? { crossingsCm: [sector] } : Array.isArray(sector) ? { crossingsCm: sector as readonly number[] } : (sector as ClarksonSector);
-    if (s.rings) {
+  let sectors: number;
+  if (isPacked(sectorRadiiCm)) {
+    // Scatter-sum form: each ring [a, b) of a sector adds weight × (SPR(b) − SPR(a)), weight 1 where
+    // open, the leaf or block transmission where they cover it inside the jaws, 0 beyond the jaws.
+    const { start, outerCm, weight } = sectorRadiiCm;
+    sectors = start.length - 1;
+    for (let i = 0; i < sectors; i++) {
       let before = 0;
-      for (const ring of s.rings) {
-        const value = sprOfRadius(ring.outerCm);
-        sum += ring.weight * (value - before);
+      for (let k = start[i]!; k < start[i + 1]!; k++) {
+        const value = sprOfRadius(outerCm[k]!);
+        sum += weight[k]! * (value - before);
         before = value;
       }
-      continue;
     }
-    const limit = s.jawLimitCm ?? s.crossingsCm[s.crossingsCm.length - 1] ?? 0;
-    let previous = 0;
-    let open = true;
-    for (const r of [...s.crossingsCm.filter((c) => c < limit), limit]) {
-      const value = sprOfRadius(r);
-      sum += (open ? 1 : leafTransmission) * (value - previous);
-      previous = value;
-      open = !open;
+  } else {
+    sectors = sectorRadiiCm.length;
+    for (const sector of sectorRadiiCm) {
+      // Crossings: open and under the leaves in turn out to the jaws (the same scatter sum).
+      const s = typeof sector === 'number' ? { crossingsCm: [sector] } : Array.isArray(sector) ? { crossingsCm: sector as readonly number[] } : (sector as ClarksonSector);
+      const limit = s.jawLimitCm ?? s.crossingsCm[s.crossingsCm.length - 1] ?? 0;
+      let previous = 0;
+      let open = true;
+      for (const r of [...s.crossingsCm.filter((c) => c < limit), limit]) {
+        const value = sprOfRadius(r);
+        sum += (open ? 1 : leafTransmission) * (value - previous);
+        previous = value;
+        open = !open;
+      }
     }
   }
-  const meanSpr = sectorRadiiCm.length ? sum / sectorRadiiCm.length : 0;
+  const meanSpr = sectors ? sum / sectors : 0;
   // The primary reaching the point is weighed by what covers the point itself (1 when open).
-  return { spTpr: sp0 * (primaryWeight * tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors: sectorRadiiCm.length };
+  return { spTpr: sp0 * (primaryWeight * tpr0 + meanSpr), sp0, tpr0, meanSpr, sectors };
+}
+
+function isPacked(s: readonly unknown[] | ClarksonRings): s is ClarksonRings {
+  return !Array.isArray(s);
 }
 
 const SMALLEST = new WeakMap<PhotonBeamModel, readonly [number, number]>();

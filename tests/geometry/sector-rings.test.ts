@@ -5,7 +5,7 @@
  * rectangles drawn in the test (common practice, no source).
  */
 import { describe, expect, it } from 'vitest';
-import { apertureAt, crossingRings, type Ring } from '../../src/geometry/index.js';
+import { apertureAt, crossingRings, type Ring, ringsOf } from '../../src/geometry/index.js';
 import type { Beam, ControlPoint } from '../../src/model/index.js';
 
 type Mlc = { type: 'MLCX' | 'MLCY'; pairs: number; width: number };
@@ -33,14 +33,14 @@ describe('Clarkson rings by the leaf-band walk', () => {
     const a = apertureAt(beam({ type: 'MLCX', pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], { type: 'MLCX', positionsMm: [-50, -50, -50, 50, -20, 50] }))!;
     // From (30, −10) straight up: open to y = −5, under the middle pair's leaf to 5, open to 15, then
     // within the jaws but past the leaf bank (counted as under the leaves) to the jaw at y = 100.
-    close(a.sectorRingsMm(30, -10, 2, T)[0]!, [[5, 1], [15, T], [25, 1], [110, T]]);
+    close(ringsOf(a.sectorRingsMm(30, -10, 2, T))[0]!, [[5, 1], [15, T], [25, 1], [110, T]]);
   });
 
   it('a point outside the jaws: nothing until the ray enters the opening', () => {
     const a = apertureAt(beam(), cp([-50, 50], [-50, 50]))!;
     // One sector, pointing at 180°: from x = 80 the jaw edge at x = 50 is 30 mm away, the far one 130 mm.
-    close(a.sectorRingsMm(80, 0, 1, T)[0]!, [[30, 0], [130, 1]]);
-    close(crossingRings(a, [], 80, 0, 1, T)[0]!, [[30, 0], [130, 1]]);
+    close(ringsOf(a.sectorRingsMm(80, 0, 1, T))[0]!, [[30, 0], [130, 1]]);
+    close(ringsOf(crossingRings(a, [], 80, 0, 1, T))[0]!, [[30, 0], [130, 1]]);
   });
 
   it('leaves along X (MLCX) and along Y (MLCY) give the rings of the general form', () => {
@@ -48,8 +48,8 @@ describe('Clarkson rings by the leaf-band walk', () => {
     const x = apertureAt(beam({ type: 'MLCX', pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], { type: 'MLCX', positionsMm: leaves }))!;
     const y = apertureAt(beam({ type: 'MLCY', pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], { type: 'MLCY', positionsMm: leaves }))!;
     for (const a of [x, y]) {
-      const fast = a.sectorRingsMm(12, -7, 36, T);
-      const slow = crossingRings(a, [], 12, -7, 36, T);
+      const fast = ringsOf(a.sectorRingsMm(12, -7, 36, T));
+      const slow = ringsOf(crossingRings(a, [], 12, -7, 36, T));
       fast.forEach((rings, i) => close(rings, slow[i]!.map((r) => [r.outerMm, r.weight])));
     }
   });
@@ -72,8 +72,8 @@ describe('Clarkson rings by the leaf-band walk', () => {
       checked++;
       const px = rand() * 200 - 100;
       const py = rand() * 200 - 100;
-      const fast = a.sectorRingsMm(px, py, 72, T);
-      const slow = crossingRings(a, [], px, py, 72, T);
+      const fast = ringsOf(a.sectorRingsMm(px, py, 72, T));
+      const slow = ringsOf(crossingRings(a, [], px, py, 72, T));
       fast.forEach((rings, i) => {
         expect(rings.map((r) => r.weight), `trial ${trial} sector ${i}`).toEqual(slow[i]!.map((r) => r.weight));
         rings.forEach((r, k) => expect(Math.abs(r.outerMm - slow[i]![k]!.outerMm), `trial ${trial} sector ${i} ring ${k}`).toBeLessThan(1e-7));

@@ -43,7 +43,12 @@ describe('Clarkson integration', () => {
   it('a central block is the scatter-sum form: each sector contributes SPR(edge) − SPR(block edge)', () => {
     // Rings: blocked (weight 0) to 2 cm, open to the field edge; the block's primary is the caller's concern.
     const radii = rectangleRadii(20, 20, 72);
-    const blocked = clarksonSpTpr(b10, 10, radii.map((r) => ({ crossingsCm: [], rings: [{ outerCm: 2, weight: 0 }, { outerCm: r, weight: 1 }] })), []);
+    const rings = {
+      start: Array.from({ length: radii.length + 1 }, (_, i) => 2 * i),
+      outerCm: radii.flatMap((r) => [2, r]),
+      weight: radii.flatMap(() => [0, 1]),
+    };
+    const blocked = clarksonSpTpr(b10, 10, rings, []);
     const open = clarksonSpTpr(b10, 10, radii, []);
     const block = clarksonSpTpr(b10, 10, radii.map(() => 2), []);
     expect(blocked.meanSpr).toBeCloseTo(open.meanSpr - block.meanSpr, 12);
