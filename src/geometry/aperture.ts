@@ -65,6 +65,7 @@ export function sectorDirections(n: number): Float64Array {
 
 /** Reused by every sector walk (one thread, no re-entry). */
 const writer = new RingWriter();
+const span = new Float64Array(2);
 
 const UNBOUNDED_MM = 1e4;
 
@@ -135,19 +136,18 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     }
     return false;
   };
-  const u = [Math.min(...open.map((b) => b.x0)), Math.max(...open.map((b) => b.x1))];
-  const v = [Math.min(...open.map((b) => b.y0)), Math.max(...open.map((b) => b.y1))];
-  const [bx, by] = swapped ? [v, u] : [u, v];
-  const extent = open.length ? { x1: bx[0]!, x2: bx[1]!, y1: by[0]!, y2: by[1]! } : { x1: 0, x2: 0, y1: 0, y2: 0 };
-  const box = { x1: xj ? jaws.x1 : extent.x1, x2: xj ? jaws.x2 : extent.x2, y1: yj ? jaws.y1 : extent.y1, y2: yj ? jaws.y2 : extent.y2 };
-  // The open bands as flat (v0, v1, u0, u1) for the sector walk.
-  const openFlat = new Float64Array(4 * open.length);
-  open.forEach((b, k) => {
-    openFlat[4 * k] = b.y0;
-    openFlat[4 * k + 1] = b.y1;
-    openFlat[4 * k + 2] = b.x0;
-    openFlat[4 * k + 3] = b.x1;
+  // The open bands' extent, and the open bands as flat (v0, v1, u0, u1) for the sector walk.
+  let [uMin, uMax, vMin, vMax] = [Infinity, -Infinity, Infinity, -Infinity];
+  const openFlat: number[] = [];
+  open.forEach((b) => {
+    openFlat.push(b.y0, b.y1, b.x0, b.x1);
+    uMin = Math.min(uMin, b.x0);
+    uMax = Math.max(uMax, b.x1);
+    vMin = Math.min(vMin, b.y0);
+    vMax = Math.max(vMax, b.y1);
   });
+  const extent = !open.length ? { x1: 0, x2: 0, y1: 0, y2: 0 } : swapped ? { x1: vMin, x2: vMax, y1: uMin, y2: uMax } : { x1: uMin, x2: uMax, y1: vMin, y2: vMax };
+  const box = { x1: xj ? jaws.x1 : extent.x1, x2: xj ? jaws.x2 : extent.x2, y1: yj ? jaws.y1 : extent.y1, y2: yj ? jaws.y2 : extent.y2 };
   return {
     jawsMm: jaws,
     leaves: !!(mlc && leaves),
@@ -196,7 +196,9 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       for (let i = 0; i < n; i++) {
         const dx = dirs[2 * i]!;
         const dy = dirs[2 * i + 1]!;
-        const [enter, exit] = spanInside(box, x, y, dx, dy);
+        spanInside(box, x, y, dx, dy, span);
+        const enter = span[0]!;
+        const exit = span[1]!;
         if (enter >= exit) {
           writer.push(exit, 0);
           writer.endSector();
@@ -268,26 +270,40 @@ function edgeHits(edges: Float64Array, p: number, q: number, dp: number, dq: num
   }
 }
 
-/** Where the ray (x, y) + s·(dx, dy), s ≥ 0, lies inside a rectangle: [enter, exit] (slabs; enter ≥ exit when it misses). */
-export function spanInside(box: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number }, x: number, y: number, dx: number, dy: number): [number, number] {
-  const [ex0, ex1] = slab(box.x1, box.x2, x, dx);
-  const [ey0, ey1] = slab(box.y1, box.y2, y, dy);
-  return [Math.max(0, ex0, ey0), Math.max(0, Math.min(ex1, ey1))];
-}
-
-/** The ray parameters [s0, s1] over which p + s·d lies in [lo, hi] (all s, or none, for d = 0). */
-function slab(lo: number, hi: number, p: number, d: number): [number, number] {
-  if (d === 0) return p >= lo && p <= hi ? [-Infinity, Infinity] : [Infinity, -Infinity];
-  const a = (lo - p) / d;
-  const b = (hi - p) / d;
-  return a < b ? [a, b] : [b, a];
+/**
+ * Where the ray (x, y) + s·(dx, dy), s ≥ 0, lies inside a rectangle: out[0] = enter, out[1] = exit
+ * (slabs; enter ≥ exit when it misses). Written into `out`: it runs for every sector of every segment.
+ */
+export function spanInside(box: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number }, x: number, y: number, dx: number, dy: number, out: Float64Array): Float64Array {
+  let enter = 0;
+  let exit = Infinity;
+  // Along each axis: all s when the ray runs parallel inside the slab, none when outside it.
+  if (dx === 0) {
+    if (x < box.x1 || x > box.x2) [enter, exit] = [Infinity, -Infinity];
+  } else {
+    const a = (box.x1 - x) / dx;
+    const b = (box.x2 - x) / dx;
+    enter = Math.max(enter, a < b ? a : b);
+    exit = Math.min(exit, a < b ? b : a);
+  }
+  if (dy === 0) {
+    if (y < box.y1 || y > box.y2) [enter, exit] = [Infinity, -Infinity];
+  } else {
+    const a = (box.y1 - y) / dy;
+    const b = (box.y2 - y) / dy;
+    enter = Math.max(enter, a < b ? a : b);
+    exit = Math.min(exit, a < b ? b : a);
+  }
+  out[0] = enter;
+  out[1] = Math.max(0, exit);
+  return out;
 }
 
 /**
  * The first band a ray from v meets going up (bands ending at or above v, lowest first) or down
  * (bands starting at or below v, highest first): a binary search over bands in v order.
  */
-function firstBandFrom(flat: Float64Array, v: number, down: boolean): number {
+function firstBandFrom(flat: readonly number[], v: number, down: boolean): number {
   const m = flat.length / 4;
   let lo = 0;
   let hi = m;

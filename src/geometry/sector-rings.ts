@@ -38,13 +38,16 @@ export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[
   };
   const crossings = aperture.sectorCrossingsMm(x, y, n);
   const dirs = sectorDirections(n);
+  const span = new Float64Array(2);
   writer.begin(n);
   crossings.forEach((apertureCuts, i) => {
     const dx = dirs[2 * i]!;
     const dy = dirs[2 * i + 1]!;
     // The aperture's and the blocks' crossings, and where the ray enters the collimating opening
     // (a point outside it), each start a ring; the opening's far side ends the last.
-    const [enter, jawExit] = spanInside(j, x, y, dx, dy);
+    spanInside(j, x, y, dx, dy, span);
+    const enter = span[0]!;
+    const jawExit = span[1]!;
     const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort((a, b) => a - b);
     const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
     let from = 0;
