@@ -116,8 +116,8 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
   const centroid = area > 0 ? toBld(cu / area, cv / area) : toBld(0, 0);
   // A closed leaf pair (x1 <= x0) opens nothing, not even the line where its leaves meet.
   const open = bands.filter((band) => band.x1 > band.x0);
-  // The outline's edges, built when first needed (edge distances, the general sector crossings;
-  // the sector walk of jaw-and-leaf fields does without them). All are along u or along v: kept
+  // The outline's edges, built when first needed (the general sector crossings, for blocked fields;
+  // the sector walk and the edge distance do without them). All are along u or along v: kept
   // apart as (position, from, to) triples, a ray's crossing with each is one multiplication.
   let outline: { edgesV: Float64Array; edgesU: Float64Array } | undefined;
   const edges = () => (outline ??= boundary(bands));
