@@ -19,12 +19,12 @@ export interface ReadRange {
 /** Per range: 0 not taken (or just taken), 1 being read, 2 done, 3 failed (this thread reads it again to learn why). */
 const TAKEN = 1;
 const DONE = 2;
+const FAILED = 3;
 /**
  * How long to wait for a range the helper is reading. Past it the read fails rather than be taken
  * over here: a helper that wakes up later would write stored values over rescaled ones.
  */
 const HELPER_WAIT_MS = 60_000;
-const FAILED = 3;
 
 // Plain CommonJS run by `eval`, so it needs no module file beside the bundle.
 const HELPER = `
@@ -74,8 +74,9 @@ export function startReadHelper(): ReadHelper | undefined {
 /**
  * Reads every range into `target`, sharing the work with the helper when `target` views a
  * SharedArrayBuffer; `then(k)` runs on this thread once range k is in (while its bytes are still in
- * the cache, for this thread's own ranges). Returns how many ranges the helper read. Throws like `readSync` for a range that cannot be
- * read, with the range's `file` on the error (`code` 'truncated' for a file that ends early).
+ * the cache, for this thread's own ranges). Returns how many ranges the helper read. Throws like
+ * `readSync` for a range that cannot be read, with the range's `file` on the error (`code`
+ * 'truncated' for a file that ends early).
  */
 export function readRanges(target: Uint8Array, ranges: readonly ReadRange[], helper: ReadHelper | undefined, then: (k: number) => void = () => undefined): number {
   if (!helper || !(target.buffer instanceof SharedArrayBuffer)) {

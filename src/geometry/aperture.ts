@@ -381,17 +381,11 @@ function outlineLength(bands: readonly Band[]): number {
 /** The distance from (u, v) to the nearest edge of the outline. */
 function outlineDistance(bands: readonly Band[], u: number, v: number): number {
   let best = Infinity;
-  visitOutline(bands, {
-    alongV: (p, a, b) => {
-      const dp = u - p;
-      const dq = v < a ? a - v : v > b ? v - b : 0;
-      best = Math.min(best, dp * dp + dq * dq);
-    },
-    alongU: (p, a, b) => {
-      const dp = v - p;
-      const dq = u < a ? a - u : u > b ? u - b : 0;
-      best = Math.min(best, dp * dp + dq * dq);
-    },
-  });
+  // An edge at position p across, from a to b along: the point is `across` from its line and `along` on it.
+  const consider = (across: number, along: number, a: number, b: number) => {
+    const beyond = along < a ? a - along : along > b ? along - b : 0;
+    best = Math.min(best, across * across + beyond * beyond);
+  };
+  visitOutline(bands, { alongV: (p, a, b) => consider(u - p, v, a, b), alongU: (p, a, b) => consider(v - p, u, a, b) });
   return Math.sqrt(best);
 }
