@@ -14,7 +14,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadMachine } from '../src/beamdata/index.js';
 import { checkPlan, DEFAULT_POLICY } from '../src/check/index.js';
-import { loadPatientCts } from '../src/cli/patient-ct.js';
+import { loadPatientCts } from '../src/run/index.js';
 import { importPlanFile } from '../src/dicom/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from './lib/dcmjs-writer.js';
 import { arcBeam } from './fixtures/demo-plans.js';

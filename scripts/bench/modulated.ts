@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadMachine } from '../../src/beamdata/index.js';
 import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
-import { loadPatientCts } from '../../src/cli/patient-ct.js';
+import { loadPatientCts } from '../../src/run/index.js';
 import { importPlanFile } from '../../src/dicom/index.js';
 import { writeCtPhantom } from '../fixtures/ct-phantom.js';
 

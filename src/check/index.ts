@@ -4,3 +4,4 @@ export * from './verdict.js';
 export * from './plan-depths.js';
 export type { PatientCt } from './patient-ct.js';
 export * from './validate-beam-data.js';
+export * from './match-machine.js';

@@ -1,4 +1,4 @@
-import type { Issue, MachineModel } from '../model/index.js';
+import type { Issue, MachineModel, Plan } from '../model/index.js';
 
 /**
  * The beam data for a plan's Treatment Machine Name: the machine's name or one of its aliases,
@@ -19,4 +19,14 @@ export function matchMachine(planMachineName: string | undefined, machine: Machi
     issue: { severity: 'error', code: 'missing-table', message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
       expected: machine.aliases.join(', '), found: name },
   };
+}
+
+/**
+ * Of several machines' beam data, the one the plan's Treatment Machine Name names (the first beam
+ * that gives one), by the same rule as `matchMachine`; else the first, whose mismatch the check of
+ * each beam then reports. The one place a plan's machine is chosen.
+ */
+export function chooseMachine<T>(plan: Plan, candidates: readonly [T, ...T[]], modelOf: (c: T) => MachineModel, aliases: ReadonlyMap<string, string>): T {
+  const name = plan.beams.find((b) => b.machineName)?.machineName;
+  return candidates.find((c) => matchMachine(name, modelOf(c), aliases).ok) ?? candidates[0];
 }

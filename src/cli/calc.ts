@@ -1,13 +1,10 @@
 import { z } from 'zod';
-import { findElectronBeam, findPhotonBeam, loadMachine } from '../beamdata/index.js';
-import type { ElectronPointInput, Issue, MachineModel, PhotonPointInput } from '../model/index.js';
+import type { Issue } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
-import { electronDosePerMu, electronIsodoseDepthCm, muForDose, photonDosePerMu } from '../physics/index.js';
 import { calcDocument, calcText } from '../report/calc-report.js';
 import { electronCalcDocument, electronCalcText } from '../report/electron-calc-report.js';
-import { resolveBeamDataPath } from './beam-data-path.js';
+import { electronCalc, loadBeamData, photonCalc, VERSION } from '../run/index.js';
 import type { CommandOutcome } from './outcome.js';
-import { VERSION } from './version.js';
 
 /** A number option: finite, and > 0 (or >= 0 when zero is allowed), else a message naming the option. */
 const numberOption = (what: string, zeroAllowed: boolean) =>
@@ -65,69 +62,18 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
   const parsed = CalcOptions.safeParse(raw);
   if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
   const o = parsed.data;
-  const loaded = loadMachine(resolveBeamDataPath(o.beamData));
+  const loaded = loadBeamData(o.beamData);
   if (!loaded.ok) return refuse(loaded.issues);
-  const { machine } = loaded.value;
-  if (o.applicator !== undefined) return electronCalc(machine, { ...o, applicator: o.applicator }, loaded.warnings.map(formatIssue));
-  const found = findPhotonBeam(machine, o.energy, o.fff);
-  if (!found.ok) return refuse([found.issue]);
-  const beam = found.beam;
-
-  let trayId: string | undefined;
-  if (o.tray === true) {
-    if (beam.trays.length !== 1) {
-      return refuse([{ severity: 'error', code: 'invalid-option', message: `--tray needs an ID: beam ${beam.id} has ${beam.trays.length} trays`,
-        expected: beam.trays.map((t) => t.id).join(', ') || 'a beam with a tray' }]);
-    }
-    trayId = beam.trays[0]!.id;
-  } else if (typeof o.tray === 'string') trayId = o.tray;
-
-  // SSD setup: the surface at the given SSD (default the SAD). SAD setup: the point at the
-  // isocenter unless an SSD is given, so SSD = SAD − depth.
-  const depth = o.depth!;
-  const ssdCm = o.ssd ?? (o.setup === 'SSD' ? machine.sadCm : machine.sadCm - depth);
-  const ssdNote = o.ssd !== undefined ? 'given' : o.setup === 'SSD' ? 'the SAD, none given' : 'SAD − depth: the point at the isocenter, none given';
-  if (!(ssdCm > 0)) return refuse([{ severity: 'error', code: 'invalid-option', message: `the depth ${depth} cm puts the surface behind the source`, expected: `depth < ${machine.sadCm} cm` }]);
-  const input: PhotonPointInput = {
-    setup: o.setup!,
-    collimatorFieldCm: o.field!,
-    ...(o.irradiated !== undefined ? { irradiatedSquareCm: o.irradiated } : {}),
-    depthCm: depth,
-    ssdCm,
-    ...(o.offAxis !== undefined ? { offAxisCm: o.offAxis } : {}),
-    ...(o.wedge !== undefined ? { wedgeId: o.wedge } : {}),
-    ...(trayId !== undefined ? { trayId } : {}),
-  };
-  const r = photonDosePerMu(beam, machine.sadCm, input);
-  if (!r.ok) return refuse(r.issues);
-  const given = o.mu !== undefined ? 'mu' : 'dose';
-  const mu = o.mu ?? muForDose(r.value, o.dose!);
-  const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
-  const report = { machine, beam, input, result: r.value, mu, doseCGy, given, ssdNote } as const;
   const warnings = loaded.warnings.map(formatIssue);
-  if (o.json) return { stdout: [JSON.stringify(calcDocument(report, VERSION), null, 2)], stderr: warnings, exitCode: 0 };
-  return { stdout: calcText(report), stderr: warnings, exitCode: 0 };
-}
-
-/** The electron calculation: applicator and cutout, the depth given or that of a stated isodose, SSD (default the nominal). */
-function electronCalc(machine: MachineModel, o: z.infer<typeof CalcOptions> & { applicator: string }, warnings: string[]): CommandOutcome {
-  const found = findElectronBeam(machine, o.energy);
-  if (!found.ok) return refuse([found.issue]);
-  const beam = found.beam;
-  const app = beam.applicators.find((a) => a.id === o.applicator);
-  if (!app) return refuse([{ severity: 'error', code: 'missing-table', message: `electron beam ${beam.id} has no applicator "${o.applicator}"`, expected: beam.applicators.map((a) => a.id).join(', '), found: o.applicator }]);
-  const field: ElectronPointInput['field'] = o.cutout ?? { kind: 'equivalent-square', sideCm: app.sideCm, method: 'the open applicator' };
-  const depthCm = o.depth ?? electronIsodoseDepthCm(beam, field, o.isodose!);
-  if (depthCm === undefined) return refuse([{ severity: 'error', code: 'out-of-range', message: `the ${o.isodose} % isodose is not reached beyond dmax within ${beam.id}'s PDD table for this cutout`, expected: 'an isodose level the PDD passes through beyond dmax' }]);
-  const input: ElectronPointInput = { applicatorId: app.id, field, depthCm, ssdCm: o.ssd ?? beam.calibration.ssd0Cm };
-  const r = electronDosePerMu(beam, input);
+  const { machine } = loaded.value;
+  if (o.applicator !== undefined) {
+    const r = electronCalc(machine, { ...o, applicator: o.applicator });
+    if (!r.ok) return refuse(r.issues);
+    return { stdout: o.json ? [JSON.stringify(electronCalcDocument(r.value, VERSION), null, 2)] : electronCalcText(r.value), stderr: warnings, exitCode: 0 };
+  }
+  const r = photonCalc(machine, { ...o, setup: o.setup!, field: o.field!, depth: o.depth! });
   if (!r.ok) return refuse(r.issues);
-  const given = o.mu !== undefined ? 'mu' : 'dose';
-  const mu = o.mu ?? o.dose! / r.value.dosePerMuCGy;
-  const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
-  const report = { machine, beam, input, result: r.value, mu, doseCGy, given, ...(o.isodose !== undefined ? { isodosePercent: o.isodose } : {}) } as const;
-  if (o.json) return { stdout: [JSON.stringify(electronCalcDocument(report, VERSION), null, 2)], stderr: warnings, exitCode: 0 };
-  return { stdout: electronCalcText(report), stderr: warnings, exitCode: 0 };
+  return { stdout: o.json ? [JSON.stringify(calcDocument(r.value, VERSION), null, 2)] : calcText(r.value), stderr: warnings, exitCode: 0 };
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

@@ -1,13 +1,9 @@
 import { z } from 'zod';
-import { DEFAULT_POLICY, planDepths } from '../check/index.js';
-import { importPlanFile } from '../dicom/index.js';
 import type { Issue } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
-import { CAUTION } from '../report/caution.js';
-import { DepthDocument, depthText } from '../report/depth-report.js';
+import { depthText } from '../report/depth-report.js';
+import { DEFAULT_POLICY, planDepthsFromCt } from '../run/index.js';
 import type { CommandOutcome } from './outcome.js';
-import { loadPatientCts } from './patient-ct.js';
-import { VERSION } from './version.js';
 
 const Options = z.object({
   ct: z.array(z.string().min(1)).min(1),
@@ -22,24 +18,9 @@ export function runDepth(planFile: string, raw: Record<string, unknown>): Comman
   const parsed = Options.safeParse(raw);
   if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
   const o = parsed.data;
-  const imported = importPlanFile(planFile);
-  if (!imported.ok) return refuse(imported.issues);
-  const plan = imported.value.plan;
-  const threshold = o.bodyThreshold ?? DEFAULT_POLICY.ct.bodyThresholdHu;
-  const cts = loadPatientCts(o.ct, o.density, threshold, o.structures);
-  if (!cts.ok) return refuse(cts.issues);
-  const ct = cts.value.find((c) => c.volume.frameOfReferenceUid === plan.frameOfReferenceUid);
-  if (!ct) {
-    return refuse([{ severity: 'error', code: 'inconsistent', file: planFile, path: 'FrameOfReferenceUID', message: 'no CT series in the plan\'s frame of reference',
-      expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`, found: cts.value.map((c) => c.volume.frameOfReferenceUid).join(', ') }]);
-  }
-  const rows = planDepths(plan, ct);
-  const doc = DepthDocument.parse({
-    schemaVersion: 1, kind: 'plumbline.depth', tool: { name: 'plumbline', version: VERSION }, plan: planFile,
-    ct: { seriesInstanceUid: ct.volume.seriesInstanceUid, frameOfReferenceUid: ct.volume.frameOfReferenceUid, slices: ct.volume.slices, bodyThresholdHu: threshold, body: ct.bodySource, densityTable: ct.densityTable },
-    beams: rows, caution: CAUTION,
-  });
-  return { stdout: o.json ? [JSON.stringify(doc, null, 2)] : depthText(doc), stderr: [], exitCode: rows.some((r) => r.problem) ? 2 : 0 };
+  const r = planDepthsFromCt(planFile, { ct: o.ct, density: o.density, bodyThresholdHu: o.bodyThreshold ?? DEFAULT_POLICY.ct.bodyThresholdHu, structures: o.structures });
+  if (!r.ok) return refuse(r.issues);
+  return { stdout: o.json ? [JSON.stringify(r.value, null, 2)] : depthText(r.value), stderr: [], exitCode: r.value.beams.some((b) => b.problem) ? 2 : 0 };
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

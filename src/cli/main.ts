@@ -1,5 +1,4 @@
 import { Command, CommanderError } from 'commander';
-import { DEFAULT_POLICY } from '../check/policy.js';
 import { BeamDataError, InputError } from '../errors.js';
 import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
@@ -7,9 +6,8 @@ import { runCalc } from './calc.js';
 import { runCheck } from './check.js';
 import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
-import { resolveServiceConfig } from './beam-data-path.js';
 import type { CommandOutcome } from './outcome.js';
-import { VERSION } from './version.js';
+import { DEFAULT_POLICY, resolveServiceConfig, VERSION } from '../run/index.js';
 
 /** The service commands load the DICOM network and SQLite modules: only when one of them runs. */
 const service = () => import('./service-commands.js');

@@ -7,7 +7,7 @@ import { CheckRecord, HistoryStore } from '../service/history/store.js';
 import { openService, runService } from '../service/run-service.js';
 import { startWebServer } from '../service/web/server.js';
 import type { CommandOutcome } from './outcome.js';
-import { VERSION } from './version.js';
+import { VERSION } from '../run/index.js';
 
 const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()} ${line}\n`);
 

@@ -1,20 +1,14 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
-import type { LoadedMachine } from '../beamdata/index.js';
-import { checkPlan, type PatientCt, type Policy } from '../check/index.js';
-import { checkDocument } from '../cli/check-document.js';
-import { loadPatientCts } from '../cli/patient-ct.js';
-import { VERSION } from '../cli/version.js';
-import { importPlanBytes, type ObjectSummary, readObjectSummary, readRtDose } from '../dicom/index.js';
-import type { DoseGrid, PlanCheck } from '../model/index.js';
+import { beamDataStamp, checkArrivedPlan, checkDocument, type LoadedMachine, loadCompanions, type ObjectSummary, type Policy, readObjectSummary, VERSION } from '../run/index.js';
 import { checkHtml } from '../report/check-html.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
 
 export interface PipelineContext {
   readonly config: ServiceConfig;
-  readonly machines: readonly LoadedMachine[];
+  readonly machines: readonly [LoadedMachine, ...LoadedMachine[]];
   readonly policy: Policy;
   readonly history: HistoryStore;
   readonly log: (line: string) => void;
@@ -94,23 +88,8 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
 }
 
 function checkGroup(ctx: PipelineContext, group: readonly Entry[], plans: readonly Entry[]): { checked: number; duplicates: number; refused: number } {
-  const of = (kind: string) => group.filter((e) => e.summary.kind === kind);
-  const warnings: string[] = [];
-  let ct: PatientCt | undefined;
-  const ctFiles = of('ct');
-  if (ctFiles.length && !ctx.config.ct) warnings.push('a CT arrived but the service has no density table (ct.density): checked without CT');
-  else if (ctFiles.length && ctx.config.ct) {
-    const structures = of('structures')[0];
-    const loaded = loadPatientCts(ctFiles.map((e) => e.file), ctx.config.ct.density, ctx.config.ct.bodyThresholdHu ?? ctx.policy.ct.bodyThresholdHu, structures?.file);
-    if (loaded.ok) ct = loaded.value[0];
-    else warnings.push(`the CT could not be used (${loaded.issues.map((i) => i.message).join('; ')}): checked without CT`);
-  }
-  const doseGrids: DoseGrid[] = [];
-  for (const d of of('dose')) {
-    const g = readRtDose(d.file);
-    if (g.ok) doseGrids.push(g.value);
-    else warnings.push(`an RT Dose could not be read (${g.issues.map((i) => i.message).join('; ')})`);
-  }
+  const of = (kind: string) => group.filter((e) => e.summary.kind === kind).map((e) => e.file);
+  const companions = loadCompanions({ ctFiles: of('ct'), structuresFile: of('structures')[0], doseFiles: of('dose') }, ctx.config.ct, ctx.policy);
   let checked = 0;
   let duplicates = 0;
   let refused = 0;
@@ -120,25 +99,20 @@ function checkGroup(ctx: PipelineContext, group: readonly Entry[], plans: readon
       duplicates++;
       continue;
     }
-    const imported = importPlanBytes(readFileSync(p.file), p.file);
-    if (!imported.ok) {
-      ctx.log(`refused plan ${p.summary.sopInstanceUid}: ${imported.issues.map((i) => i.message).join('; ')}`);
+    const r = checkArrivedPlan(readFileSync(p.file), p.file, p.sha256, ctx.machines, ctx.policy, companions);
+    if (!r.ok) {
+      ctx.log(`refused plan ${p.summary.sopInstanceUid}: ${r.issues.map((i) => i.message).join('; ')}`);
       refused++;
       continue;
     }
-    const plan = imported.value.plan;
-    const machineName = plan.beams.find((b) => b.machineName)?.machineName;
-    const machine = ctx.machines.find((m) => machineName !== undefined && m.machine.aliases.includes(machineName)) ?? ctx.machines[0]!;
-    const own = ct && ct.volume.frameOfReferenceUid === plan.frameOfReferenceUid ? ct : undefined;
-    const result: PlanCheck = checkPlan(plan, { path: `sha256:${p.sha256}`, sha256: p.sha256 }, {
-      machine: machine.machine, policy: ctx.policy, aliases: new Map(), suggestPoint: false, ...(own ? { ct: own } : {}), ...(doseGrids.length ? { doseGrids } : {}),
-    });
-    const withWarnings = warnings.length ? { ...result, warnings: [...result.warnings, ...warnings] } : result;
-    const doc = checkDocument([withWarnings], [], machine, ctx.policy);
+    const { result, machine } = r.value;
+    const recordedAt = new Date(ctx.now());
+    const stamp = beamDataStamp(machine);
+    const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
     const inputs: CheckInput[] = group.filter((e) => e.summary.kind !== 'plan' || e === p).map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
-    const id = ctx.history.recordCheck({ recordedAt: new Date(ctx.now()).toISOString(), result: withWarnings, planSha256: p.sha256, toolVersion: VERSION,
-      beamDataVersion: machine.machine.version, beamDataSha256: doc.beamData.sha256, inputs, html: checkHtml(doc) });
-    ctx.log(`checked plan "${plan.label}" (check ${id}): ${withWarnings.verdict}${withWarnings.fullyVerified ? '' : ', not fully verified'}`);
+    const id = ctx.history.recordCheck({ recordedAt: recordedAt.toISOString(), result, planSha256: p.sha256, toolVersion: VERSION,
+      beamDataVersion: stamp.dataVersion, beamDataSha256: stamp.sha256, inputs, html: checkHtml(doc) });
+    ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${result.verdict}${result.fullyVerified ? '' : ', not fully verified'}`);
     checked++;
   }
   return { checked, duplicates, refused };

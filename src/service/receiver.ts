@@ -4,8 +4,7 @@ import net from 'node:net';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
 import dimse from 'dcmjs-dimse';
-import { STORAGE_CLASSES } from '../dicom/index.js';
-import { VERSION } from '../cli/version.js';
+import { STORAGE_CLASSES, VERSION } from '../run/index.js';
 
 const { Scp, Dataset, constants, responses, log } = dimse;
 const { CEchoResponse, CStoreResponse } = responses;

@@ -1,7 +1,5 @@
-import { type LoadedMachine, loadMachine } from '../beamdata/index.js';
-import { loadPolicy } from '../cli/check-document.js';
-import { resolveBeamDataPath } from '../cli/beam-data-path.js';
 import type { Issue } from '../model/index.js';
+import { type LoadedMachine, loadBeamData, loadPolicy } from '../run/index.js';
 import type { ServiceConfig } from './config.js';
 import { HistoryStore } from './history/store.js';
 import { type PipelineContext, processInbox } from './pipeline.js';
@@ -23,13 +21,15 @@ const TICK_MS = 1000;
 export function openService(config: ServiceConfig): { ok: true; value: Omit<PipelineContext, 'log' | 'now'> } | { ok: false; issues: Issue[] } {
   const machines: LoadedMachine[] = [];
   for (const m of config.beamData) {
-    const loaded = loadMachine(resolveBeamDataPath(m));
+    const loaded = loadBeamData(m);
     if (!loaded.ok) return { ok: false, issues: [...loaded.issues] };
     machines.push(loaded.value);
   }
+  const [first, ...others] = machines;
+  if (!first) return { ok: false, issues: [{ severity: 'error', code: 'invalid-manifest', path: 'beamData', message: 'the configuration names no beam data' }] };
   const policy = loadPolicy(config.policy);
   if (!policy.ok) return policy;
-  return { ok: true, value: { config, machines, policy: policy.value, history: new HistoryStore(config.history.database) } };
+  return { ok: true, value: { config, machines: [first, ...others], policy: policy.value, history: new HistoryStore(config.history.database) } };
 }
 
 /**

@@ -5,9 +5,9 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadMachine } from '../beamdata/index.js';
 import type { HeterogeneityMethod } from '../physics/index.js';
-import { loadPolicy } from './check-document.js';
-import { checkFile } from './check-file.js';
+import { checkFile, type FileOutcome } from './check-file.js';
 import type { CollectedFile } from './collect-files.js';
+import { loadPolicy } from './policy-file.js';
 
 export interface WorkerJob {
   readonly manifest: string;
@@ -20,7 +20,7 @@ export interface WorkerJob {
 }
 
 /** One file's result (k: its place in the share), sent as soon as it is checked; then `done`. */
-export type WorkerMessage = { readonly done?: undefined; readonly k: number; readonly result: ReturnType<typeof checkFile> } | { readonly done: true };
+export type WorkerMessage = { readonly done?: undefined; readonly k: number; readonly result: FileOutcome } | { readonly done: true };
 
 const job = workerData as WorkerJob;
 const machine = loadMachine(job.manifest);

@@ -4,7 +4,7 @@ import { readCtVolumes, readRtStruct } from '../dicom/index.js';
 import { bodySurface } from '../geometry/index.js';
 import type { Issue, Structure } from '../model/index.js';
 import { collectFiles } from './collect-files.js';
-import { resolveDemoFile } from './beam-data-path.js';
+import { resolveDemoFile } from './demo-files.js';
 
 /**
  * Reads `--ct` (folders or files; every CT series among them) with `--density` (a CSV, or `demo`

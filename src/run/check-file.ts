@@ -5,12 +5,18 @@ import { importPlanBytes } from '../dicom/index.js';
 import type { Issue, PlanCheck } from '../model/index.js';
 import type { CollectedFile } from './collect-files.js';
 
+/** A file's plan result, or why it was refused (nothing: a non-plan found in a folder). */
+export interface FileOutcome {
+  readonly plan?: PlanCheck;
+  readonly refused: Issue[];
+}
+
 /**
  * One file of a `check` run: read, imported and checked; a file found in a folder that is no plan
  * is skipped, anything else unreadable is refused. With CT series, the plan uses the one in its frame
  * of reference (or the single one given for a single plan, whose mismatch the check then reports).
  */
-export function checkFile(f: CollectedFile, o: Omit<CheckOptions, 'ct'> & { cts: NonNullable<CheckOptions['ct']>[]; singlePlan: boolean }): { plan?: PlanCheck; refused: Issue[] } {
+export function checkFile(f: CollectedFile, o: Omit<CheckOptions, 'ct'> & { cts: readonly NonNullable<CheckOptions['ct']>[]; singlePlan: boolean }): FileOutcome {
   let bytes: Buffer;
   try {
     bytes = readFileSync(f.path);

@@ -1,0 +1,57 @@
+import type { LoadedMachine } from '../beamdata/index.js';
+import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/index.js';
+import { importPlanBytes, readRtDose } from '../dicom/index.js';
+import type { DoseGrid, Issue, PlanCheck } from '../model/index.js';
+import { loadPatientCts } from './patient-cts.js';
+
+/** The objects that arrived with a plan in its frame of reference: CT slices, a structure set, RT Doses. */
+export interface Companions {
+  readonly ctFiles: readonly string[];
+  readonly structuresFile?: string | undefined;
+  readonly doseFiles: readonly string[];
+}
+
+/** The companions as the check uses them, and why any could not be used (the plan is then checked without). */
+export interface LoadedCompanions {
+  readonly ct?: PatientCt;
+  readonly doseGrids: readonly DoseGrid[];
+  readonly warnings: readonly string[];
+}
+
+/** Reads a group's CT (with its body from the structure set) and RT Doses; what cannot be used becomes a warning, never a refusal. */
+export function loadCompanions(c: Companions, ct: { density: string; bodyThresholdHu?: number | undefined } | undefined, policy: Policy): LoadedCompanions {
+  const warnings: string[] = [];
+  let patientCt: PatientCt | undefined;
+  if (c.ctFiles.length && !ct) warnings.push('a CT arrived but the service has no density table (ct.density): checked without CT');
+  else if (c.ctFiles.length && ct) {
+    const loaded = loadPatientCts(c.ctFiles, ct.density, ct.bodyThresholdHu ?? policy.ct.bodyThresholdHu, c.structuresFile);
+    if (loaded.ok) patientCt = loaded.value[0];
+    else warnings.push(`the CT could not be used (${loaded.issues.map((i) => i.message).join('; ')}): checked without CT`);
+  }
+  const doseGrids: DoseGrid[] = [];
+  for (const d of c.doseFiles) {
+    const g = readRtDose(d);
+    if (g.ok) doseGrids.push(g.value);
+    else warnings.push(`an RT Dose could not be read (${g.issues.map((i) => i.message).join('; ')})`);
+  }
+  return { ...(patientCt ? { ct: patientCt } : {}), doseGrids, warnings };
+}
+
+/**
+ * An arrived plan checked against the beam data its machine names, with the companions in its frame
+ * of reference; the companions' warnings travel with the result.
+ */
+export function checkArrivedPlan(bytes: Uint8Array, file: string, sha256: string, machines: readonly [LoadedMachine, ...LoadedMachine[]], policy: Policy, companions: LoadedCompanions):
+  { ok: true; value: { result: PlanCheck; machine: LoadedMachine } } | { ok: false; issues: readonly Issue[] } {
+  const imported = importPlanBytes(bytes, file);
+  if (!imported.ok) return imported;
+  const plan = imported.value.plan;
+  const aliases = new Map<string, string>();
+  const machine = chooseMachine(plan, machines, (m) => m.machine, aliases);
+  const ct = companions.ct && companions.ct.volume.frameOfReferenceUid === plan.frameOfReferenceUid ? companions.ct : undefined;
+  const result = checkPlan(plan, { path: `sha256:${sha256}`, sha256 }, {
+    machine: machine.machine, policy, aliases, suggestPoint: false, ...(ct ? { ct } : {}), ...(companions.doseGrids.length ? { doseGrids: companions.doseGrids } : {}),
+  });
+  const warnings = companions.warnings;
+  return { ok: true, value: { result: warnings.length ? { ...result, warnings: [...result.warnings, ...warnings] } : result, machine } };
+}
