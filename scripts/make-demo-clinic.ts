@@ -175,7 +175,8 @@ try {
         ...g,
         beams: g.beams.map((b) => {
           const i = demo.spec.beams.findIndex((x) => x.number === b.number);
-          const dpm = beams.find((x) => x.beamNumber === b.number)?.calculation?.dosePerMuCGy;
+          const found = beams.find((x) => x.beamNumber === b.number);
+          const dpm = found?.status === 'checked' ? found.calculation.dosePerMuCGy : undefined;
           if (dpm === undefined) return b;
           const mu = (b.doseGy * 100) / (dpm * (1 + demo.tpsDifference[i]!)) * (demo.misTyped?.[i] ?? 1);
           return { ...b, mu: round(mu, 1) };

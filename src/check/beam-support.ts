@@ -1,27 +1,31 @@
-import type { Beam, ControlPoint } from '../model/index.js';
+import { SUPPORTED_POSITIONS } from '../geometry/index.js';
+import { type Beam, type ControlPoint, note, type Note, type PatientPosition } from '../model/index.js';
 
-const POSITIONS_SUPPORTED = new Set(['HFS', 'HFP', 'FFS', 'FFP']);
+/** Whether the beam geometry knows this patient position (IEC 61217 with its patient-support axes). */
+export function isSupportedPosition(position: string | undefined): position is PatientPosition {
+  return SUPPORTED_POSITIONS.includes(position as PatientPosition);
+}
 
 /**
- * Why the engine cannot yet give this beam an independent dose, in words; undefined when it can.
- * No number is ever made up for such a beam.
+ * Why the engine cannot yet give this beam an independent dose, as a coded note; undefined when it
+ * can. No number is ever made up for such a beam.
  */
-export function unsupportedReason(beam: Beam, patientPosition: string | undefined, mu: number | undefined): string | undefined {
-  if (beam.treatmentDeliveryType === 'SETUP') return 'a setup beam, not a treatment beam';
-  if (beam.radiationType !== 'PHOTON' && beam.radiationType !== 'ELECTRON') return `${beam.radiationType.toLowerCase()} beams are outside what plumbline checks`;
-  if (beam.primaryDosimeterUnit === 'MINUTE') return 'the meterset is in minutes, not MU';
-  if (mu === undefined || mu <= 0) return 'the beam has no meterset';
+export function unsupportedReason(beam: Beam, patientPosition: string | undefined, mu: number | undefined): Note | undefined {
+  if (beam.treatmentDeliveryType === 'SETUP') return note('setup-beam');
+  if (beam.radiationType !== 'PHOTON' && beam.radiationType !== 'ELECTRON') return note('radiation-type', { type: beam.radiationType });
+  if (beam.primaryDosimeterUnit === 'MINUTE') return note('meterset-in-minutes');
+  if (mu === undefined || mu <= 0) return note('no-meterset');
   const cps = beam.controlPoints;
-  if (beam.compensators.length) return 'a compensator is in the beam';
-  if (beam.radiationType === 'ELECTRON' && isModulated(beam)) return 'an electron beam that moves or changes its field during delivery: not supported';
+  if (beam.compensators.length) return note('compensator');
+  if (beam.radiationType === 'ELECTRON' && isModulated(beam)) return note('electron-moves');
   const other = beam.wedges.find((w) => w.type && w.type !== 'STANDARD' && w.type !== 'DYNAMIC');
-  if (other) return `a ${other.type!.toLowerCase()} wedge: physical and jaw-swept (dynamic) wedges are checked, this type is not`;
+  if (other) return note('wedge-type', { type: other.type });
   const cp0 = cps[0]!;
-  if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return 'the table top eccentric angle is not 0 (not supported)';
-  if (!patientPosition) return 'the patient position is not given';
-  if (!POSITIONS_SUPPORTED.has(patientPosition)) return `patient position ${patientPosition}: the beam geometry supports HFS, HFP, FFS and FFP so far`;
-  if (!cp0.isocenterPatientMm) return 'the first control point has no isocenter';
-  if (cp0.nominalEnergyMeV === undefined) return 'no nominal energy';
+  if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return note('table-eccentric');
+  if (!patientPosition) return note('no-patient-position');
+  if (!isSupportedPosition(patientPosition)) return note('patient-position', { position: patientPosition, supported: SUPPORTED_POSITIONS.join(', ') });
+  if (!cp0.isocenterPatientMm) return note('no-isocenter');
+  if (cp0.nominalEnergyMeV === undefined) return note('no-energy');
   return undefined;
 }
 

@@ -12,35 +12,30 @@ export function choosePoint(plan: Plan, group: FractionGroup, entry: ReferencedB
   if (userPointMm) {
     const same = stated(plan, group, entry);
     const planningSystemDoseHere = !!same && same.every((v, i) => Math.abs(v - userPointMm[i]!) < 0.5);
-    return { source: 'user', reason: '--point given', patientMm: userPointMm, planningSystemDoseHere };
+    return { source: 'user', patientMm: userPointMm, planningSystemDoseHere };
   }
   if (entry.beamDoseSpecificationPointPatientMm) {
-    return { source: 'beam-dose-specification-point', reason: 'the Beam Dose Specification Point of the beam in the fraction group',
-      patientMm: [...entry.beamDoseSpecificationPointPatientMm] as Point3, planningSystemDoseHere: true };
+    return { source: 'beam-dose-specification-point', patientMm: [...entry.beamDoseSpecificationPointPatientMm] as Point3, planningSystemDoseHere: true };
   }
   const byUid = entry.doseReferenceUid ? plan.doseReferences.find((d) => d.uid === entry.doseReferenceUid && d.pointPatientMm) : undefined;
   if (byUid) {
-    return { source: 'dose-reference', reason: `dose reference ${byUid.number} named by the beam's Referenced Dose Reference UID`,
-      patientMm: [...byUid.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: byUid.number };
+    return { source: 'dose-reference', doseReferenceVia: 'referenced-uid', patientMm: [...byUid.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: byUid.number };
   }
   const groupRefs = group.doseReferences
     .map((r) => plan.doseReferences.find((d) => d.number === r.doseReferenceNumber))
     .filter((d) => d?.pointPatientMm);
   if (groupRefs.length === 1) {
     const d = groupRefs[0]!;
-    return { source: 'dose-reference', reason: `dose reference ${d.number}, the fraction group's only dose reference with coordinates`,
-      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
+    return { source: 'dose-reference', doseReferenceVia: 'only-in-fraction-group', patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
   }
   const targets = plan.doseReferences.filter((d) => d.pointPatientMm && d.type === 'TARGET');
   if (targets.length === 1) {
     const d = targets[0]!;
-    return { source: 'prescription-point', reason: `dose reference ${d.number}, the plan's only target point`,
-      patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
+    return { source: 'prescription-point', patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
   }
   const iso = beam.controlPoints[0]?.isocenterPatientMm;
   if (!iso) return undefined;
-  return { source: 'isocenter', reason: 'the plan names no point for its Beam Dose; the isocenter is used and the comparison assumes the Beam Dose applies there',
-    patientMm: [...iso] as Point3, planningSystemDoseHere: false };
+  return { source: 'isocenter', patientMm: [...iso] as Point3, planningSystemDoseHere: false };
 }
 
 function stated(plan: Plan, group: FractionGroup, entry: ReferencedBeam): readonly number[] | undefined {

@@ -24,14 +24,15 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
           ...(cp.ssdMm !== undefined ? { planSsdMm: cp.ssdMm } : {}), ...(theirs && !arc ? { planningSystem: theirs } : {}) };
         const frame = position ? beamFrame(cp, position, sadMm) : undefined;
         if (!point || !frame) {
-          rows.push({ ...base, point: { source: 'isocenter', reason: '', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
+          rows.push({ ...base, point: { source: 'isocenter', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
           continue;
         }
         const axis = ctAxisSsdMm(ct, frame, sadMm);
         const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, body);
         rows.push({
           ...base,
-          point: { source: point.source, reason: point.reason, patientMm: point.patientMm },
+          point: { source: point.source, ...(point.doseReferenceVia ? { doseReferenceVia: point.doseReferenceVia } : {}),
+            ...(point.doseReferenceNumber !== undefined ? { doseReferenceNumber: point.doseReferenceNumber } : {}), patientMm: point.patientMm },
           ...(axis !== undefined ? { ctSsdAlongAxisMm: axis, ...(cp.ssdMm !== undefined ? { ssdDifferenceMm: axis - cp.ssdMm } : {}) } : {}),
           ...(d.ok
             ? { entryPatientMm: [...d.value.entryPatientMm] as [number, number, number], geometricDepthMm: d.value.geometricDepthMm,

@@ -1,4 +1,4 @@
-import type { Beam, BeamCheck, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
+import type { Beam, Calculation, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 
 /** Points within this distance are the same point (coordinates are written to 0.1 mm or finer). */
@@ -38,7 +38,7 @@ function hasDepths(p: DoseVerificationPoint): boolean {
 }
 
 /** The planning system's own depth data beside ours, with the differences. */
-export function besideOurs(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): NonNullable<BeamCheck['calculation']>['planningSystemDepths'] {
+export function besideOurs(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): Calculation['planningSystemDepths'] {
   if (!t) return undefined;
   return {
     ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),

@@ -1,6 +1,7 @@
-import type { Verdict } from '../model/index.js';
+import { Verdict } from '../model/index.js';
 
-const ORDER: readonly Verdict[] = ['within tolerance', 'needs review', 'beyond action level'];
+/** The model lists the verdicts in order of severity. */
+const ORDER: readonly Verdict[] = Verdict.options;
 
 /** Within the tolerance; beyond the action level; or between the two. */
 export function verdictFor(deviationPercent: number, tolerancePercent: number, actionPercent: number): Verdict {

@@ -7,7 +7,7 @@ export interface BeamDepth {
   /** For an arc: the control point of this row (one row per control point). */
   readonly controlPointIndex?: number;
   readonly gantryAngleDeg: number;
-  readonly point: Pick<CalculationPoint, 'source' | 'reason' | 'patientMm'>;
+  readonly point: Pick<CalculationPoint, 'source' | 'doseReferenceVia' | 'doseReferenceNumber' | 'patientMm'>;
   readonly planSsdMm?: number;
   readonly ctSsdAlongAxisMm?: number;
   readonly ssdDifferenceMm?: number;

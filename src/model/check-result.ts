@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { Note } from './check-note.js';
+import { IssueJson } from './issue-json.js';
 
 /** Our three verdicts; wording is ours, text first (colour only ever as emphasis). */
 export const Verdict = z.enum(['within tolerance', 'needs review', 'beyond action level']);
@@ -10,9 +12,10 @@ export type CaseCategory = z.infer<typeof CaseCategory>;
 export const PointSource = z.enum(['user', 'beam-dose-specification-point', 'dose-reference', 'prescription-point', 'isocenter', 'suggested']);
 
 export const CalculationPoint = z.object({
+  /** Which attribute or option named this point. */
   source: PointSource,
-  /** Why this point: which attribute or option named it. */
-  reason: z.string(),
+  /** For a dose reference: named by the beam's Referenced Dose Reference UID, or the fraction group's only one with coordinates. */
+  doseReferenceVia: z.enum(['referenced-uid', 'only-in-fraction-group']).optional(),
   patientMm: z.tuple([z.number(), z.number(), z.number()]),
   /** Whether the planning system's Beam Dose is stated at this point (else the comparison is an assumption). */
   planningSystemDoseHere: z.boolean(),
@@ -23,35 +26,40 @@ export type CalculationPoint = z.infer<typeof CalculationPoint>;
 
 export const FactorJson = z.object({ key: z.string(), label: z.string(), value: z.number(), args: z.array(z.number()), name: z.string().optional() });
 
-const IssueJson = z.object({
-  severity: z.enum(['error', 'warning']), code: z.string(), message: z.string(),
-  file: z.string().optional(), path: z.string().optional(), beamNumber: z.number().optional(), beamName: z.string().optional(),
-  expected: z.string().optional(), found: z.string().optional(),
-});
+/** A lookup clamped to a table's edge, as the beam data allow: requested and used, in the axis's unit. */
+export const Clamp = z.object({ table: z.string(), axis: z.string(), requested: z.number(), used: z.number(), unit: z.string() });
+export type Clamp = z.infer<typeof Clamp>;
+
+/** How the dose was corrected for heterogeneity (photons) or looked up (electrons) with the CT. */
+export const CtMethod = z.enum(['tpr-ratio', 'batho', 'electron-radiological-depth']);
+
+/** Where a modulated beam's depths came from. */
+export const DepthSource = z.enum(['ct', 'plan-ssd-per-control-point', 'plan-ssd']);
 
 export const PointFitness = z.object({
   /** Distance from the point to the nearest field edge at its depth, cm (negative: outside the field). */
   edgeDistanceCm: z.number(),
-  flags: z.array(z.string()),
+  flags: z.array(Note),
   suggestion: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), depthCm: z.number(), offAxisCm: z.number(), edgeDistanceCm: z.number() }).optional(),
 });
 
-export const BeamCheck = z.object({
+/** What the plan says of a beam, checked or not. */
+const BeamIdentity = {
   beamNumber: z.number(),
   beamName: z.string().optional(),
   radiationType: z.string(),
   nominalEnergy: z.number().optional(),
-  status: z.enum(['checked', 'not checked']),
-  /** For a beam not checked: why, in words. */
-  reason: z.string().optional(),
   plannedMu: z.number().optional(),
   planningSystemDoseCGy: z.number().optional(),
-  point: CalculationPoint.optional(),
-  calculation: z
-    .object({
+  /** A per-beam RT Dose grid at the point (summation BEAM), beside the Beam Dose and our dose. */
+  doseGridCGy: z.number().optional(),
+};
+
+export const Calculation = z.object({
       machineBeam: z.string(),
       setup: z.enum(['SSD', 'SAD']),
-      setupReason: z.string(),
+      /** Why this setup: the SSD against the SAD, or the kind of beam. */
+      setupBasis: Note,
       ssdCm: z.number(),
       depthCm: z.number(),
       offAxisCm: z.number(),
@@ -59,14 +67,14 @@ export const BeamCheck = z.object({
       collimatorSquareCm: z.number(),
       irradiatedSquareCm: z.number(),
       wedgeId: z.string().optional(),
-      approximations: z.array(z.string()),
+      approximations: z.array(Note),
       factors: z.array(FactorJson),
       dosePerMuCGy: z.number(),
       independentDoseCGy: z.number(),
       independentMu: z.number().optional(),
       doseDeviationPercent: z.number().optional(),
       muDeviationPercent: z.number().optional(),
-      clamps: z.array(z.string()),
+      clamps: z.array(Clamp),
       /** With the patient's CT: the traced geometry and the heterogeneity correction. */
       ct: z
         .object({
@@ -84,8 +92,7 @@ export const BeamCheck = z.object({
           bodyThresholdHu: z.number(),
           /** How the surface was found: the EXTERNAL structure or the HU threshold. */
           body: z.string(),
-          /** How the heterogeneity was corrected (photons: the TPR ratio). */
-          method: z.string().optional(),
+          method: CtMethod,
         })
         .optional(),
       /** An electron beam: applicator, cutout and the effective SSD for its air gap. */
@@ -100,7 +107,7 @@ export const BeamCheck = z.object({
           segments: z.number(),
           gantryStartDeg: z.number(),
           gantryEndDeg: z.number(),
-          depthSource: z.string(),
+          depthSource: DepthSource,
           depthRangeCm: z.tuple([z.number(), z.number()]),
           radiologicalDepthRangeCm: z.tuple([z.number(), z.number()]).optional(),
           correctionFactor: z.number().optional(),
@@ -118,21 +125,36 @@ export const BeamCheck = z.object({
         .object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional(),
           depthDifferenceMm: z.number().optional(), equivalentDepthDifferenceMm: z.number().optional(), ssdDifferenceMm: z.number().optional() })
         .optional(),
-    })
-    .optional(),
-  category: CaseCategory.optional(),
-  tolerancePercent: z.number().optional(),
-  actionPercent: z.number().optional(),
+    });
+export type Calculation = z.infer<typeof Calculation>;
+
+/** A beam the engine gave no dose, with the reason; the point when one was chosen. */
+export const NotCheckedBeam = z.object({ ...BeamIdentity, status: z.literal('not checked'), reason: Note, point: CalculationPoint.optional() });
+export type NotCheckedBeam = z.infer<typeof NotCheckedBeam>;
+
+/** A beam with its independent dose at its point, the levels of its category and the verdict. */
+export const CheckedBeam = z.object({
+  ...BeamIdentity,
+  status: z.literal('checked'),
+  point: CalculationPoint,
+  calculation: Calculation,
+  category: CaseCategory,
+  tolerancePercent: z.number(),
+  actionPercent: z.number(),
+  fitness: PointFitness,
+  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number() }).optional(),
+  verdict: Verdict,
+  verdictReasons: z.array(Note),
   /** The deviation the verdict was judged on, and on what basis. */
   judgedDeviationPercent: z.number().optional(),
   judgedOn: z.enum(['beam dose', 'share of the point dose']).optional(),
-  fitness: PointFitness.optional(),
-  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number() }).optional(),
-  verdict: Verdict.optional(),
-  verdictReasons: z.array(z.string()),
-  /** A per-beam RT Dose grid at the point (summation BEAM), beside the Beam Dose and our dose. */
-  doseGridCGy: z.number().optional(),
 });
+export type CheckedBeam = z.infer<typeof CheckedBeam>;
+
+/** A checked beam before its verdict, which needs the other beams at the same point. */
+export type CalculatedBeam = Omit<CheckedBeam, 'verdict' | 'verdictReasons' | 'judgedDeviationPercent' | 'judgedOn'>;
+
+export const BeamCheck = z.discriminatedUnion('status', [CheckedBeam, NotCheckedBeam]);
 export type BeamCheck = z.infer<typeof BeamCheck>;
 
 export const PointTotal = z.object({
@@ -140,7 +162,7 @@ export const PointTotal = z.object({
   beams: z.array(z.number()),
   independentDoseCGy: z.number(),
   planningSystemDoseCGy: z.number(),
-  deviationPercent: z.number(),
+  deviationPercent: z.number().optional(),
   prescriptionPerFractionCGy: z.number().optional(),
   independentVsPrescriptionPercent: z.number().optional(),
   planningSystemVsPrescriptionPercent: z.number().optional(),
@@ -173,6 +195,6 @@ export const PlanCheck = z.object({
   verdict: Verdict,
   fullyVerified: z.boolean(),
   issues: z.array(IssueJson),
-  warnings: z.array(z.string()),
+  warnings: z.array(Note),
 });
 export type PlanCheck = z.infer<typeof PlanCheck>;

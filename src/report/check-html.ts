@@ -1,15 +1,15 @@
-import type { BeamCheck, PlanCheck } from '../model/index.js';
+import type { BeamCheck, Calculation, CheckedBeam, PlanCheck } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
-import { fixed as n, pointMm as mm, signed } from './table.js';
+import { escapeHtml as esc } from './html-escape.js';
+import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { planningDepthsText } from './planning-depths-text.js';
-
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+import { fixed as n, pointMm as mm, signed } from './table.js';
 
 /** Deviation of each checked beam against its tolerance and action-level bands, as inline SVG. */
-function deviationChart(beams: readonly BeamCheck[]): string {
-  const rows = beams.filter((b) => b.calculation?.doseDeviationPercent !== undefined);
+function deviationChart(beams: readonly CheckedBeam[]): string {
+  const rows = beams.filter((b) => b.calculation.doseDeviationPercent !== undefined);
   if (!rows.length) return '';
-  const span = Math.max(...rows.map((b) => Math.max(b.actionPercent! * 1.5, Math.abs(b.judgedDeviationPercent ?? b.calculation!.doseDeviationPercent!) + 1)));
+  const span = Math.max(...rows.map((b) => Math.max(b.actionPercent * 1.5, Math.abs(b.judgedDeviationPercent ?? b.calculation.doseDeviationPercent!) + 1)));
   const width = 640;
   const left = 150;
   const plot = width - left - 20;
@@ -19,11 +19,11 @@ function deviationChart(beams: readonly BeamCheck[]): string {
   const parts: string[] = [`<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of each beam against its levels">`];
   rows.forEach((b, i) => {
     const y = 8 + i * rowH;
-    const dev = b.judgedDeviationPercent ?? b.calculation!.doseDeviationPercent!;
+    const dev = b.judgedDeviationPercent ?? b.calculation.doseDeviationPercent!;
     parts.push(
       `<text x="4" y="${y + 15}" font-size="11">beam ${b.beamNumber} ${esc(b.beamName ?? '')}</text>`,
-      `<rect x="${x(-b.actionPercent!)}" y="${y}" width="${x(b.actionPercent!) - x(-b.actionPercent!)}" height="20" fill="#eee" stroke="#999"/>`,
-      `<rect x="${x(-b.tolerancePercent!)}" y="${y}" width="${x(b.tolerancePercent!) - x(-b.tolerancePercent!)}" height="20" fill="#ddd" stroke="#666"/>`,
+      `<rect x="${x(-b.actionPercent)}" y="${y}" width="${x(b.actionPercent) - x(-b.actionPercent)}" height="20" fill="#eee" stroke="#999"/>`,
+      `<rect x="${x(-b.tolerancePercent)}" y="${y}" width="${x(b.tolerancePercent) - x(-b.tolerancePercent)}" height="20" fill="#ddd" stroke="#666"/>`,
       `<line x1="${x(dev)}" y1="${y - 2}" x2="${x(dev)}" y2="${y + 22}" stroke="#000" stroke-width="3"/>`,
       // The value beside its mark, on whichever side has room.
       x(dev) > width - 70
@@ -42,11 +42,12 @@ function deviationChart(beams: readonly BeamCheck[]): string {
 
 /** The calculation of one beam written out the way a physicist writes a hand calculation. */
 function handCalculation(b: BeamCheck): string {
-  if (b.status !== 'checked' || !b.calculation) return `<p><b>Beam ${b.beamNumber} ${esc(b.beamName ?? '')}</b>: not checked — ${esc(b.reason ?? '')}</p>`;
+  if (b.status !== 'checked') return `<p><b>Beam ${b.beamNumber} ${esc(b.beamName ?? '')}</b>: not checked — ${esc(noteText(b.reason))}</p>`;
   const c = b.calculation;
+  const reasons = reasonTexts(b);
   const lines = c.factors.map((f) => `<tr><td>${esc(f.label)}</td><td class="num">${f.value.toFixed(4)}</td></tr>`).join('');
   return `<section class="beam"><h4>Beam ${b.beamNumber} ${esc(b.beamName ?? '')} — ${esc(c.machineBeam)}, ${c.setup} setup</h4>
-<p>Point ${mm(b.point!.patientMm)}: ${esc(b.point!.reason)}. ${c.setup} setup: ${esc(c.setupReason)}. ${esc(depthText(c))},
+<p>Point ${mm(b.point.patientMm)}: ${esc(pointText(b.point))}. ${c.setup} setup: ${esc(noteText(c.setupBasis))}. ${esc(depthText(c))},
 ${c.offAxisCm.toFixed(2)} cm off axis. ${c.modulated ? 'Mean collimator' : 'Collimator'} ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
 irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
 ${c.ct ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
@@ -56,28 +57,34 @@ heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixe
 <p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>
 (planning system ${n(b.planningSystemDoseCGy, 1)} cGy, ${signed(c.doseDeviationPercent)} %).
 MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).
-Category ${esc(b.category ?? '')}: tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %. Verdict: <b>${esc(b.verdict ?? '')}</b>.</p>
-${b.verdictReasons.length ? `<ul>${b.verdictReasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>` : ''}
+Category ${esc(b.category)}: tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %. Verdict: <b>${esc(b.verdict)}</b>.</p>
+${reasons.length ? `<ul>${reasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>` : ''}
 ${c.planningSystemDepths ? `<p class="note">Beside ours, ${esc(planningDepthsText(c.planningSystemDepths))}.</p>` : ''}
-${c.clamps.length ? `<p class="note">Clamped lookups: ${c.clamps.map(esc).join('; ')}</p>` : ''}</section>`;
+${c.clamps.length ? `<p class="note">Clamped lookups: ${c.clamps.map((x) => esc(clampText(x))).join('; ')}</p>` : ''}</section>`;
+}
+
+/** One beam's line in the plan's table. */
+function summaryRow(group: number, b: BeamCheck): string {
+  const c = b.status === 'checked' ? b.calculation : undefined;
+  return `<tr><td>${group}</td><td>${b.beamNumber}</td><td>${esc(b.beamName ?? '')}</td>
+<td>${b.nominalEnergy ?? '—'} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}</td><td>${c?.setup ?? '—'}</td><td class="num">${n(c?.depthCm, 2)}</td>
+<td class="num">${n(c?.collimatorSquareCm, 2)}</td><td class="num">${n(c?.irradiatedSquareCm, 2)}</td><td class="num">${n(b.plannedMu, 1)}</td>
+<td class="num">${n(c?.independentMu, 1)}</td><td class="num">${n(b.planningSystemDoseCGy, 1)}</td><td class="num">${n(c?.independentDoseCGy, 1)}</td>
+<td class="num">${signed(c?.doseDeviationPercent)}</td><td>${b.status === 'checked' ? esc(b.verdict) : `not checked: ${esc(noteText(b.reason))}`}</td></tr>`;
 }
 
 function planSection(p: PlanCheck): string {
   const beams = p.fractionGroups.flatMap((g) => g.beams);
-  const rows = p.fractionGroups.map((g) => g.beams.map((b) => `<tr><td>${g.number}</td><td>${b.beamNumber}</td><td>${esc(b.beamName ?? '')}</td>
-<td>${b.nominalEnergy ?? '—'} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}</td><td>${b.calculation?.setup ?? '—'}</td><td class="num">${n(b.calculation?.depthCm, 2)}</td>
-<td class="num">${n(b.calculation?.collimatorSquareCm, 2)}</td><td class="num">${n(b.calculation?.irradiatedSquareCm, 2)}</td><td class="num">${n(b.plannedMu, 1)}</td>
-<td class="num">${n(b.calculation?.independentMu, 1)}</td><td class="num">${n(b.planningSystemDoseCGy, 1)}</td><td class="num">${n(b.calculation?.independentDoseCGy, 1)}</td>
-<td class="num">${signed(b.calculation?.doseDeviationPercent)}</td><td>${b.status === 'checked' ? esc(b.verdict ?? '') : `not checked: ${esc(b.reason ?? '')}`}</td></tr>`).join('')).join('');
+  const rows = p.fractionGroups.map((g) => g.beams.map((b) => summaryRow(g.number, b)).join('')).join('');
   const totals = p.fractionGroups.flatMap((g) => g.totals.map((t) => `<li>Fraction group ${g.number}, point ${mm(t.pointPatientMm)}: independent ${t.independentDoseCGy.toFixed(1)} cGy,
 planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${t.doseGridCGy !== undefined ? `; planning system's dose grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''}${t.prescriptionPerFractionCGy !== undefined ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''}${t.complete ? '' : ' — incomplete'}</li>`)).join('');
   return `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
 <p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256 <code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
 <table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU plan</th><th>MU indep</th><th>TPS cGy</th><th>indep cGy</th><th>dev %</th><th>verdict</th></tr></thead><tbody>${rows}</tbody></table>
 ${totals ? `<ul>${totals}</ul>` : ''}
-${deviationChart(beams.filter((b) => b.status === 'checked'))}
+${deviationChart(beams.filter((b): b is CheckedBeam => b.status === 'checked'))}
 ${beams.map(handCalculation).join('\n')}
-${p.warnings.length ? `<p class="note">${p.warnings.map(esc).join('<br>')}</p>` : ''}
+${p.warnings.length ? `<p class="note">${p.warnings.map((w) => esc(noteText(w))).join('<br>')}</p>` : ''}
 ${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join('<br>')}</p>` : ''}</section>`;
 }
 
@@ -108,10 +115,10 @@ ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>
 }
 
 /** Where the depth came from, in words: a flat surface, the CT, or the segments of a modulated beam (MU-weighted). */
-function depthText(c: NonNullable<BeamCheck['calculation']>): string {
+function depthText(c: Calculation): string {
   const m = c.modulated;
   if (m) {
-    return `MU-weighted over ${m.segments} segments (gantry ${m.gantryStartDeg.toFixed(0)}° to ${m.gantryEndDeg.toFixed(0)}°): depth ${c.depthCm.toFixed(2)} cm (${m.depthRangeCm[0].toFixed(2)} to ${m.depthRangeCm[1].toFixed(2)} cm), ${m.depthSource}, SSD ${c.ssdCm.toFixed(1)} cm`;
+    return `MU-weighted over ${m.segments} segments (gantry ${m.gantryStartDeg.toFixed(0)}° to ${m.gantryEndDeg.toFixed(0)}°): depth ${c.depthCm.toFixed(2)} cm (${m.depthRangeCm[0].toFixed(2)} to ${m.depthRangeCm[1].toFixed(2)} cm), ${noteText(c.approximations.find((x) => x.code === 'modulated-depths') ?? { code: 'modulated-depths', values: { source: m.depthSource } }).replace(/^depths /, '')}, SSD ${c.ssdCm.toFixed(1)} cm`;
   }
   if (c.ct) return `Depth ${c.depthCm.toFixed(2)} cm along the ray from the body surface in the CT (SSD along the ray ${c.ssdCm.toFixed(1)} cm)`;
   return `Depth ${c.depthCm.toFixed(2)} cm below a flat surface at SSD ${c.ssdCm.toFixed(1)} cm`;

@@ -1,15 +1,9 @@
 import { z } from 'zod';
-import { PlanCheck } from '../model/index.js';
-
-const IssueJson = z.object({
-  severity: z.enum(['error', 'warning']), code: z.string(), message: z.string(), file: z.string().optional(), path: z.string().optional(),
-  tag: z.string().optional(), beamNumber: z.number().optional(), beamName: z.string().optional(), controlPointIndex: z.number().optional(),
-  line: z.number().optional(), column: z.number().optional(), expected: z.string().optional(), found: z.string().optional(),
-});
+import { IssueJson, PlanCheck } from '../model/index.js';
 
 /** The `check --json` document. Bump schemaVersion on any change a consumer could notice. */
 export const CheckDocument = z.object({
-  schemaVersion: z.literal(1),
+  schemaVersion: z.literal(2),
   kind: z.literal('plumbline.check'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   createdAt: z.string(),

@@ -1,4 +1,5 @@
 import type { BeamCheck, PlanCheck } from '../model/index.js';
+import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { fixed, pointMm as mm, signed, textTable } from './table.js';
@@ -8,16 +9,16 @@ import { planningDepthsText } from './planning-depths-text.js';
 const HEADER = ['beam', 'name', 'energy', 'setup', 'depth cm', 'off-axis cm', 'rc cm', 'irr cm', 'Sc|Se', 'Sp', 'TPR/PDD', 'OAR', 'WF', 'MU plan', 'MU indep', 'TPS cGy', 'indep cGy', 'dev %', 'tol/action %', 'verdict'];
 
 function row(b: BeamCheck): string[] {
-  const c = b.calculation;
-  const f = (k: string) => c?.factors.find((x) => x.key === k)?.value;
   const energy = b.nominalEnergy !== undefined ? `${b.nominalEnergy} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}` : '—';
-  if (!c) return [String(b.beamNumber), b.beamName ?? '—', energy, '—', '—', '—', '—', '—', '—', '—', '—', '—', '—', fixed(b.plannedMu, 1), '—', fixed(b.planningSystemDoseCGy, 1), '—', '—', '—', 'not checked'];
+  if (b.status !== 'checked') return [String(b.beamNumber), b.beamName ?? '—', energy, '—', '—', '—', '—', '—', '—', '—', '—', '—', '—', fixed(b.plannedMu, 1), '—', fixed(b.planningSystemDoseCGy, 1), '—', '—', '—', 'not checked'];
+  const c = b.calculation;
+  const f = (k: string) => c.factors.find((x) => x.key === k)?.value;
   return [
     String(b.beamNumber), b.beamName ?? '—', energy, c.setup, c.depthCm.toFixed(2), c.offAxisCm.toFixed(2), c.collimatorSquareCm.toFixed(2),
-    `${c.irradiatedSquareCm.toFixed(2)}${c.factors.some((x) => x.key === 'SpTPR') ? ' (Clarkson)' : c.approximations.some((a) => a.startsWith('irregular')) ? '*' : ''}`,
+    `${c.irradiatedSquareCm.toFixed(2)}${c.factors.some((x) => x.key === 'SpTPR') ? ' (Clarkson)' : c.approximations.some((a) => a.code === 'clarkson-irregular') ? '*' : ''}`,
     fixed(f('Sc') ?? f('Se'), 3), fixed(f('Sp'), 3), fixed(f('TPR') ?? f('PDD') ?? f('SpTPR'), 4), fixed(f('OAR'), 3), fixed(f('WF'), 3),
     fixed(b.plannedMu, 1), fixed(c.independentMu, 1), fixed(b.planningSystemDoseCGy, 1), c.independentDoseCGy.toFixed(1),
-    signed(c.doseDeviationPercent), `${b.tolerancePercent}/${b.actionPercent}`, b.verdict ?? '—',
+    signed(c.doseDeviationPercent), `${b.tolerancePercent}/${b.actionPercent}`, b.verdict,
   ];
 }
 
@@ -44,21 +45,21 @@ export function planCheckText(p: PlanCheck): string[] {
   for (const b of p.fractionGroups.flatMap((g) => g.beams)) {
     const who = `beam ${b.beamNumber}${b.beamName ? ` ${b.beamName}` : ''}`;
     if (b.status !== 'checked') {
-      notes.push(`${who}: not checked: ${b.reason}`);
+      notes.push(`${who}: not checked: ${noteText(b.reason)}`);
       continue;
     }
-    if (b.point) notes.push(`${who}: point ${mm(b.point.patientMm)}: ${b.point.reason}; ${b.calculation!.setup} setup, ${b.calculation!.setupReason}; category ${b.category}`);
-    for (const r of b.verdictReasons) notes.push(`${who}: ${r}`);
+    notes.push(`${who}: point ${mm(b.point.patientMm)}: ${pointText(b.point)}; ${b.calculation.setup} setup, ${noteText(b.calculation.setupBasis)}; category ${b.category}`);
+    for (const r of reasonTexts(b)) notes.push(`${who}: ${r}`);
     if (b.doseGridCGy !== undefined) notes.push(`${who}: the planning system's per-beam dose grid gives ${b.doseGridCGy.toFixed(1)} cGy at the point`);
-    if (b.fitness?.suggestion) {
+    if (b.fitness.suggestion) {
       const s = b.fitness.suggestion;
       notes.push(`${who}: a better point at the same depth: ${mm(s.patientMm)} (${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${b.suggestedPoint ? `: independent dose there ${b.suggestedPoint.independentDoseCGy.toFixed(1)} cGy (the planning system's dose there is not in the plan)` : ''}`);
     }
-    if (b.calculation!.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation!.planningSystemDepths)}`);
-    for (const c of b.calculation!.clamps) notes.push(`${who}: ${c}`);
+    if (b.calculation.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation.planningSystemDepths)}`);
+    for (const c of b.calculation.clamps) notes.push(`${who}: ${clampText(c)}`);
   }
   if (notes.length) out.push('  notes:', ...notes.map((n) => `    - ${n}`));
-  for (const w of p.warnings) out.push(`  warning: ${w}`);
+  for (const w of p.warnings) out.push(`  warning: ${noteText(w)}`);
   for (const i of p.issues) out.push(`  ${formatIssue(i)}`);
   return out;
 }

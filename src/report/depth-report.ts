@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { CalculationPoint } from '../model/index.js';
 import { CAUTION } from './caution.js';
+import { pointText } from './note-text.js';
 import { fixed, textTable } from './table.js';
 
 export const DepthRow = z.object({
@@ -7,7 +9,7 @@ export const DepthRow = z.object({
   beamName: z.string().optional(),
   controlPointIndex: z.number().optional(),
   gantryAngleDeg: z.number(),
-  point: z.object({ source: z.string(), reason: z.string(), patientMm: z.tuple([z.number(), z.number(), z.number()]) }),
+  point: CalculationPoint.pick({ source: true, doseReferenceVia: true, doseReferenceNumber: true, patientMm: true }),
   planSsdMm: z.number().optional(),
   ctSsdAlongAxisMm: z.number().optional(),
   ssdDifferenceMm: z.number().optional(),
@@ -22,7 +24,7 @@ export const DepthRow = z.object({
 export type DepthRow = z.infer<typeof DepthRow>;
 
 export const DepthDocument = z.object({
-  schemaVersion: z.literal(1),
+  schemaVersion: z.literal(2),
   kind: z.literal('plumbline.depth'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   plan: z.string(),
@@ -41,7 +43,7 @@ export function depthText(doc: DepthDocument): string[] {
   return [
     `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ${doc.ct.densityTable}`,
     ...textTable(['beam', 'name', 'cp', 'gantry', 'SSD plan mm', 'SSD CT mm', 'diff mm', 'depth mm', 'radiological mm', 'density', 'interface mm', 'TPS depth', 'TPS equiv', 'TPS SSD', ''], rows).map((l) => `  ${l}`),
-    ...doc.beams.filter((b, i) => doc.beams.findIndex((x) => x.beamNumber === b.beamNumber) === i).map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${b.point.reason})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
+    ...doc.beams.filter((b, i) => doc.beams.findIndex((x) => x.beamNumber === b.beamNumber) === i).map((b) => `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${pointText(b.point)})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`),
     '',
     CAUTION,
   ];

@@ -1,21 +1,6 @@
 import { z } from 'zod';
-import { Plan, PlanSource } from '../model/index.js';
+import { IssueJson, Plan, PlanSource } from '../model/index.js';
 
-const IssueJson = z.object({
-  severity: z.enum(['error', 'warning']),
-  code: z.string(),
-  file: z.string().optional(),
-  path: z.string().optional(),
-  tag: z.string().optional(),
-  line: z.number().optional(),
-  column: z.number().optional(),
-  beamNumber: z.number().optional(),
-  beamName: z.string().optional(),
-  controlPointIndex: z.number().optional(),
-  expected: z.string().optional(),
-  found: z.string().optional(),
-  message: z.string(),
-});
 
 /** The `inspect --json` document. Bump `schemaVersion` on any change a consumer could notice. */
 export const InspectDocument = z.object({

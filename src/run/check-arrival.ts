@@ -1,7 +1,7 @@
 import type { LoadedMachine } from '../beamdata/index.js';
 import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/index.js';
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
-import type { DoseGrid, Issue, PlanCheck } from '../model/index.js';
+import { type DoseGrid, type Issue, note, type Note, type PlanCheck } from '../model/index.js';
 import { loadPatientCts } from './patient-cts.js';
 
 /** The objects that arrived with a plan in its frame of reference: CT slices, a structure set, RT Doses. */
@@ -15,24 +15,24 @@ export interface Companions {
 export interface LoadedCompanions {
   readonly ct?: PatientCt;
   readonly doseGrids: readonly DoseGrid[];
-  readonly warnings: readonly string[];
+  readonly warnings: readonly Note[];
 }
 
 /** Reads a group's CT (with its body from the structure set) and RT Doses; what cannot be used becomes a warning, never a refusal. */
 export function loadCompanions(c: Companions, ct: { density: string; bodyThresholdHu?: number | undefined } | undefined, policy: Policy): LoadedCompanions {
-  const warnings: string[] = [];
+  const warnings: Note[] = [];
   let patientCt: PatientCt | undefined;
-  if (c.ctFiles.length && !ct) warnings.push('a CT arrived but the service has no density table (ct.density): checked without CT');
+  if (c.ctFiles.length && !ct) warnings.push(note('ct-without-density'));
   else if (c.ctFiles.length && ct) {
     const loaded = loadPatientCts(c.ctFiles, ct.density, ct.bodyThresholdHu ?? policy.ct.bodyThresholdHu, c.structuresFile);
     if (loaded.ok) patientCt = loaded.value[0];
-    else warnings.push(`the CT could not be used (${loaded.issues.map((i) => i.message).join('; ')}): checked without CT`);
+    else warnings.push(note('ct-unusable', { message: loaded.issues.map((i) => i.message).join('; ') }));
   }
   const doseGrids: DoseGrid[] = [];
   for (const d of c.doseFiles) {
     const g = readRtDose(d);
     if (g.ok) doseGrids.push(g.value);
-    else warnings.push(`an RT Dose could not be read (${g.issues.map((i) => i.message).join('; ')})`);
+    else warnings.push(note('dose-unreadable', { message: g.issues.map((i) => i.message).join('; ') }));
   }
   return { ...(patientCt ? { ct: patientCt } : {}), doseGrids, warnings };
 }

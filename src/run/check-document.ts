@@ -12,7 +12,7 @@ import { VERSION } from './version.js';
  */
 export function checkDocument(plans: readonly PlanCheck[], refused: readonly Issue[], beamData: BeamDataStamp, policy: Policy, createdAt: Date): CheckDocument {
   return CheckDocument.parse({
-    schemaVersion: 1,
+    schemaVersion: 2,
     kind: 'plumbline.check',
     tool: { name: 'plumbline', version: VERSION },
     createdAt: createdAt.toISOString(),

@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { checkPlan, type CheckOptions } from '../check/index.js';
 import { importPlanBytes } from '../dicom/index.js';
-import type { Issue, PlanCheck } from '../model/index.js';
+import { type Issue, note, type PlanCheck } from '../model/index.js';
 import type { CollectedFile } from './collect-files.js';
 
 /** A file's plan result, or why it was refused (nothing: a non-plan found in a folder). */
@@ -33,6 +33,6 @@ export function checkFile(f: CollectedFile, o: Omit<CheckOptions, 'ct'> & { cts:
   const { cts, singlePlan, ...options } = o;
   const own = cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && singlePlan ? cts[0] : undefined);
   const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, { ...options, ...(own ? { ct: own } : {}) });
-  const planWarnings = cts.length && !own ? [`no CT series in this plan's frame of reference among --ct: checked without CT`] : [];
+  const planWarnings = cts.length && !own ? [note('no-ct-in-frame')] : [];
   return { plan: planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked, refused: [] };
 }

@@ -30,7 +30,7 @@ export function planDepthsFromCt(planFile: string, o: DepthRequest): { ok: true;
   return {
     ok: true,
     value: DepthDocument.parse({
-      schemaVersion: 1, kind: 'plumbline.depth', tool: { name: 'plumbline', version: VERSION }, plan: planFile,
+      schemaVersion: 2, kind: 'plumbline.depth', tool: { name: 'plumbline', version: VERSION }, plan: planFile,
       ct: { seriesInstanceUid: v.seriesInstanceUid, frameOfReferenceUid: v.frameOfReferenceUid, slices: v.slices, bodyThresholdHu: o.bodyThresholdHu, body: ct.bodySource, densityTable: ct.densityTable },
       beams: planDepths(plan, ct), caution: CAUTION,
     }),

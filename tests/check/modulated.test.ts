@@ -106,7 +106,7 @@ describe('modulated beams (modified Clarkson integration)', () => {
     const r = beams(checkPlan(plan, { path: 'arc.dcm', sha256: '' }, { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }))[0]!;
     expect(r.status).toBe('checked');
     const m = r.calculation!.modulated!;
-    expect(m.depthSource).toMatch(/traced through the CT/);
+    expect(m.depthSource).toBe('ct');
     expect(m.depthRangeCm[0]).toBeGreaterThan(9.85);
     expect(m.depthRangeCm[1]).toBeLessThan(10.15);
     expect(Math.abs(r.calculation!.dosePerMuCGy / stat.calculation!.dosePerMuCGy - 1)).toBeLessThan(0.005);
@@ -117,7 +117,7 @@ describe('modulated beams (modified Clarkson integration)', () => {
     const cps: ControlPointSpec[] = [field.controlPoints[0]!, { gantryDeg: 10, weight: 0.5 }, { gantryDeg: 20, weight: 1 }];
     const r = run('arc-no-ssd', { ...field, dynamic: true, controlPoints: cps.map((c, j) => ({ ...c, ...(j ? { gantryDirection: 'CW' as const } : {}) })) });
     expect(r.status).toBe('not checked');
-    expect(r.reason).toMatch(/control points 1–2: the plan gives no SSD there and no CT was given/);
+    expect(r.reason).toEqual({ code: 'segment-no-ssd', values: { controlPoint: 1 } });
   });
 
   it('the two-arc VMAT fixture (2 × 178 control points) is checked with a dose, in the modulated category', () => {

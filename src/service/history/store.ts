@@ -2,7 +2,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import Database from 'better-sqlite3';
 import { z } from 'zod';
-import { PlanCheck, Verdict } from '../../model/index.js';
+import { type PlanCheck, Verdict } from '../../model/index.js';
 import { MIGRATIONS } from './migrations.js';
 
 /** One input of a check, by role, with its identity. */
@@ -25,6 +25,23 @@ export const CheckRecord = z.object({
   inputs: z.array(CheckInput),
 });
 export type CheckRecord = z.infer<typeof CheckRecord>;
+
+/**
+ * What the page reads back from a stored result: the parts every result schema has carried, so
+ * checks recorded by an earlier version stay readable (their full report is the stored HTML).
+ */
+export const StoredResult = z.object({
+  planLabel: z.string(),
+  verdict: Verdict,
+  fullyVerified: z.boolean(),
+  fractionGroups: z.array(z.object({
+    beams: z.array(z.object({
+      status: z.string(), radiationType: z.string(), nominalEnergy: z.number().optional(),
+      calculation: z.object({ doseDeviationPercent: z.number().optional() }).optional(),
+    })),
+  })),
+});
+export type StoredResult = z.infer<typeof StoredResult>;
 
 export const ReviewRecord = z.object({
   id: z.number(), checkId: z.number(), reviewer: z.string().min(1), reviewedAt: z.string(), accepted: z.boolean(), comment: z.string(),
@@ -114,10 +131,10 @@ export class HistoryStore {
     return rows.map(toRecord);
   }
 
-  /** The full result of one check, validated as it is read back. */
-  result(checkId: number): PlanCheck | undefined {
+  /** The result of one check as the page reads it, validated as it is read back. */
+  result(checkId: number): StoredResult | undefined {
     const row = this.db.prepare('SELECT result_json FROM checks WHERE id = ?').get(checkId) as { result_json: string } | undefined;
-    return row ? PlanCheck.parse(JSON.parse(row.result_json)) : undefined;
+    return row ? StoredResult.parse(JSON.parse(row.result_json)) : undefined;
   }
 
   html(checkId: number): string | undefined {

@@ -1,11 +1,11 @@
-import type { PlanCheck, Verdict } from '../../model/index.js';
+import { Verdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
-import type { CheckRecord, ReviewRecord } from '../history/store.js';
+import { escapeHtml as esc } from '../../report/html-escape.js';
+import type { CheckRecord, ReviewRecord, StoredResult } from '../history/store.js';
 import { controlLimits } from './control-limits.js';
 
-export const VERDICTS: readonly Verdict[] = ['within tolerance', 'needs review', 'beyond action level'];
-
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+/** The verdicts in order of severity, as the model defines them. */
+export const VERDICTS: readonly Verdict[] = Verdict.options;
 
 const STYLE = `body{font:15px/1.45 system-ui,sans-serif;margin:1.5rem auto;max-width:72rem;padding:0 1rem;color:#1b1b1b}
 table{border-collapse:collapse;width:100%}th,td{text-align:left;padding:.3rem .5rem;border-bottom:1px solid #ddd;vertical-align:top}
@@ -76,7 +76,7 @@ ${pts.map((p) => `<circle class="point" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.d
 }
 
 /** One check: its summary, the reviews so far, the review form, and the report itself (as `check --html` writes it). */
-export function checkPage(record: CheckRecord, result: PlanCheck, reviews: readonly ReviewRecord[]): string {
+export function checkPage(record: CheckRecord, result: StoredResult, reviews: readonly ReviewRecord[]): string {
   const list = reviews.length
     ? `<ul id="reviews">${reviews.map((r) => `<li>${esc(r.reviewedAt.replace('T', ' ').slice(0, 16))} — ${esc(r.reviewer)}: <b>${r.accepted ? 'accepted' : 'not accepted'}</b>${r.comment ? ` — ${esc(r.comment)}` : ''}</li>`).join('')}</ul>`
     : '<p id="reviews">No review yet.</p>';

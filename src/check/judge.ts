@@ -1,0 +1,61 @@
+import { type BeamCheck, type CalculatedBeam, type CheckedBeam, note, type Note, type NotCheckedBeam, type Verdict } from '../model/index.js';
+import { percentOf } from './deviation.js';
+import type { Policy } from './policy.js';
+import { pointKey } from './totals.js';
+import { verdictFor, worst } from './verdict.js';
+
+/**
+ * Verdicts per beam: the deviation against the category's levels, a beam giving little to its
+ * point judged on its share of the point's dose; never better, only worse, for a point the plan's
+ * Beam Dose may not refer to, a point unfit for a point check, or an SSD the CT does not confirm.
+ */
+export function judge(beams: readonly (CalculatedBeam | NotCheckedBeam)[], policy: Policy): BeamCheck[] {
+  // The point's dose is the planning system's doses of the beams checked there (a beam not checked
+  // has no point of ours); a smaller total only makes the share larger, so the judging stricter.
+  const byPoint = new Map<string, number>();
+  for (const b of beams) if (b.status === 'checked' && b.planningSystemDoseCGy !== undefined) {
+    byPoint.set(pointKey(b.point.patientMm), (byPoint.get(pointKey(b.point.patientMm)) ?? 0) + b.planningSystemDoseCGy);
+  }
+  return beams.map((b) => (b.status === 'checked' ? judgeBeam(b, byPoint.get(pointKey(b.point.patientMm)) ?? 0, policy) : b));
+}
+
+function judgeBeam(b: CalculatedBeam, pointTotalCGy: number, policy: Policy): CheckedBeam {
+  const reasons: Note[] = [];
+  const tps = b.planningSystemDoseCGy;
+  const share = tps !== undefined && pointTotalCGy > 0 ? tps / pointTotalCGy : undefined;
+  let verdict: Verdict;
+  let judgedDeviationPercent: number | undefined;
+  let judgedOn: CheckedBeam['judgedOn'];
+  if (tps === undefined || !(tps > 0) || b.calculation.doseDeviationPercent === undefined) {
+    verdict = 'needs review';
+    reasons.push(note('no-beam-dose'));
+  } else if (share !== undefined && share < policy.lowContributionShare) {
+    // The deviation in percent of the point's dose: (independent − planning system) / point total.
+    judgedDeviationPercent = percentOf(b.calculation.independentDoseCGy - tps, pointTotalCGy);
+    judgedOn = 'share of the point dose';
+    verdict = judgedDeviationPercent === undefined ? 'needs review' : verdictFor(judgedDeviationPercent, b.tolerancePercent, b.actionPercent);
+    reasons.push(note('judged-on-share', { sharePercent: percentOf(tps, pointTotalCGy) }));
+  } else {
+    judgedDeviationPercent = b.calculation.doseDeviationPercent;
+    judgedOn = 'beam dose';
+    verdict = verdictFor(judgedDeviationPercent, b.tolerancePercent, b.actionPercent);
+  }
+  if (!b.point.planningSystemDoseHere) {
+    verdict = worst(verdict, 'needs review');
+    reasons.push(note(b.point.source === 'user' ? 'dose-at-other-point' : 'dose-point-unstated'));
+  }
+  if (b.fitness.flags.length) {
+    verdict = worst(verdict, 'needs review');
+    reasons.push(note('point-unfit', { flags: b.fitness.flags.length }));
+  }
+  const ct = b.calculation.ct;
+  if (ct) {
+    reasons.push(note('ct-correction', { method: ct.method, correctionFactor: ct.correctionFactor, homogeneousDoseCGy: ct.homogeneousDoseCGy }));
+    if (ct.ssdDifferenceMm !== undefined && Math.abs(ct.ssdDifferenceMm) > policy.ct.ssdToleranceMm) {
+      verdict = worst(verdict, 'needs review');
+      reasons.push(note('ct-ssd-differs', { ctSsdMm: ct.ssdAlongAxisMm, planSsdMm: ct.planSsdMm, differenceMm: ct.ssdDifferenceMm, toleranceMm: policy.ct.ssdToleranceMm }));
+    }
+  }
+  if (b.calculation.planningSystemDepths) reasons.push(note('planning-system-depths'));
+  return { ...b, verdict, verdictReasons: reasons, ...(judgedDeviationPercent !== undefined ? { judgedDeviationPercent } : {}), ...(judgedOn ? { judgedOn } : {}) };
+}
