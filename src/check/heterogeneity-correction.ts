@@ -1,5 +1,5 @@
 import type { CtDepth } from '../geometry/index.js';
-import { type LookupLog, type PhotonBeamModel, MM_PER_CM } from '../model/index.js';
+import { type Looked, type PhotonBeamModel, MM_PER_CM } from '../model/index.js';
 import { bathoCorrection, type HeterogeneityMethod, tprRatioCorrection } from '../physics/index.js';
 
 
@@ -10,11 +10,11 @@ export const METHOD_TEXT: Readonly<Record<HeterogeneityMethod, string>> = {
 };
 
 /** The heterogeneity correction of a traced point by the chosen method (geometry in mm hands over to cm here). */
-export function heterogeneityCorrection(method: HeterogeneityMethod, beam: PhotonBeamModel, traced: CtDepth, sideAtDepthCm: number, log: LookupLog): number {
+export function heterogeneityCorrection(method: HeterogeneityMethod, beam: PhotonBeamModel, traced: CtDepth, sideAtDepthCm: number): Looked<number> {
   if (method === 'batho') {
-    return bathoCorrection(beam, traced.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / MM_PER_CM, density: l.density })), sideAtDepthCm, log);
+    return bathoCorrection(beam, traced.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / MM_PER_CM, density: l.density })), sideAtDepthCm);
   }
-  return tprRatioCorrection(beam, traced.geometricDepthMm / MM_PER_CM, traced.radiologicalDepthMm / MM_PER_CM, sideAtDepthCm, log);
+  return tprRatioCorrection(beam, traced.geometricDepthMm / MM_PER_CM, traced.radiologicalDepthMm / MM_PER_CM, sideAtDepthCm);
 }
 
 /** Batho's law is not defined within the build-up distance past an interface: the nearest such interface, if any (mm). */

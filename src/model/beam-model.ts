@@ -16,7 +16,16 @@ export interface LookupNote {
   readonly unit: string;
 }
 
-/** Notes gathered during one calculation; empty in the normal case (no allocation per lookup). */
+/** A value with the notes of the table lookups it rests on (clamped or refused), none dropped. */
+export interface Looked<T> {
+  readonly value: T;
+  readonly lookups: readonly LookupNote[];
+}
+
+/**
+ * Notes gathered inside one calculation; empty in the normal case (no allocation per lookup). Used
+ * within physics only: what physics returns carries its notes with its value (`Looked`).
+ */
 export type LookupLog = LookupNote[];
 
 export interface TableAxis {

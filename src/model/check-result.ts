@@ -142,7 +142,7 @@ export const CheckedBeam = z.object({
   tolerancePercent: z.number(),
   actionPercent: z.number(),
   fitness: PointFitness,
-  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number() }).optional(),
+  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number(), clamps: z.array(Clamp) }).optional(),
   verdict: Verdict,
   verdictReasons: z.array(Note),
   /** The deviation the verdict was judged on, and on what basis. */

@@ -1,4 +1,4 @@
-import type { LookupLog, PhotonBeamModel } from '../model/index.js';
+import type { LookupNote, Looked, PhotonBeamModel } from '../model/index.js';
 import { tprAt } from './beam-factors.js';
 
 /**
@@ -7,8 +7,9 @@ import { tprAt } from './beam-factors.js';
  * with d the geometric and d_eff the radiological (water-equivalent) depth, rd the field side at the
  * point's depth. Batho's power law (below) is the refinement for layered media.
  */
-export function tprRatioCorrection(beam: PhotonBeamModel, depthCm: number, radiologicalDepthCm: number, sideAtDepthCm: number, log: LookupLog): number {
-  return tprAt(beam, radiologicalDepthCm, sideAtDepthCm, log) / tprAt(beam, depthCm, sideAtDepthCm, log);
+export function tprRatioCorrection(beam: PhotonBeamModel, depthCm: number, radiologicalDepthCm: number, sideAtDepthCm: number): Looked<number> {
+  const lookups: LookupNote[] = [];
+  return { value: tprAt(beam, radiologicalDepthCm, sideAtDepthCm, lookups) / tprAt(beam, depthCm, sideAtDepthCm, lookups), lookups };
 }
 
 /** The heterogeneity corrections a check may use. */
@@ -23,12 +24,13 @@ export type HeterogeneityMethod = 'tpr-ratio' | 'batho';
  * coefficients of the point's medium to water is taken as 1 (a water-like point). Not defined
  * within the build-up distance past an interface: the caller says so.
  */
-export function bathoCorrection(beam: PhotonBeamModel, layers: readonly { readonly distanceToPointCm: number; readonly density: number }[], sideAtDepthCm: number, log: LookupLog): number {
+export function bathoCorrection(beam: PhotonBeamModel, layers: readonly { readonly distanceToPointCm: number; readonly density: number }[], sideAtDepthCm: number): Looked<number> {
+  const lookups: LookupNote[] = [];
   let lnCf = 0;
   let previous = 1;
   for (const layer of layers) {
-    if (layer.density !== previous) lnCf += (layer.density - previous) * Math.log(tprAt(beam, Math.max(0, layer.distanceToPointCm), sideAtDepthCm, log));
+    if (layer.density !== previous) lnCf += (layer.density - previous) * Math.log(tprAt(beam, Math.max(0, layer.distanceToPointCm), sideAtDepthCm, lookups));
     previous = layer.density;
   }
-  return Math.exp(lnCf);
+  return { value: Math.exp(lnCf), lookups };
 }

@@ -57,6 +57,7 @@ export function planCheckText(p: PlanCheck): string[] {
     }
     if (b.calculation.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation.planningSystemDepths)}`);
     for (const c of b.calculation.clamps) notes.push(`${who}: ${clampText(c)}`);
+    for (const c of b.suggestedPoint?.clamps ?? []) notes.push(`${who}: at the suggested point, ${clampText(c)}`);
   }
   if (notes.length) out.push('  notes:', ...notes.map((n) => `    - ${n}`));
   for (const w of p.warnings) out.push(`  warning: ${noteText(w)}`);

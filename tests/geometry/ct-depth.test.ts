@@ -113,9 +113,9 @@ describe('heterogeneous phantoms', () => {
     const d = depth(lung, 'HFS', cp(0), [0, 50, 0]);
     const layers = d.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density }));
     const expected = (tprAt(b6, 5, 10, []) / tprAt(b6, 9, 10, [])) ** 0.75;
-    expect(bathoCorrection(b6, layers, 10, [])).toBeCloseTo(expected, 9);
+    expect(bathoCorrection(b6, layers, 10).value).toBeCloseTo(expected, 9);
     const w = depth(water, 'HFS', cp(0), [0, 50, 0]);
-    expect(bathoCorrection(b6, w.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density })), 10, [])).toBe(1);
+    expect(bathoCorrection(b6, w.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density })), 10).value).toBe(1);
   });
   it('refuses HU outside the density table rather than extrapolating', () => {
     const narrow = join(work, 'narrow.csv');

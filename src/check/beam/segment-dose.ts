@@ -71,7 +71,9 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   let correction = 1;
   if (traced) {
     const method = ctx.heterogeneity ?? 'tpr-ratio';
-    correction = heterogeneityCorrection(method, data, traced, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm), lookups);
+    const cf = heterogeneityCorrection(method, data, traced, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm));
+    correction = cf.value;
+    lookups.push(...cf.lookups);
     if (!Number.isFinite(correction)) return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, controlPoint });
   }
   return {

@@ -1,6 +1,6 @@
 import { findPhotonBeam } from '../../beamdata/index.js';
 import { fieldEdgeDistanceMm, type CtDepth } from '../../geometry/index.js';
-import { MM_PER_CM, note, type Note, type PhotonBeamModel } from '../../model/index.js';
+import { type LookupNote, MM_PER_CM, note, type Note, type PhotonBeamModel } from '../../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
 import { heterogeneityCorrection, interfaceWithinBuildUpMm } from '../heterogeneity-correction.js';
 import { besideOurs } from '../planning-system-depths.js';
@@ -32,7 +32,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const mu = ctx.entry.beamMeterset!;
   const identity = beamIdentity(ctx.beam, ctx.entry);
   const sideAtDepthCm = projectFieldCm(f.field.irradiatedSquareCm, ctx.machine.sadCm, g.ssdCm + g.depthCm);
-  const het = g.traced ? heterogeneity(ctx, data, g.traced.depth, sideAtDepthCm) : { correction: 1, approximations: [] };
+  const het = g.traced ? heterogeneity(ctx, data, g.traced.depth, sideAtDepthCm) : { correction: 1, approximations: [], lookups: [] };
   if (isStopped(het)) return het.stopped;
   const ct = g.traced && ctx.ct
     ? ctSummary(ctx.ct, g.traced, ctx.beam.controlPoints[0]!.ssdMm, ctx.heterogeneity ?? 'tpr-ratio', het.correction, mu * r.value.dosePerMuCGy) : undefined;
@@ -53,7 +53,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
         collimatorFieldCm: f.field.collimatorFieldCm, collimatorSquareCm: r.value.geometry.collimatorSquareCm, irradiatedSquareCm: f.field.irradiatedSquareCm,
         ...(modifiers.wedgeIn?.id ? { wedgeId: modifiers.wedgeIn.id } : {}),
         approximations: [...f.approximations, ...het.approximations], factors: factorRows(r.value.factors), dosePerMuCGy,
-        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy), clamps: clampRows(r.value.clamps),
+        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy), clamps: clampRows([...r.value.clamps, ...het.lookups]),
         ...(ct ? { ct } : {}), ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },
       ...levelsOf(ctx.policy, category),
@@ -70,11 +70,12 @@ export function photonBeamData(ctx: BeamCheckContext): PhotonBeamModel | Stopped
 }
 
 /** The heterogeneity correction at a traced point by the chosen method, or why it cannot be made. */
-function heterogeneity(ctx: BeamCheckContext, data: PhotonBeamModel, t: CtDepth, sideAtDepthCm: number): { correction: number; approximations: Note[] } | Stopped {
+function heterogeneity(ctx: BeamCheckContext, data: PhotonBeamModel, t: CtDepth, sideAtDepthCm: number):
+  { correction: number; approximations: Note[]; lookups: readonly LookupNote[] } | Stopped {
   const method = ctx.heterogeneity ?? 'tpr-ratio';
-  const correction = heterogeneityCorrection(method, data, t, sideAtDepthCm, []);
+  const { value: correction, lookups } = heterogeneityCorrection(method, data, t, sideAtDepthCm);
   const close = method === 'batho' ? interfaceWithinBuildUpMm(t, data.calibration.dmaxCm) : undefined;
   const approximations = close !== undefined ? [note('batho-interface-in-build-up', { distanceCm: close / MM_PER_CM })] : [];
   if (!Number.isFinite(correction)) return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: t.radiologicalDepthMm / MM_PER_CM });
-  return { correction, approximations };
+  return { correction, approximations, lookups };
 }

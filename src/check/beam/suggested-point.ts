@@ -6,6 +6,7 @@ import { heterogeneityCorrection } from '../heterogeneity-correction.js';
 import { ctDepthOptions } from '../patient-ct.js';
 import type { Policy } from '../policy.js';
 import type { BeamCheckContext } from './context.js';
+import { clampRows } from './dose-comparison.js';
 import type { StaticField } from './static-field.js';
 import type { StaticGeometry } from './static-geometry.js';
 
@@ -30,10 +31,11 @@ export function suggestedPoint(ctx: BeamCheckContext, data: PhotonBeamModel, g: 
     ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
     ...(f.field.clarksonSectors ? { clarksonSectors: fieldInput(g.aperture, g.blocks, sx, sy, f.depthScale, data.mlcTransmission ?? 0).clarksonSectors } : {}) });
   const cf = there?.ok
-    ? heterogeneityCorrection(ctx.heterogeneity ?? 'tpr-ratio', data, there.value, projectFieldCm(f.field.irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM), [])
-    : 1;
-  if (!r.ok || !Number.isFinite(cf)) return { suggestion };
-  return { suggestion, dose: { patientMm: s.patientMm, depthCm: depthThereCm, offAxisCm: s.offAxisCm, independentDoseCGy: ctx.entry.beamMeterset! * r.value.dosePerMuCGy * cf } };
+    ? heterogeneityCorrection(ctx.heterogeneity ?? 'tpr-ratio', data, there.value, projectFieldCm(f.field.irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM))
+    : { value: 1, lookups: [] };
+  if (!r.ok || !Number.isFinite(cf.value)) return { suggestion };
+  return { suggestion, dose: { patientMm: s.patientMm, depthCm: depthThereCm, offAxisCm: s.offAxisCm, independentDoseCGy: ctx.entry.beamMeterset! * r.value.dosePerMuCGy * cf.value,
+    clamps: clampRows([...r.value.clamps, ...cf.lookups]) } };
 }
 
 /** A better point at the same depth: the open field's centroid, or the open point farthest from every edge. */

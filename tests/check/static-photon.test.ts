@@ -1,0 +1,60 @@
+/**
+ * A static photon beam through the patient's CT: every table lookup the dose rests on is reported,
+ * including the TPR at the radiological depth that the heterogeneity correction reads.
+ * Check values: the TPR-ratio correction's definition, CF = TPR(d_eff)/TPR(d) (common practice, no
+ * source); the phantom's depths follow from its geometry.
+ */
+import { mkdirSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
+import { coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
+import { loadDensityTable } from '../../src/beamdata/index.js';
+import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
+import { readCtSeries } from '../../src/dicom/index.js';
+import type { LookupLog, MachineModel } from '../../src/model/index.js';
+import { beams, planFromSpec } from '../helpers/check-run.js';
+import { DEMO_MANIFEST, machine, manifestPath } from '../helpers/machines.js';
+
+const demo = machine(DEMO_MANIFEST);
+
+/** The demo machine with its 6X TMR table reporting a clamp for any lookup shallower than `belowCm`. */
+function withShallowClamp(m: MachineModel, belowCm: number): MachineModel {
+  return { ...m, beams: m.beams.map((b) => {
+    if (b.id !== '6X' || !b.tpr) return b;
+    const t = b.tpr;
+    const at = (row: number, column: number, log: LookupLog) => {
+      if (row < belowCm) log.push({ table: 'TMR (test)', axis: 'depth', requested: row, used: belowCm, kind: 'clamped', range: [belowCm, 30], unit: 'cm' });
+      return t.at(row, column, log);
+    };
+    const tpr = { ...t, at, atRow: (row: number, log: LookupLog) => (column: number, l: LookupLog) => at(row, column, l ?? log) };
+    return { ...b, tpr };
+  }) };
+}
+
+describe('a static photon beam through the CT', () => {
+  it('reports a clamped lookup at the radiological depth, which only the heterogeneity correction reads', () => {
+    const iso: [number, number, number] = [0, 0, 0];
+    const { plan } = planFromSpec({
+      file: 'half-density.dcm', patientId: 'CT-1', patientName: 'Static^Ct', label: 'HALF', name: 'half density', description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+      beams: [staticBeam(1, 'AP', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } })],
+    });
+    const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-half-')), 'ct');
+    mkdirSync(dir);
+    // A box of density about 0.5 from 100 mm above the isocenter down: geometric depth 10 cm, radiological about 5 cm.
+    const files = writeCtPhantom(dir, { name: 'half', columns: 64, rows: 64, slices: 20, spacingMm: [4, 4, 4], originMm: [-126, -126, -38], frameOfReferenceUid: plan.frameOfReferenceUid!,
+      hu: (_x, y) => (y >= -100 && y <= 100 ? -500 : -1000) });
+    const volume = readCtSeries(files);
+    const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
+    if (!volume.ok || !table.ok) throw new Error('phantom');
+    const ct: PatientCt = { volume: volume.value, density: table.value.density, densityTable: 'demo', bodyThresholdHu: -600, bodySource: 'HU >= -600' };
+    const b = beams(checkPlan(plan, { path: 'half.dcm', sha256: '' }, { machine: withShallowClamp(demo, 8), policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }))[0]!;
+    if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
+    expect(b.calculation.ct!.geometricDepthMm).toBeCloseTo(100, 0);
+    expect(b.calculation.ct!.radiologicalDepthMm).toBeLessThan(80);
+    expect(b.calculation.clamps).toContainEqual(expect.objectContaining({ table: 'TMR (test)', axis: 'depth', requested: b.calculation.ct!.radiologicalDepthMm / 10 }));
+  });
+});
