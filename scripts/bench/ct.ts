@@ -5,7 +5,7 @@
  * volume plus Node's baseline. Run: npm run bench
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -23,7 +23,6 @@ const seconds = (cmd: string, args: string[]) => {
 try {
   writeCtPhantom(dir, { name: 'bench', columns: 512, rows: 512, slices: 200, spacingMm: [1, 1, 2], originMm: [-255.5, -255.5, -199], frameOfReferenceUid: '1.2.3.4',
     hu: (x, y) => (x * x + y * y < 150 * 150 ? 20 : -1000) });
-  const files = readdirSync(dir).map((f) => join(dir, f));
   seconds('sh', ['-c', `cat ${dir}/*.dcm > /dev/null`]); // warm the page cache
   const cat = Math.min(...[0, 1, 2].map(() => seconds('sh', ['-c', `cat ${dir}/*.dcm > /dev/null`]).s));
   const runs = [0, 1, 2].map(() => seconds('/usr/bin/time', ['-f', '%M', process.execPath, '--import', 'tsx', join(ROOT, 'scripts/bench/ct-load.ts'), dir]));

@@ -1,4 +1,4 @@
-import { beamFrame, ctDepth, ctSsdAlongAxisMm } from '../geometry/index.js';
+import { beamFrame, ctDepth, } from '../geometry/index.js';
 import type { BeamDepth, Plan } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';

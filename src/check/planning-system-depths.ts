@@ -16,7 +16,7 @@ export function planningSystemDepths(plan: Plan, group: FractionGroup, entry: Re
   const stated = point?.source === 'user' ? choosePoint(plan, group, entry, beam) : point;
   const references = stated?.doseReferenceNumber !== undefined ? [stated.doseReferenceNumber]
     : stated?.source === 'beam-dose-specification-point'
-      ? plan.doseReferences.filter((d) => d.pointPatientMm && d.pointPatientMm.every((v, i) => Math.abs(v - stated.patientMm[i]!) < SAME_POINT_MM)).map((d) => d.number)
+      ? plan.doseReferences.filter((d) => d.pointPatientMm?.every((v, i) => Math.abs(v - stated.patientMm[i]!) < SAME_POINT_MM)).map((d) => d.number)
       : undefined;
   const v = beam.doseVerification
     .filter((d) => !references || references.includes(d.doseReferenceNumber))

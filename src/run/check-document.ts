@@ -1,4 +1,4 @@
-import { type Policy } from '../check/index.js';
+import type { Policy } from '../check/index.js';
 import type { Issue, PlanCheck } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { CheckDocument } from '../report/check-json.js';

@@ -104,7 +104,7 @@ function readDevices(b: ItemReader): BeamLimitingDevice[] {
       need(d, 'LeafPositionBoundaries', boundaries, `${pairs + 1} leaf boundaries (mm)`);
       if (boundaries && boundaries.length !== pairs + 1) {
         d.report('error', 'wrong-multiplicity', 'LeafPositionBoundaries', 'does not match the number of leaf pairs', `${pairs + 1} values`, `${boundaries.length}`);
-      } else if (boundaries && boundaries.some((v, i) => i > 0 && v <= boundaries[i - 1]!)) {
+      } else if (boundaries?.some((v, i) => i > 0 && v <= boundaries[i - 1]!)) {
         d.report('error', 'invalid-value', 'LeafPositionBoundaries', 'are not strictly increasing', 'increasing boundaries', boundaries.join('\\'));
       }
     }
