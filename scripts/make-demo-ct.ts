@@ -15,8 +15,14 @@ mkdirSync(OUT, { recursive: true });
 const inside = (x: number, y: number, z: number) => x > -165 && x < 170 && y > -90 && y < 130 && z > -230 && z < 70;
 const bone = (x: number, y: number, z: number) => x > -30 && x < 30 && y > 80 && y < 110 && z > -150 && z < -10;
 const files = writeCtPhantom(OUT, {
-  name: 'pelvis', columns: 82, rows: 56, slices: 68, spacingMm: [5, 5, 5], originMm: [-197.5, -117.5, -247.5],
-  frameOfReferenceUid: fixtureUid('for:NG-1001'), patientId: 'NG-1001',
+  name: 'pelvis',
+  columns: 82,
+  rows: 56,
+  slices: 68,
+  spacingMm: [5, 5, 5],
+  originMm: [-197.5, -117.5, -247.5],
+  frameOfReferenceUid: fixtureUid('for:NG-1001'),
+  patientId: 'NG-1001',
   hu: (x, y, z) => (!inside(x, y, z) ? -1000 : bone(x, y, z) ? 700 : 0),
 });
 console.log(`wrote ${files.length} slices into fixtures/demo/clinic-ct/pelvis-box/`);

@@ -60,7 +60,9 @@ describe('import directions in src/', () => {
   it('every folder imports only what the architecture allows', () => {
     const violations = all.flatMap((f) =>
       importsOf(f)
-        .filter(({ folder, target }) => ALLOWED[folder] !== undefined && !ALLOWED[folder]!.includes(target) && !(target === 'errors' && folder !== 'model'))
+        .filter(
+          ({ folder, target }) => ALLOWED[folder] !== undefined && !ALLOWED[folder]!.includes(target) && !(target === 'errors' && folder !== 'model'),
+        )
         .map(({ target }) => `${relative(SRC, f)} imports ${target}`),
     );
     expect(violations).toEqual([]);

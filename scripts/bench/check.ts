@@ -38,7 +38,9 @@ const startup = () => {
 const work = mkdtempSync(join(tmpdir(), 'plumbline-bench-check-'));
 try {
   const s = startup();
-  console.log(`start-up: plumbline check on one four-field plan ${(s.ours * 1e3).toFixed(0)} ms, node -e 0 ${(s.node * 1e3).toFixed(0)} ms: ratio ${(s.ours / s.node).toFixed(2)}x (median of 20; target <= 3x)`);
+  console.log(
+    `start-up: plumbline check on one four-field plan ${(s.ours * 1e3).toFixed(0)} ms, node -e 0 ${(s.node * 1e3).toFixed(0)} ms: ratio ${(s.ours / s.node).toFixed(2)}x (median of 20; target <= 3x)`,
+  );
 
   const dir = join(work, 'batch');
   mkdirSync(dir);
@@ -55,19 +57,28 @@ try {
   }
   const o = Math.min(...ours);
   const t = Math.min(...theirs);
-  console.log(`batch: 1 000 four-field + 100 two-arc plans: plumbline check ${o.toFixed(2)} s (${(files.length / o).toFixed(0)} plans/s), ` +
-    `dcmdump ${t.toFixed(2)} s (${(files.length / t).toFixed(0)} plans/s): ratio ${(o / t).toFixed(2)} (best of 3; target < 0.5)`);
+  console.log(
+    `batch: 1 000 four-field + 100 two-arc plans: plumbline check ${o.toFixed(2)} s (${(files.length / o).toFixed(0)} plans/s), ` +
+      `dcmdump ${t.toFixed(2)} s (${(files.length / t).toFixed(0)} plans/s): ratio ${(o / t).toFixed(2)} (best of 3; target < 0.5)`,
+  );
   const single = Math.min(...[0, 1].map(() => seconds(process.execPath, [CLI, 'check', dir, '--beam-data', 'demo', '--threads', '1'])));
-  console.log(`  the same batch in one thread (--threads 1): ${single.toFixed(2)} s: ratio ${(single / t).toFixed(2)}; the worker threads make it ${(single / o).toFixed(2)}x faster`);
+  console.log(
+    `  the same batch in one thread (--threads 1): ${single.toFixed(2)} s: ratio ${(single / t).toFixed(2)}; the worker threads make it ${(single / o).toFixed(2)}x faster`,
+  );
   // The same two kinds apart, to show where the time goes.
-  for (const [label, prefix, count] of [['1 000 four-field plans alone', 'ff-', 1000], ['100 two-arc plans alone', 'arc-', 100]] as const) {
+  for (const [label, prefix, count] of [
+    ['1 000 four-field plans alone', 'ff-', 1000],
+    ['100 two-arc plans alone', 'arc-', 100],
+  ] as const) {
     const part = join(work, prefix);
     mkdirSync(part);
     const partFiles = files.filter((f) => f.startsWith(join(dir, prefix)));
     partFiles.forEach((f) => copyFileSync(f, join(part, f.slice(dir.length + 1))));
     const po = Math.min(...[0, 1].map(() => seconds(process.execPath, [CLI, 'check', part, '--beam-data', 'demo'])));
     const pt = Math.min(...[0, 1].map(() => seconds('dcmdump', ['-q', ...partFiles.map((f) => join(part, f.slice(dir.length + 1)))])));
-    console.log(`  ${label}: plumbline check ${po.toFixed(2)} s (${((1000 * po) / count).toFixed(1)} ms per plan), dcmdump ${pt.toFixed(2)} s: ratio ${(po / pt).toFixed(2)}`);
+    console.log(
+      `  ${label}: plumbline check ${po.toFixed(2)} s (${((1000 * po) / count).toFixed(1)} ms per plan), dcmdump ${pt.toFixed(2)} s: ratio ${(po / pt).toFixed(2)}`,
+    );
   }
 } finally {
   rmSync(work, { recursive: true, force: true });

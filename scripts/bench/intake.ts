@@ -19,7 +19,13 @@ const N = 500;
 /** dcmtk as packaged sets TCP_NODELAY only when asked: without it every object waits on delayed acknowledgements. */
 const NODELAY = { ...process.env, TCP_NODELAY: '1' };
 const root = mkdtempSync(join(tmpdir(), 'plumbline-bench-intake-'));
-const freePort = () => new Promise<number>((done) => { const s = net.createServer().listen(0, '127.0.0.1', () => { const p = (s.address() as net.AddressInfo).port; s.close(() => done(p)); }); });
+const freePort = () =>
+  new Promise<number>((done) => {
+    const s = net.createServer().listen(0, '127.0.0.1', () => {
+      const p = (s.address() as net.AddressInfo).port;
+      s.close(() => done(p));
+    });
+  });
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const send = (port: number, files: string[]) => {
   const t0 = process.hrtime.bigint();
@@ -29,7 +35,14 @@ const send = (port: number, files: string[]) => {
 };
 async function waitListening(port: number) {
   for (let i = 0; i < 200; i++) {
-    const ok = await new Promise<boolean>((done) => { const s = net.connect(port, '127.0.0.1', () => { s.destroy(); done(true); }).on('error', () => done(false)); });
+    const ok = await new Promise<boolean>((done) => {
+      const s = net
+        .connect(port, '127.0.0.1', () => {
+          s.destroy();
+          done(true);
+        })
+        .on('error', () => done(false));
+    });
     if (ok) return;
     await sleep(50);
   }
@@ -42,10 +55,21 @@ try {
   const iso: [number, number, number] = [0, 0, 0];
   const files = Array.from({ length: N }, (_, i) => {
     const file = join(dir, `p${i}.dcm`);
-    writeDataset(file, planDataset({ file: `p${i}.dcm`, patientId: `P-${i}`, patientName: 'Bench^Intake', label: `BENCH ${i}`, name: 'bench', description: 'bench',
-      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-      beams: [staticBeam(1, 'AP', 6, 0, 900, iso)] }), RT_PLAN_STORAGE);
+    writeDataset(
+      file,
+      planDataset({
+        file: `p${i}.dcm`,
+        patientId: `P-${i}`,
+        patientName: 'Bench^Intake',
+        label: `BENCH ${i}`,
+        name: 'bench',
+        description: 'bench',
+        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
+        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
+      }),
+      RT_PLAN_STORAGE,
+    );
     return file;
   });
   const results: { storescp: number; plumbline: number; endToEnd: number }[] = [];
@@ -63,8 +87,18 @@ try {
     const work = join(root, `svc${run}`);
     mkdirSync(work);
     const config = join(work, 'service.json');
-    writeFileSync(config, JSON.stringify({ format: 'plumbline.service', formatVersion: 1, receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-      folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' }, history: { database: 'history.sqlite' }, beamData: ['demo'], settleSeconds: 0 }));
+    writeFileSync(
+      config,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+        folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
+        history: { database: 'history.sqlite' },
+        beamData: ['demo'],
+        settleSeconds: 0,
+      }),
+    );
     const receiver: ChildProcess = spawn(process.execPath, [join(ROOT, 'dist/plumbline.mjs'), 'receive', '--config', config], { stdio: 'ignore' });
     await waitListening(port);
     const t0 = process.hrtime.bigint();
@@ -79,7 +113,9 @@ try {
   const best = results.sort((a, b) => a.endToEnd - b.endToEnd)[0]!;
   const receiveBest = Math.min(...results.map((r) => r.plumbline));
   const scpBest = Math.min(...results.map((r) => r.storescp));
-  console.log(`intake of ${N} plans by storescu (one association): plumbline receive ${receiveBest.toFixed(2)} s (${(N / receiveBest).toFixed(0)} plans/s), storescp ${scpBest.toFixed(2)} s (${(N / scpBest).toFixed(0)} plans/s): ratio ${(receiveBest / scpBest).toFixed(2)}`);
+  console.log(
+    `intake of ${N} plans by storescu (one association): plumbline receive ${receiveBest.toFixed(2)} s (${(N / receiveBest).toFixed(0)} plans/s), storescp ${scpBest.toFixed(2)} s (${(N / scpBest).toFixed(0)} plans/s): ratio ${(receiveBest / scpBest).toFixed(2)}`,
+  );
   console.log(`end to end (sent, received, checked, recorded): ${best.endToEnd.toFixed(2)} s, ${(N / best.endToEnd).toFixed(0)} plans/s`);
 } finally {
   rmSync(root, { recursive: true, force: true });

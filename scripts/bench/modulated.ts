@@ -21,8 +21,16 @@ const machine = loadMachine(join(ROOT, 'fixtures/demo/beam-data/manifest.json'))
 if (!plan.ok || !machine.ok) throw new Error('cannot load the demo plan or beam data');
 const dir = mkdtempSync(join(tmpdir(), 'plumbline-bench-mod-'));
 try {
-  writeCtPhantom(dir, { name: 'arc', columns: 512, rows: 512, slices: 200, spacingMm: [1, 1, 2], originMm: [-255.5, -255.5, -249], frameOfReferenceUid: plan.value.plan.frameOfReferenceUid!,
-    hu: (x, y) => (x * x + y * y < 150 * 150 ? 0 : -1000) });
+  writeCtPhantom(dir, {
+    name: 'arc',
+    columns: 512,
+    rows: 512,
+    slices: 200,
+    spacingMm: [1, 1, 2],
+    originMm: [-255.5, -255.5, -249],
+    frameOfReferenceUid: plan.value.plan.frameOfReferenceUid!,
+    hu: (x, y) => (x * x + y * y < 150 * 150 ? 0 : -1000),
+  });
   const cts = loadPatientCts([dir], join(ROOT, 'fixtures/demo/ct/hu-to-density.csv'), DEFAULT_POLICY.ct.bodyThresholdHu);
   if (!cts.ok) throw new Error(cts.issues.map((i) => i.message).join('; '));
   const options = { machine: machine.value.machine, policy: DEFAULT_POLICY, aliases: new Map<string, string>(), suggestPoint: false };
@@ -39,7 +47,9 @@ try {
   };
   const flat = time();
   const withCt = time(cts.value[0]);
-  console.log(`two-arc VMAT (2 x 178 control points, 60 leaf pairs, ${readdirSync(dir).length}-slice CT): ${withCt.checked} arcs checked in ${withCt.best.toFixed(0)} ms with CT depths per control point (target < 200 ms); ${flat.best.toFixed(0)} ms with the plan's SSD per control point`);
+  console.log(
+    `two-arc VMAT (2 x 178 control points, 60 leaf pairs, ${readdirSync(dir).length}-slice CT): ${withCt.checked} arcs checked in ${withCt.best.toFixed(0)} ms with CT depths per control point (target < 200 ms); ${flat.best.toFixed(0)} ms with the plan's SSD per control point`,
+  );
 } finally {
   rmSync(dir, { recursive: true, force: true });
 }

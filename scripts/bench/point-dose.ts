@@ -43,4 +43,6 @@ function run(n: number): number {
 
 run(200_000); // warm-up
 const rates = [0, 1, 2].map(() => run(2_000_000));
-console.log(`point dose (6 MV, demo machine, mixed SSD/SAD, OAR, wedge on 1 in 4): ${(Math.max(...rates) / 1e6).toFixed(2)} million evaluations/s (best of 3 x 2 000 000)`);
+console.log(
+  `point dose (6 MV, demo machine, mixed SSD/SAD, OAR, wedge on 1 in 4): ${(Math.max(...rates) / 1e6).toFixed(2)} million evaluations/s (best of 3 x 2 000 000)`,
+);

@@ -5,9 +5,7 @@ import { spawnSync } from 'node:child_process';
  * often lacks it, so the system interpreter is tried as well. PLUMBLINE_PYTHON overrides.
  */
 export function findPythonWithPydicom(): string | undefined {
-  const candidates = [process.env.PLUMBLINE_PYTHON, 'python3', '/usr/bin/python3'].filter(
-    (c): c is string => !!c,
-  );
+  const candidates = [process.env.PLUMBLINE_PYTHON, 'python3', '/usr/bin/python3'].filter((c): c is string => !!c);
   for (const exe of candidates) {
     const r = spawnSync(exe, ['-c', 'import pydicom'], { encoding: 'utf8' });
     if (r.status === 0) return exe;

@@ -28,15 +28,19 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  * separated by commas (or semicolons or tabs, taken from the first row). Decimal commas are not
  * accepted: a cell like `12,5` would be ambiguous.
  */
-export function parseCsvTable(
-  text: string,
-  file: string,
-  shape: 'grid' | 'profile',
-): { ok: true; value: CsvTable } | { ok: false; issues: Issue[] } {
+export function parseCsvTable(text: string, file: string, shape: 'grid' | 'profile'): { ok: true; value: CsvTable } | { ok: false; issues: Issue[] } {
   const issues: Issue[] = [];
   const at = (line: number, column: number, message: string, expected?: string, found?: string): void => {
-    issues.push({ severity: 'error', code: 'invalid-table', file, line, column, message,
-      ...(expected !== undefined ? { expected } : {}), ...(found !== undefined ? { found } : {}) });
+    issues.push({
+      severity: 'error',
+      code: 'invalid-table',
+      file,
+      line,
+      column,
+      message,
+      ...(expected !== undefined ? { expected } : {}),
+      ...(found !== undefined ? { found } : {}),
+    });
   };
   const lines: { line: number; cells: { text: string; column: number }[] }[] = [];
   let separator: string | undefined;

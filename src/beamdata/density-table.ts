@@ -19,22 +19,52 @@ export function loadDensityTable(file: string): Result<DensityTable> {
   try {
     text = readFileSync(file, 'utf8');
   } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the HU to density table (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'unreadable',
+          file,
+          message: `cannot read the HU to density table (${(e as NodeJS.ErrnoException).code ?? String(e)})`,
+        },
+      ],
+    };
   }
   const csv = parseCsvTable(text, file, 'profile');
   if (!csv.ok) return csv;
   const t = csv.value;
   const issues: Issue[] = [];
   t.rows.forEach((hu, i) => {
-    if (i > 0 && !(hu > t.rows[i - 1]!)) issues.push({ severity: 'error', code: 'invalid-table', file, ...t.rowPositions[i]!, message: 'the HU axis is not strictly increasing', found: `${hu}` });
+    if (i > 0 && !(hu > t.rows[i - 1]!))
+      issues.push({
+        severity: 'error',
+        code: 'invalid-table',
+        file,
+        ...t.rowPositions[i]!,
+        message: 'the HU axis is not strictly increasing',
+        found: `${hu}`,
+      });
   });
   t.values.forEach((rho, i) => {
-    if (!(rho >= 0) || rho > 5) issues.push({ severity: 'error', code: 'physical-range', file, ...t.valuePositions[i]!, message: 'relative electron density outside 0 to 5', found: `${rho}` });
+    if (!(rho >= 0) || rho > 5)
+      issues.push({
+        severity: 'error',
+        code: 'physical-range',
+        file,
+        ...t.valuePositions[i]!,
+        message: 'relative electron density outside 0 to 5',
+        found: `${rho}`,
+      });
   });
   if (t.rows.length < 2) issues.push({ severity: 'error', code: 'invalid-table', file, message: 'the table needs at least two rows' });
   if (issues.length) return { ok: false, issues };
-  const lookup = makeTableLookup({ name: `HU to density (${file})`, rows: { name: 'HU', unit: 'HU', values: Float64Array.from(t.rows) },
-    values: Float64Array.from(t.values), interpolation: 'bilinear' });
+  const lookup = makeTableLookup({
+    name: `HU to density (${file})`,
+    rows: { name: 'HU', unit: 'HU', values: Float64Array.from(t.rows) },
+    values: Float64Array.from(t.values),
+    interpolation: 'bilinear',
+  });
   // HU are integers in a bounded range: precompute once, look up by index in the ray tracer's loop.
   const lo = Math.ceil(t.rows[0]!);
   const hi = Math.floor(t.rows[t.rows.length - 1]!);
@@ -42,7 +72,11 @@ export function loadDensityTable(file: string): Result<DensityTable> {
   for (let h = lo; h <= hi; h++) cache[h - lo] = lookup.at(h, 0, []);
   return {
     ok: true,
-    value: { file, huRange: [t.rows[0]!, t.rows[t.rows.length - 1]!], density: (hu: number) => (hu >= lo && hu <= hi ? cache[hu - lo]! : Number.NaN) },
+    value: {
+      file,
+      huRange: [t.rows[0]!, t.rows[t.rows.length - 1]!],
+      density: (hu: number) => (hu >= lo && hu <= hi ? cache[hu - lo]! : Number.NaN),
+    },
     warnings: [],
   };
 }

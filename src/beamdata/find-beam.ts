@@ -1,7 +1,11 @@
 import type { ElectronBeamModel, Issue, MachineModel, PhotonBeamModel } from '../model/index.js';
 
 /** The machine's beam for a nominal energy (and FFF flag); never a neighbouring energy. */
-export function findPhotonBeam(machine: MachineModel, energyMV: number, fff = false): { ok: true; beam: PhotonBeamModel } | { ok: false; issue: Issue } {
+export function findPhotonBeam(
+  machine: MachineModel,
+  energyMV: number,
+  fff = false,
+): { ok: true; beam: PhotonBeamModel } | { ok: false; issue: Issue } {
   const beam = machine.beams.find((b) => Math.abs(b.nominalEnergyMV - energyMV) < 1e-9 && b.fff === fff);
   if (beam) return { ok: true, beam };
   return {
@@ -23,7 +27,8 @@ export function findElectronBeam(machine: MachineModel, energyMeV: number): { ok
   return {
     ok: false,
     issue: {
-      severity: 'error', code: 'missing-table',
+      severity: 'error',
+      code: 'missing-table',
       message: `machine ${machine.name} has no ${energyMeV} MeV electron beam in its beam data`,
       expected: machine.electronBeams.map((b) => `${b.nominalEnergyMeV} MeV`).join(', ') || 'no electron beams',
       found: `${energyMeV} MeV`,

@@ -1,6 +1,16 @@
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import type { ElectronApplicatorData, ElectronBeamModel, Issue, MachineModel, PhotonBeamModel, Result, TableAxis, TableLookup, WedgeData } from '../model/index.js';
+import type {
+  ElectronApplicatorData,
+  ElectronBeamModel,
+  Issue,
+  MachineModel,
+  PhotonBeamModel,
+  Result,
+  TableAxis,
+  TableLookup,
+  WedgeData,
+} from '../model/index.js';
 import { type CsvTable, parseCsvTable } from './csv-table.js';
 import { type ElectronBeamEntry, Manifest, type PhotonBeamEntry } from './manifest-schema.js';
 import { type ClampAllowance, makeTableLookup } from './table-lookup.js';
@@ -39,17 +49,36 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     } catch (e) {
       const m = /position (\d+)/.exec(String((e as Error).message));
       const pos = m ? lineColumn(text, Number(m[1])) : undefined;
-      return fail({ severity: 'error', code: 'invalid-manifest', file: manifestFile, ...(pos ?? {}), message: `not valid JSON (${(e as Error).message})` });
+      return fail({
+        severity: 'error',
+        code: 'invalid-manifest',
+        file: manifestFile,
+        ...(pos ?? {}),
+        message: `not valid JSON (${(e as Error).message})`,
+      });
     }
   } catch (e) {
-    return fail({ severity: 'error', code: 'unreadable', file: manifestFile, message: `cannot read the manifest (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+    return fail({
+      severity: 'error',
+      code: 'unreadable',
+      file: manifestFile,
+      message: `cannot read the manifest (${(e as NodeJS.ErrnoException).code ?? String(e)})`,
+    });
   }
   const parsed = Manifest.safeParse(json);
   if (!parsed.success) {
     return {
       ok: false,
-      issues: parsed.error.issues.map((z) => ({ severity: 'error', code: 'invalid-manifest', file: manifestFile,
-        path: z.path.map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`)).join('').replace(/^\./, ''), message: z.message })),
+      issues: parsed.error.issues.map((z) => ({
+        severity: 'error',
+        code: 'invalid-manifest',
+        file: manifestFile,
+        path: z.path
+          .map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`))
+          .join('')
+          .replace(/^\./, ''),
+        message: z.message,
+      })),
     };
   }
   const manifest = parsed.data;
@@ -58,14 +87,28 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
   const beams: PhotonBeamModel[] = [];
   const ids = new Set<string>();
   manifest.beams.forEach((entry, bi) => {
-    if (ids.has(entry.id)) issues.push({ severity: 'error', code: 'duplicate', file: manifestFile, path: `beams[${bi}].id`, message: `beam id ${entry.id} is given twice` });
+    if (ids.has(entry.id))
+      issues.push({
+        severity: 'error',
+        code: 'duplicate',
+        file: manifestFile,
+        path: `beams[${bi}].id`,
+        message: `beam id ${entry.id} is given twice`,
+      });
     ids.add(entry.id);
     const beam = loadBeam(entry, dir, tables, issues);
     if (beam) beams.push(beam);
   });
   const electronBeams: ElectronBeamModel[] = [];
   manifest.electronBeams.forEach((entry, bi) => {
-    if (ids.has(entry.id)) issues.push({ severity: 'error', code: 'duplicate', file: manifestFile, path: `electronBeams[${bi}].id`, message: `beam id ${entry.id} is given twice` });
+    if (ids.has(entry.id))
+      issues.push({
+        severity: 'error',
+        code: 'duplicate',
+        file: manifestFile,
+        path: `electronBeams[${bi}].id`,
+        message: `beam id ${entry.id} is given twice`,
+      });
     ids.add(entry.id);
     const beam = loadElectronBeam(entry, dir, tables, issues);
     if (beam) electronBeams.push(beam);
@@ -103,7 +146,12 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
     try {
       text = readFileSync(file, 'utf8');
     } catch (e) {
-      issues.push({ severity: 'error', code: 'missing-table', file, message: `${beamId} ${quantity}: cannot read the table (${(e as NodeJS.ErrnoException).code ?? String(e)})` });
+      issues.push({
+        severity: 'error',
+        code: 'missing-table',
+        file,
+        message: `${beamId} ${quantity}: cannot read the table (${(e as NodeJS.ErrnoException).code ?? String(e)})`,
+      });
       return undefined;
     }
     const csv = parseCsvTable(text, file, shape);
@@ -112,8 +160,24 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
       return undefined;
     }
     const t = csv.value;
-    const rows = axis(rowAxis[0], t.rows, TO_CM[rowAxis[1]], rowAxis[1] === 'deg' ? 'deg' : 'cm', t.rowPositions.map((p) => ({ file, ...p })), issues);
-    const columns = columnAxis ? axis(columnAxis[0], t.columns!, TO_CM[columnAxis[1]], columnAxis[1] === 'deg' ? 'deg' : 'cm', t.columnPositions!.map((p) => ({ file, ...p })), issues) : undefined;
+    const rows = axis(
+      rowAxis[0],
+      t.rows,
+      TO_CM[rowAxis[1]],
+      rowAxis[1] === 'deg' ? 'deg' : 'cm',
+      t.rowPositions.map((p) => ({ file, ...p })),
+      issues,
+    );
+    const columns = columnAxis
+      ? axis(
+          columnAxis[0],
+          t.columns!,
+          TO_CM[columnAxis[1]],
+          columnAxis[1] === 'deg' ? 'deg' : 'cm',
+          t.columnPositions!.map((p) => ({ file, ...p })),
+          issues,
+        )
+      : undefined;
     if (!rows || (columnAxis && !columns)) return undefined;
     const values = Float64Array.from(t.values, (v) => v * valueScale);
     // A clamp is stated in the file's units; the engine works in cm.
@@ -135,15 +199,25 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
     tables.push({ beamId, quantity, csv: t, lookup, valueScale });
     return lookup;
   };
-
 }
 
 function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): PhotonBeamModel | undefined {
   const load = tableLoader(entry.id, dir, tables, issues);
-  const pdd = entry.pdd === 'derive-from-tpr' ? undefined
-    : load('pdd', entry.pdd, 'grid', ['depth', entry.pdd.units.depth], ['fieldSide', entry.pdd.units.fieldSide], entry.pdd.units.value === 'fraction' ? 100 : 1);
-  const tpr = entry.tpr === 'derive-from-pdd' ? undefined
-    : load(entry.tpr.kind.toLowerCase(), entry.tpr, 'grid', ['depth', entry.tpr.units.depth], ['fieldSide', entry.tpr.units.fieldSide]);
+  const pdd =
+    entry.pdd === 'derive-from-tpr'
+      ? undefined
+      : load(
+          'pdd',
+          entry.pdd,
+          'grid',
+          ['depth', entry.pdd.units.depth],
+          ['fieldSide', entry.pdd.units.fieldSide],
+          entry.pdd.units.value === 'fraction' ? 100 : 1,
+        );
+  const tpr =
+    entry.tpr === 'derive-from-pdd'
+      ? undefined
+      : load(entry.tpr.kind.toLowerCase(), entry.tpr, 'grid', ['depth', entry.tpr.units.depth], ['fieldSide', entry.tpr.units.fieldSide]);
   const sc = load('sc', entry.sc, 'profile', ['fieldSide', entry.sc.units.fieldSide], undefined);
   const sp = entry.sp ? load('sp', entry.sp, 'profile', ['fieldSide', entry.sp.units.fieldSide], undefined) : undefined;
   const scp = entry.scp ? load('scp', entry.scp, 'profile', ['fieldSide', entry.scp.units.fieldSide], undefined) : undefined;
@@ -154,10 +228,14 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     const lookup = f.byDepth
       ? load(`wedge ${w.id}`, f, 'grid', ['depth', f.units.depth], ['fieldSide', f.units.fieldSide])
       : load(`wedge ${w.id}`, f, 'profile', ['fieldSide', f.units.fieldSide], undefined);
-    const profile = w.profile ? load(`wedge profile ${w.id}`, w.profile, 'grid', ['depth', w.profile.units.depth], ['towardHeel', w.profile.units.position]) : undefined;
+    const profile = w.profile
+      ? load(`wedge profile ${w.id}`, w.profile, 'grid', ['depth', w.profile.units.depth], ['towardHeel', w.profile.units.position])
+      : undefined;
     if (lookup) wedges.push({ id: w.id, angleDeg: w.angleDeg, factor: lookup, byDepth: f.byDepth, ...(profile ? { profile } : {}) });
   }
-  const swept = entry.sweptWedge ? load('swept wedge', entry.sweptWedge.factor, 'grid', ['angle', 'deg'], ['fieldSide', entry.sweptWedge.factor.units.fieldSide]) : undefined;
+  const swept = entry.sweptWedge
+    ? load('swept wedge', entry.sweptWedge.factor, 'grid', ['angle', 'deg'], ['fieldSide', entry.sweptWedge.factor.units.fieldSide])
+    : undefined;
   if (!sc || (entry.pdd !== 'derive-from-tpr' && !pdd) || (entry.tpr !== 'derive-from-pdd' && !tpr) || (!sp && !scp)) return undefined;
   return {
     id: entry.id,
@@ -165,8 +243,12 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     nominalEnergyMV: entry.nominalEnergyMV,
     fff: entry.fff,
     calibration: { ...entry.calibration },
-    ...(pdd && entry.pdd !== 'derive-from-tpr' ? { pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm, normalizationDepthCm: entry.pdd.normalizationDepthCm }) } : {}),
-    ...(tpr && entry.tpr !== 'derive-from-pdd' ? { tpr: Object.assign(tpr, { normalizationDepthCm: entry.tpr.normalizationDepthCm, kind: entry.tpr.kind }) } : {}),
+    ...(pdd && entry.pdd !== 'derive-from-tpr'
+      ? { pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm, normalizationDepthCm: entry.pdd.normalizationDepthCm }) }
+      : {}),
+    ...(tpr && entry.tpr !== 'derive-from-pdd'
+      ? { tpr: Object.assign(tpr, { normalizationDepthCm: entry.tpr.normalizationDepthCm, kind: entry.tpr.kind }) }
+      : {}),
     sc,
     ...(sp ? { sp } : {}),
     ...(scp ? { scp } : {}),
@@ -181,23 +263,53 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
 
 function loadElectronBeam(entry: ElectronBeamEntry, dir: string, tables: LoadedTable[], issues: Issue[]): ElectronBeamModel | undefined {
   const load = tableLoader(entry.id, dir, tables, issues);
-  const pdd = load('electron pdd', entry.pdd, 'grid', ['depth', entry.pdd.units.depth], ['fieldSide', entry.pdd.units.fieldSide], entry.pdd.units.value === 'fraction' ? 100 : 1);
+  const pdd = load(
+    'electron pdd',
+    entry.pdd,
+    'grid',
+    ['depth', entry.pdd.units.depth],
+    ['fieldSide', entry.pdd.units.fieldSide],
+    entry.pdd.units.value === 'fraction' ? 100 : 1,
+  );
   const applicators: ElectronApplicatorData[] = [];
   for (const a of entry.applicators) {
     const se = load(`se ${a.id}`, a.outputFactor, 'profile', ['fieldSide', a.outputFactor.units.fieldSide], undefined);
-    const ssd = typeof a.effectiveSsdCm === 'number' ? a.effectiveSsdCm : load(`effective ssd ${a.id}`, a.effectiveSsdCm, 'profile', ['fieldSide', a.effectiveSsdCm.units.fieldSide], undefined);
+    const ssd =
+      typeof a.effectiveSsdCm === 'number'
+        ? a.effectiveSsdCm
+        : load(`effective ssd ${a.id}`, a.effectiveSsdCm, 'profile', ['fieldSide', a.effectiveSsdCm.units.fieldSide], undefined);
     if (se && ssd !== undefined) applicators.push({ id: a.id, sideCm: a.sideCm, outputFactor: se, effectiveSsdCm: ssd });
   }
   if (!pdd || applicators.length !== entry.applicators.length) return undefined;
-  return { id: entry.id, radiationType: 'ELECTRON', nominalEnergyMeV: entry.nominalEnergyMeV, calibration: { ...entry.calibration }, pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm }), applicators };
+  return {
+    id: entry.id,
+    radiationType: 'ELECTRON',
+    nominalEnergyMeV: entry.nominalEnergyMeV,
+    calibration: { ...entry.calibration },
+    pdd: Object.assign(pdd, { ssdCm: entry.pdd.ssdCm }),
+    applicators,
+  };
 }
 
 /** An axis in cm, refused unless strictly increasing (interpolation depends on it). */
-function axis(name: string, raw: readonly number[], toCm: number, unit: string, at: { file: string; line: number; column: number }[], issues: Issue[]): TableAxis | undefined {
+function axis(
+  name: string,
+  raw: readonly number[],
+  toCm: number,
+  unit: string,
+  at: { file: string; line: number; column: number }[],
+  issues: Issue[],
+): TableAxis | undefined {
   for (let i = 1; i < raw.length; i++) {
     if (!(raw[i]! > raw[i - 1]!)) {
-      issues.push({ severity: 'error', code: 'invalid-table', ...at[i]!, message: `the ${name} axis is not strictly increasing`,
-        expected: `a value > ${raw[i - 1]}`, found: `${raw[i]}` });
+      issues.push({
+        severity: 'error',
+        code: 'invalid-table',
+        ...at[i]!,
+        message: `the ${name} axis is not strictly increasing`,
+        expected: `a value > ${raw[i - 1]}`,
+        found: `${raw[i]}`,
+      });
       return undefined;
     }
   }

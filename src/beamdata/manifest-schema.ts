@@ -26,9 +26,7 @@ const tableBase = {
   clamp: Clamp.optional(),
 };
 
-const DepthFieldTable = z
-  .object({ ...tableBase, units: z.object({ depth: LengthUnit, fieldSide: LengthUnit }).strict() })
-  .strict();
+const DepthFieldTable = z.object({ ...tableBase, units: z.object({ depth: LengthUnit, fieldSide: LengthUnit }).strict() }).strict();
 
 export const PddTable = z
   .object({
@@ -72,13 +70,17 @@ export const WedgeTable = z
       .object({ ...tableBase, units: z.object({ depth: LengthUnit, position: LengthUnit }).strict() })
       .strict()
       .optional()
-      .describe('wedged / open dose ratio vs depth (rows) and position along the wedge axis at the isocenter plane, positive toward the heel (columns); 1 on the central axis'),
+      .describe(
+        'wedged / open dose ratio vs depth (rows) and position along the wedge axis at the isocenter plane, positive toward the heel (columns); 1 on the central axis',
+      ),
   })
   .strict();
 
 export const SweptWedge = z
   .object({
-    factor: z.object({ ...tableBase, units: z.object({ fieldSide: LengthUnit }).strict() }).strict()
+    factor: z
+      .object({ ...tableBase, units: z.object({ fieldSide: LengthUnit }).strict() })
+      .strict()
       .describe('wedge factor vs wedge angle in degrees (rows) and the field length along the swept direction (columns)'),
     description: z.string().optional(),
   })
@@ -130,7 +132,9 @@ export const ApplicatorEntry = z
   .object({
     id: z.string().min(1).describe('the Applicator ID as the plan names it'),
     sideCm: positive.describe("the open applicator's field side at the nominal SSD"),
-    outputFactor: FieldProfile.describe('Se vs cutout equivalent square at the nominal SSD (cm), at each field\'s own dmax; 1 for the reference applicator, open'),
+    outputFactor: FieldProfile.describe(
+      "Se vs cutout equivalent square at the nominal SSD (cm), at each field's own dmax; 1 for the reference applicator, open",
+    ),
     effectiveSsdCm: z.union([positive, FieldProfile]).describe('effective (virtual) SSD: one value, or a profile vs cutout equivalent square'),
   })
   .strict();
@@ -143,7 +147,7 @@ export const ElectronBeamEntry = z
     calibration: z
       .object({
         ssd0Cm: positive.describe('the nominal SSD of the applicators'),
-        d0Cm: positive.describe("normalization depth (dmax of the reference applicator)"),
+        d0Cm: positive.describe('normalization depth (dmax of the reference applicator)'),
         doseCGyPerMu: positive.describe("D'0: dose per MU at d0 for the reference applicator, open, at the nominal SSD"),
         referenceApplicator: z.string().min(1),
       })
@@ -152,7 +156,10 @@ export const ElectronBeamEntry = z
     applicators: z.array(ApplicatorEntry).min(1),
   })
   .strict()
-  .refine((b) => b.applicators.some((a) => a.id === b.calibration.referenceApplicator), { message: 'the reference applicator must be one of the applicators', path: ['calibration', 'referenceApplicator'] });
+  .refine((b) => b.applicators.some((a) => a.id === b.calibration.referenceApplicator), {
+    message: 'the reference applicator must be one of the applicators',
+    path: ['calibration', 'referenceApplicator'],
+  });
 
 export const Manifest = z
   .object({
@@ -171,7 +178,9 @@ export const Manifest = z
           .object({ atOrientation0: z.enum(['+Y', '-Y']), atOrientation90: z.enum(['+X', '-X']) })
           .strict()
           .optional()
-          .describe("where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, as the clinic verified with its planning system; needed by wedge profiles"),
+          .describe(
+            "where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, as the clinic verified with its planning system; needed by wedge profiles",
+          ),
       })
       .strict(),
     beams: z.array(PhotonBeamEntry).default([]),
@@ -179,7 +188,10 @@ export const Manifest = z
   })
   .strict()
   .refine((m) => m.beams.length + m.electronBeams.length > 0, { message: 'give at least one photon or electron beam', path: ['beams'] })
-  .refine((m) => !!m.machine.wedgeHeel || !m.beams.some((b) => b.wedges.some((w) => w.profile)), { message: 'wedge profiles need machine.wedgeHeel (where the heel points at Wedge Orientation 0 and 90)', path: ['machine', 'wedgeHeel'] });
+  .refine((m) => !!m.machine.wedgeHeel || !m.beams.some((b) => b.wedges.some((w) => w.profile)), {
+    message: 'wedge profiles need machine.wedgeHeel (where the heel points at Wedge Orientation 0 and 90)',
+    path: ['machine', 'wedgeHeel'],
+  });
 
 export type Manifest = z.infer<typeof Manifest>;
 export type PhotonBeamEntry = z.infer<typeof PhotonBeamEntry>;

@@ -40,8 +40,15 @@ export function makeTableLookup(spec: TableSpec): TableLookup {
     if (v >= lo - EXACT && v <= hi + EXACT) return Math.min(Math.max(v, lo), hi);
     const edge = v < lo ? lo : hi;
     const allowed = v < lo ? lo - v <= below + EXACT : v - hi <= above + EXACT;
-    log.push({ table: name, axis: axis.name, requested: v, used: allowed ? edge : Number.NaN,
-      kind: allowed ? 'clamped' : 'out-of-range', range: [lo, hi], unit: axis.unit });
+    log.push({
+      table: name,
+      axis: axis.name,
+      requested: v,
+      used: allowed ? edge : Number.NaN,
+      kind: allowed ? 'clamped' : 'out-of-range',
+      range: [lo, hi],
+      unit: axis.unit,
+    });
     return allowed ? edge : Number.NaN;
   };
 
@@ -68,8 +75,15 @@ export function makeTableLookup(spec: TableSpec): TableLookup {
     ...(columns ? { columns } : {}),
     at(row: number, column: number, log: LookupLog): number {
       if (!Number.isFinite(row) || (columns && !Number.isFinite(column))) {
-        log.push({ table: name, axis: Number.isFinite(row) ? columns!.name : rows.name, requested: Number.isFinite(row) ? column : row,
-          used: Number.NaN, kind: 'out-of-range', range: [Number.NaN, Number.NaN], unit: '' });
+        log.push({
+          table: name,
+          axis: Number.isFinite(row) ? columns!.name : rows.name,
+          requested: Number.isFinite(row) ? column : row,
+          used: Number.NaN,
+          kind: 'out-of-range',
+          range: [Number.NaN, Number.NaN],
+          unit: '',
+        });
         return Number.NaN;
       }
       const r = along(rows, row, c.rowsBelow ?? 0, c.rowsAbove ?? 0, log);

@@ -44,7 +44,8 @@ export function validateTables(loaded: LoadedMachine): Issue[] {
     const kind = kindOf(t.quantity);
     checkRange(t, RANGES[kind]!, issues);
     // An electron PDD falls steeply past its therapeutic range: its curvature there is physics, not noise.
-    if (kind !== 'electron pdd') checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
+    if (kind !== 'electron pdd')
+      checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
     else checkColumnMaxima(t, issues);
   }
   for (const [i, b] of loaded.manifest.beams.entries()) {
@@ -52,16 +53,29 @@ export function validateTables(loaded: LoadedMachine): Issue[] {
     if (b.pdd !== 'derive-from-tpr') checkNormalizationRow(find('pdd'), b.pdd.normalizationDepthCm, 100, 0.5, 'PDD', issues);
     if (b.tpr !== 'derive-from-pdd') checkNormalizationRow(find(b.tpr.kind.toLowerCase()), b.tpr.normalizationDepthCm, 1, 0.005, b.tpr.kind, issues);
     if (b.calibration.d0Cm < b.calibration.dmaxCm - 1e-9) {
-      issues.push({ severity: 'warning', code: 'physical-range', file: loaded.manifestFile, path: `beams[${i}].calibration.d0Cm`,
-        message: `beam ${b.id}: the normalization depth lies in the build-up region, above dmax`, expected: `d0 >= ${b.calibration.dmaxCm} cm`, found: `${b.calibration.d0Cm} cm` });
+      issues.push({
+        severity: 'warning',
+        code: 'physical-range',
+        file: loaded.manifestFile,
+        path: `beams[${i}].calibration.d0Cm`,
+        message: `beam ${b.id}: the normalization depth lies in the build-up region, above dmax`,
+        expected: `d0 >= ${b.calibration.dmaxCm} cm`,
+        found: `${b.calibration.d0Cm} cm`,
+      });
     }
   }
   const wedgeIds = new Set(loaded.manifest.beams.flatMap((b) => b.wedges.map((w) => w.id)));
   for (const id of wedgeIds) {
     const without = loaded.manifest.beams.filter((b) => !b.wedges.some((w) => w.id === id)).map((b) => b.id);
     if (without.length) {
-      issues.push({ severity: 'warning', code: 'missing-table', file: loaded.manifestFile,
-        message: `wedge ${id} has data for some beams but not for ${without.join(', ')}`, expected: `a ${id} factor table for every beam that can carry the wedge`, found: 'none' });
+      issues.push({
+        severity: 'warning',
+        code: 'missing-table',
+        file: loaded.manifestFile,
+        message: `wedge ${id} has data for some beams but not for ${without.join(', ')}`,
+        expected: `a ${id} factor table for every beam that can carry the wedge`,
+        found: 'none',
+      });
     }
   }
   return issues;
@@ -77,28 +91,53 @@ function checkRange(t: LoadedTable, range: { min: number; max: number; minInclus
     const low = range.minInclusive ? v < range.min : v <= range.min;
     if (low || v > range.max) {
       const pos = t.csv.valuePositions[k]!;
-      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...pos,
+      issues.push({
+        severity: 'error',
+        code: 'physical-range',
+        file: t.csv.file,
+        ...pos,
         message: `${t.beamId} ${t.quantity}: value outside the physical range`,
-        expected: `${range.minInclusive ? '>=' : '>'} ${range.min} and <= ${range.max}${t.quantity === 'pdd' ? ' %' : ''}`, found: `${v}` });
+        expected: `${range.minInclusive ? '>=' : '>'} ${range.min} and <= ${range.max}${t.quantity === 'pdd' ? ' %' : ''}`,
+        found: `${v}`,
+      });
     }
   });
 }
 
-function checkNormalizationRow(t: LoadedTable | undefined, depthCm: number, expected: number, tolerance: number, what: string, issues: Issue[]): void {
+function checkNormalizationRow(
+  t: LoadedTable | undefined,
+  depthCm: number,
+  expected: number,
+  tolerance: number,
+  what: string,
+  issues: Issue[],
+): void {
   if (!t) return;
   const rows = t.lookup.rows.values;
   const i = rows.findIndex((r) => Math.abs(r - depthCm) < 1e-6);
   if (i < 0) {
-    issues.push({ severity: 'warning', code: 'missing-table', file: t.csv.file, line: t.csv.rowPositions[0]!.line,
-      message: `${t.beamId} ${what}: no row at the normalization depth ${depthCm} cm, so ${what} = ${expected} there cannot be checked` });
+    issues.push({
+      severity: 'warning',
+      code: 'missing-table',
+      file: t.csv.file,
+      line: t.csv.rowPositions[0]!.line,
+      message: `${t.beamId} ${what}: no row at the normalization depth ${depthCm} cm, so ${what} = ${expected} there cannot be checked`,
+    });
     return;
   }
   const n = t.lookup.columns ? t.lookup.columns.values.length : 1;
   for (let j = 0; j < n; j++) {
     const v = t.csv.values[i * n + j]! * t.valueScale;
     if (Math.abs(v - expected) > tolerance) {
-      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...t.csv.valuePositions[i * n + j]!,
-        message: `${t.beamId} ${what} is not ${expected} at its normalization depth ${depthCm} cm`, expected: `${expected} ± ${tolerance}`, found: `${v}` });
+      issues.push({
+        severity: 'error',
+        code: 'physical-range',
+        file: t.csv.file,
+        ...t.csv.valuePositions[i * n + j]!,
+        message: `${t.beamId} ${what} is not ${expected} at its normalization depth ${depthCm} cm`,
+        expected: `${expected} ± ${tolerance}`,
+        found: `${v}`,
+      });
     }
   }
 }
@@ -112,8 +151,15 @@ function checkColumnMaxima(t: LoadedTable, issues: Issue[]): void {
     for (let i = 1; i < m; i++) if (t.csv.values[i * n + j]! > t.csv.values[best * n + j]!) best = i;
     const v = t.csv.values[best * n + j]! * t.valueScale;
     if (Math.abs(v - 100) > 0.5) {
-      issues.push({ severity: 'error', code: 'physical-range', file: t.csv.file, ...t.csv.valuePositions[best * n + j]!,
-        message: `${t.beamId} electron PDD: the column's maximum is not 100 % (each column is normalized at its own dmax)`, expected: '100 ± 0.5 %', found: `${v}` });
+      issues.push({
+        severity: 'error',
+        code: 'physical-range',
+        file: t.csv.file,
+        ...t.csv.valuePositions[best * n + j]!,
+        message: `${t.beamId} electron PDD: the column's maximum is not 100 % (each column is normalized at its own dmax)`,
+        expected: '100 ± 0.5 %',
+        found: `${v}`,
+      });
     }
   }
 }
@@ -130,7 +176,8 @@ function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): v
     for (let i = 0; i < rows.length; i++) if (rows[i]! >= minRowValue - 1e-9) idx.push([i, j]);
     lines.push({ xs: idx.map(([i]) => rows[i]!), idx });
   }
-  if (cols) for (let i = 0; i < rows.length; i++) if (rows[i]! >= minRowValue - 1e-9) lines.push({ xs: [...cols], idx: [...cols].map((_, j) => [i, j]) });
+  if (cols)
+    for (let i = 0; i < rows.length; i++) if (rows[i]! >= minRowValue - 1e-9) lines.push({ xs: [...cols], idx: [...cols].map((_, j) => [i, j]) });
   for (const { xs, idx } of lines) {
     if (xs.length < 5) continue;
     const v = idx.map(([i, j]) => value(i, j));
@@ -156,9 +203,14 @@ function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): v
       const [i, j] = idx[k]!;
       const pos = t.csv.valuePositions[i * n + j]!;
       if (issues.some((x) => x.code === 'rough-table' && x.file === t.csv.file && x.line === pos.line && x.column === pos.column)) return;
-      issues.push({ severity: 'warning', code: 'rough-table', file: t.csv.file, ...pos,
+      issues.push({
+        severity: 'warning',
+        code: 'rough-table',
+        file: t.csv.file,
+        ...pos,
         message: `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours (curvature ${(ck / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
-        found: `${v[k]}` });
+        found: `${v[k]}`,
+      });
     });
   }
 }

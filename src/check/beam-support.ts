@@ -23,7 +23,8 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
   const cp0 = cps[0]!;
   if ((cp0.tableTopEccentricAngleDeg ?? 0) !== 0) return note('table-eccentric');
   if (!patientPosition) return note('no-patient-position');
-  if (!isSupportedPosition(patientPosition)) return note('patient-position', { position: patientPosition, supported: SUPPORTED_POSITIONS.join(', ') });
+  if (!isSupportedPosition(patientPosition))
+    return note('patient-position', { position: patientPosition, supported: SUPPORTED_POSITIONS.join(', ') });
   if (!cp0.isocenterPatientMm) return note('no-isocenter');
   if (cp0.nominalEnergyMeV === undefined) return note('no-energy');
   return undefined;
@@ -35,7 +36,8 @@ export function unsupportedReason(beam: Beam, patientPosition: string | undefine
  */
 export function isModulated(beam: Beam): boolean {
   const cps = beam.controlPoints;
-  if (beam.wedges.some((w) => w.type === 'DYNAMIC') && cps.every((c) => c.gantryAngleDeg === cps[0]!.gantryAngleDeg) && leavesStill(cps)) return false;
+  if (beam.wedges.some((w) => w.type === 'DYNAMIC') && cps.every((c) => c.gantryAngleDeg === cps[0]!.gantryAngleDeg) && leavesStill(cps))
+    return false;
   return beam.beamType === 'DYNAMIC' || cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg) || !sameAperture(cps);
 }
 
@@ -47,5 +49,11 @@ function leavesStill(cps: readonly ControlPoint[]): boolean {
 function sameAperture(cps: readonly ControlPoint[]): boolean {
   const first = JSON.stringify(cps[0]!.devices);
   const wedges = JSON.stringify(cps[0]!.wedgePositions);
-  return cps.every((c) => JSON.stringify(c.devices) === first && JSON.stringify(c.wedgePositions) === wedges && c.collimatorAngleDeg === cps[0]!.collimatorAngleDeg && c.couchAngleDeg === cps[0]!.couchAngleDeg);
+  return cps.every(
+    (c) =>
+      JSON.stringify(c.devices) === first &&
+      JSON.stringify(c.wedgePositions) === wedges &&
+      c.collimatorAngleDeg === cps[0]!.collimatorAngleDeg &&
+      c.couchAngleDeg === cps[0]!.couchAngleDeg,
+  );
 }

@@ -1,6 +1,19 @@
 import type { HeterogeneityMethod } from '../physics/index.js';
-import { type CalculatedBeam, type DoseGrid, type FractionGroup, type FractionGroupCheck, type Issue, type MachineModel, note, type Note, type NotCheckedBeam,
-  type Plan, type PlanCheck, type ReferencedBeam, type Verdict } from '../model/index.js';
+import {
+  type CalculatedBeam,
+  type DoseGrid,
+  type FractionGroup,
+  type FractionGroupCheck,
+  type Issue,
+  type MachineModel,
+  note,
+  type Note,
+  type NotCheckedBeam,
+  type Plan,
+  type PlanCheck,
+  type ReferencedBeam,
+  type Verdict,
+} from '../model/index.js';
 import { isSupportedPosition, unsupportedReason } from './beam-support.js';
 import { checkBeam, notCheckedBeam } from './beam/index.js';
 import { choosePoint } from './choose-point.js';
@@ -36,8 +49,15 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
   const issues: Issue[] = [];
   const ctFrame = o.ct?.volume.frameOfReferenceUid;
   if (o.ct && ctFrame !== plan.frameOfReferenceUid) {
-    issues.push({ severity: 'error', code: 'inconsistent', file: file.path, path: 'FrameOfReferenceUID',
-      message: 'the CT and the plan are in different frames of reference: the CT cannot be this plan\'s', expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`, found: `the CT's ${ctFrame}` });
+    issues.push({
+      severity: 'error',
+      code: 'inconsistent',
+      file: file.path,
+      path: 'FrameOfReferenceUID',
+      message: "the CT and the plan are in different frames of reference: the CT cannot be this plan's",
+      expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`,
+      found: `the CT's ${ctFrame}`,
+    });
   }
   const ct = issues.length ? undefined : o.ct;
   let machine: PlanCheck['machine'];
@@ -49,9 +69,16 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
       return r.beam;
     });
     const judged = judge(beams, o.policy);
-    return { number: g.number, ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}), beams: judged, totals: groupTotals(plan, g, judged) };
+    return {
+      number: g.number,
+      ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}),
+      beams: judged,
+      totals: groupTotals(plan, g, judged),
+    };
   });
-  const grids = (o.doseGrids ?? []).filter((g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid));
+  const grids = (o.doseGrids ?? []).filter(
+    (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
+  );
   const groups = attachDoseGrids(checkedGroups, grids);
   const all = groups.flatMap((g) => g.beams);
   const notChecked = all.filter((b) => b.status !== 'checked').length;
@@ -75,7 +102,12 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
     ...(plan.approvalStatus ? { approvalStatus: plan.approvalStatus } : {}),
     ...(machine ? { machine } : {}),
     fractionGroups: groups,
-    courseTotals: courseTotals(groups).map((t) => withGrid(t, grids.find((g) => g.summationType === 'PLAN'))),
+    courseTotals: courseTotals(groups).map((t) =>
+      withGrid(
+        t,
+        grids.find((g) => g.summationType === 'PLAN'),
+      ),
+    ),
     verdict,
     fullyVerified: notChecked === 0 && issues.length === 0 && checked > 0,
     issues,
@@ -87,8 +119,12 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
  * One beam of a fraction group: what the engine supports, the machine, the point; then the beam's
  * own check. An input issue (no beam data for the machine, a table missing) refuses the plan.
  */
-function checkEntry(plan: Plan, g: FractionGroup, entry: ReferencedBeam, o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean }):
-  { beam: CalculatedBeam | NotCheckedBeam; issue?: Issue; machine?: PlanCheck['machine'] } {
+function checkEntry(
+  plan: Plan,
+  g: FractionGroup,
+  entry: ReferencedBeam,
+  o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean },
+): { beam: CalculatedBeam | NotCheckedBeam; issue?: Issue; machine?: PlanCheck['machine'] } {
   const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
   const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
   const why = unsupportedReason(beam, position, entry.beamMeterset);
@@ -103,8 +139,18 @@ function checkEntry(plan: Plan, g: FractionGroup, entry: ReferencedBeam, o: Omit
   if (!point) return { beam: notCheckedBeam(beam, entry, 'no-point'), machine };
   if (o.ctRefused) return { beam: notCheckedBeam(beam, entry, 'ct-not-this-plan'), machine };
   if (!isSupportedPosition(position)) return { beam: notCheckedBeam(beam, entry, 'no-patient-position'), machine };
-  const r = checkBeam({ beam, entry, point, patientPosition: position, machine: o.machine, policy: o.policy, suggestPoint: o.suggestPoint, ct: o.ct,
-    heterogeneity: o.heterogeneity, planningSystemDepths: planningSystemDepths(plan, g, entry, beam, point) });
+  const r = checkBeam({
+    beam,
+    entry,
+    point,
+    patientPosition: position,
+    machine: o.machine,
+    policy: o.policy,
+    suggestPoint: o.suggestPoint,
+    ct: o.ct,
+    heterogeneity: o.heterogeneity,
+    planningSystemDepths: planningSystemDepths(plan, g, entry, beam, point),
+  });
   if (!r.ok) return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: r.issue.message }), issue: r.issue, machine };
   return { beam: r.value, machine };
 }

@@ -15,18 +15,34 @@ export function choosePoint(plan: Plan, group: FractionGroup, entry: ReferencedB
     return { source: 'user', patientMm: userPointMm, planningSystemDoseHere };
   }
   if (entry.beamDoseSpecificationPointPatientMm) {
-    return { source: 'beam-dose-specification-point', patientMm: [...entry.beamDoseSpecificationPointPatientMm] as Point3, planningSystemDoseHere: true };
+    return {
+      source: 'beam-dose-specification-point',
+      patientMm: [...entry.beamDoseSpecificationPointPatientMm] as Point3,
+      planningSystemDoseHere: true,
+    };
   }
   const byUid = entry.doseReferenceUid ? plan.doseReferences.find((d) => d.uid === entry.doseReferenceUid && d.pointPatientMm) : undefined;
   if (byUid) {
-    return { source: 'dose-reference', doseReferenceVia: 'referenced-uid', patientMm: [...byUid.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: byUid.number };
+    return {
+      source: 'dose-reference',
+      doseReferenceVia: 'referenced-uid',
+      patientMm: [...byUid.pointPatientMm!] as Point3,
+      planningSystemDoseHere: true,
+      doseReferenceNumber: byUid.number,
+    };
   }
   const groupRefs = group.doseReferences
     .map((r) => plan.doseReferences.find((d) => d.number === r.doseReferenceNumber))
     .filter((d) => d?.pointPatientMm);
   if (groupRefs.length === 1) {
     const d = groupRefs[0]!;
-    return { source: 'dose-reference', doseReferenceVia: 'only-in-fraction-group', patientMm: [...d.pointPatientMm!] as Point3, planningSystemDoseHere: true, doseReferenceNumber: d.number };
+    return {
+      source: 'dose-reference',
+      doseReferenceVia: 'only-in-fraction-group',
+      patientMm: [...d.pointPatientMm!] as Point3,
+      planningSystemDoseHere: true,
+      doseReferenceNumber: d.number,
+    };
   }
   const targets = plan.doseReferences.filter((d) => d.pointPatientMm && d.type === 'TARGET');
   if (targets.length === 1) {

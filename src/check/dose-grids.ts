@@ -17,6 +17,11 @@ export function attachDoseGrids(groups: readonly FractionGroupCheck[], grids: re
       const gy = grid && b.point ? doseAtPointGy(grid, b.point.patientMm) : undefined;
       return gy === undefined ? b : { ...b, doseGridCGy: cGyFromGy(gy) };
     }),
-    totals: g.totals.map((t) => withGrid(t, grids.find((x) => x.summationType === 'FRACTION'))),
+    totals: g.totals.map((t) =>
+      withGrid(
+        t,
+        grids.find((x) => x.summationType === 'FRACTION'),
+      ),
+    ),
   }));
 }

@@ -23,7 +23,14 @@ export interface FieldInput {
  * at the isocenter plane to the point's depth. A plain rectangle with the point open uses the
  * equivalent square; anything else gets Clarkson sectors (geometry in mm hands over to cm here).
  */
-export function fieldInput(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, depthScale: number, leafTransmission: number): FieldInput {
+export function fieldInput(
+  aperture: Aperture,
+  blocks: readonly BlockOutline[],
+  x: number,
+  y: number,
+  depthScale: number,
+  leafTransmission: number,
+): FieldInput {
   const j = aperture.collimatingMm;
   const collimatorFieldCm = { x: (j.x2 - j.x1) / MM_PER_CM, y: (j.y2 - j.y1) / MM_PER_CM };
   const jawAreaMm2 = (j.x2 - j.x1) * (j.y2 - j.y1);
@@ -35,7 +42,9 @@ export function fieldInput(aperture: Aperture, blocks: readonly BlockOutline[], 
   const irregular = (aperture.leaves && aperture.areaMm2 / jawAreaMm2 < 0.99) || blocks.length > 0 || !open;
   const rings = irregular ? sectorRings(aperture, blocks, x, y, CLARKSON_SECTORS, leafTransmission) : undefined;
   return {
-    collimatorFieldCm, jawAreaMm2, irradiatedSquareCm,
+    collimatorFieldCm,
+    jawAreaMm2,
+    irradiatedSquareCm,
     openAreaMm2: rings && blocks.length ? openArea(rings) : aperture.areaMm2,
     ...(rings ? { clarksonSectors: { start: rings.start, outerCm: atDepthCm(rings.outerMm, depthScale), weight: rings.weight } } : {}),
     primaryWeight,

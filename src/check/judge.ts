@@ -13,9 +13,10 @@ export function judge(beams: readonly (CalculatedBeam | NotCheckedBeam)[], polic
   // The point's dose is the planning system's doses of the beams checked there (a beam not checked
   // has no point of ours); a smaller total only makes the share larger, so the judging stricter.
   const byPoint = new Map<string, number>();
-  for (const b of beams) if (b.status === 'checked' && b.planningSystemDoseCGy !== undefined) {
-    byPoint.set(pointKey(b.point.patientMm), (byPoint.get(pointKey(b.point.patientMm)) ?? 0) + b.planningSystemDoseCGy);
-  }
+  for (const b of beams)
+    if (b.status === 'checked' && b.planningSystemDoseCGy !== undefined) {
+      byPoint.set(pointKey(b.point.patientMm), (byPoint.get(pointKey(b.point.patientMm)) ?? 0) + b.planningSystemDoseCGy);
+    }
   return beams.map((b) => (b.status === 'checked' ? judgeBeam(b, byPoint.get(pointKey(b.point.patientMm)) ?? 0, policy) : b));
 }
 
@@ -53,9 +54,22 @@ function judgeBeam(b: CalculatedBeam, pointTotalCGy: number, policy: Policy): Ch
     reasons.push(note('ct-correction', { method: ct.method, correctionFactor: ct.correctionFactor, homogeneousDoseCGy: ct.homogeneousDoseCGy }));
     if (ct.ssdDifferenceMm !== undefined && Math.abs(ct.ssdDifferenceMm) > policy.ct.ssdToleranceMm) {
       verdict = worst(verdict, 'needs review');
-      reasons.push(note('ct-ssd-differs', { ctSsdMm: ct.ssdAlongAxisMm, planSsdMm: ct.planSsdMm, differenceMm: ct.ssdDifferenceMm, toleranceMm: policy.ct.ssdToleranceMm }));
+      reasons.push(
+        note('ct-ssd-differs', {
+          ctSsdMm: ct.ssdAlongAxisMm,
+          planSsdMm: ct.planSsdMm,
+          differenceMm: ct.ssdDifferenceMm,
+          toleranceMm: policy.ct.ssdToleranceMm,
+        }),
+      );
     }
   }
   if (b.calculation.planningSystemDepths) reasons.push(note('planning-system-depths'));
-  return { ...b, verdict, verdictReasons: reasons, ...(judgedDeviationPercent !== undefined ? { judgedDeviationPercent } : {}), ...(judgedOn ? { judgedOn } : {}) };
+  return {
+    ...b,
+    verdict,
+    verdictReasons: reasons,
+    ...(judgedDeviationPercent !== undefined ? { judgedDeviationPercent } : {}),
+    ...(judgedOn ? { judgedOn } : {}),
+  };
 }

@@ -4,20 +4,39 @@ import type { Issue, MachineModel, Plan } from '../model/index.js';
  * The beam data for a plan's Treatment Machine Name: the machine's name or one of its aliases,
  * after the user's `--machine-alias PLANNAME=DATANAME`. Never another machine's data.
  */
-export function matchMachine(planMachineName: string | undefined, machine: MachineModel, aliases: ReadonlyMap<string, string>):
-  { ok: true; via: string } | { ok: false; issue: Issue } {
+export function matchMachine(
+  planMachineName: string | undefined,
+  machine: MachineModel,
+  aliases: ReadonlyMap<string, string>,
+): { ok: true; via: string } | { ok: false; issue: Issue } {
   if (!planMachineName) {
-    return { ok: false, issue: { severity: 'error', code: 'missing-attribute', message: 'the beam has no Treatment Machine Name, so its beam data cannot be chosen', expected: machine.aliases.join(', ') } };
+    return {
+      ok: false,
+      issue: {
+        severity: 'error',
+        code: 'missing-attribute',
+        message: 'the beam has no Treatment Machine Name, so its beam data cannot be chosen',
+        expected: machine.aliases.join(', '),
+      },
+    };
   }
   const mapped = aliases.get(planMachineName);
   const name = mapped ?? planMachineName;
   if (machine.aliases.includes(name)) {
-    return { ok: true, via: mapped ? `--machine-alias ${planMachineName}=${mapped}` : name === machine.name ? 'same name' : `alias ${name} in the beam data` };
+    return {
+      ok: true,
+      via: mapped ? `--machine-alias ${planMachineName}=${mapped}` : name === machine.name ? 'same name' : `alias ${name} in the beam data`,
+    };
   }
   return {
     ok: false,
-    issue: { severity: 'error', code: 'missing-table', message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
-      expected: machine.aliases.join(', '), found: name },
+    issue: {
+      severity: 'error',
+      code: 'missing-table',
+      message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
+      expected: machine.aliases.join(', '),
+      found: name,
+    },
   };
 }
 
@@ -26,7 +45,12 @@ export function matchMachine(planMachineName: string | undefined, machine: Machi
  * that gives one), by the same rule as `matchMachine`; else the first, whose mismatch the check of
  * each beam then reports. The one place a plan's machine is chosen.
  */
-export function chooseMachine<T>(plan: Plan, candidates: readonly [T, ...T[]], modelOf: (c: T) => MachineModel, aliases: ReadonlyMap<string, string>): T {
+export function chooseMachine<T>(
+  plan: Plan,
+  candidates: readonly [T, ...T[]],
+  modelOf: (c: T) => MachineModel,
+  aliases: ReadonlyMap<string, string>,
+): T {
   const name = plan.beams.find((b) => b.machineName)?.machineName;
   return candidates.find((c) => matchMachine(name, modelOf(c), aliases).ok) ?? candidates[0];
 }

@@ -1,4 +1,4 @@
-import { beamFrame, ctDepth, } from '../geometry/index.js';
+import { beamFrame, ctDepth } from '../geometry/index.js';
 import type { BeamDepth, Plan } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
@@ -20,24 +20,42 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
       const point = choosePoint(plan, g, entry, beam);
       const theirs = planningSystemDepths(plan, g, entry, beam, point);
       for (const cp of arc ? cps : [cps[0]!]) {
-        const base = { beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}), ...(arc ? { controlPointIndex: cp.index } : {}), gantryAngleDeg: cp.gantryAngleDeg,
-          ...(cp.ssdMm !== undefined ? { planSsdMm: cp.ssdMm } : {}), ...(theirs && !arc ? { planningSystem: theirs } : {}) };
+        const base = {
+          beamNumber: beam.number,
+          ...(beam.name ? { beamName: beam.name } : {}),
+          ...(arc ? { controlPointIndex: cp.index } : {}),
+          gantryAngleDeg: cp.gantryAngleDeg,
+          ...(cp.ssdMm !== undefined ? { planSsdMm: cp.ssdMm } : {}),
+          ...(theirs && !arc ? { planningSystem: theirs } : {}),
+        };
         const frame = position ? beamFrame(cp, position, sadMm) : undefined;
         if (!point || !frame) {
-          rows.push({ ...base, point: { source: 'isocenter', patientMm: [0, 0, 0] }, problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported` });
+          rows.push({
+            ...base,
+            point: { source: 'isocenter', patientMm: [0, 0, 0] },
+            problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported`,
+          });
           continue;
         }
         const axis = ctAxisSsdMm(ct, frame, sadMm);
         const d = ctDepth(ct.volume, frame.sourcePatientMm, point.patientMm, body);
         rows.push({
           ...base,
-          point: { source: point.source, ...(point.doseReferenceVia ? { doseReferenceVia: point.doseReferenceVia } : {}),
-            ...(point.doseReferenceNumber !== undefined ? { doseReferenceNumber: point.doseReferenceNumber } : {}), patientMm: point.patientMm },
+          point: {
+            source: point.source,
+            ...(point.doseReferenceVia ? { doseReferenceVia: point.doseReferenceVia } : {}),
+            ...(point.doseReferenceNumber !== undefined ? { doseReferenceNumber: point.doseReferenceNumber } : {}),
+            patientMm: point.patientMm,
+          },
           ...(axis !== undefined ? { ctSsdAlongAxisMm: axis, ...(cp.ssdMm !== undefined ? { ssdDifferenceMm: axis - cp.ssdMm } : {}) } : {}),
           ...(d.ok
-            ? { entryPatientMm: [...d.value.entryPatientMm] as [number, number, number], geometricDepthMm: d.value.geometricDepthMm,
-                radiologicalDepthMm: d.value.radiologicalDepthMm, densityRange: [...d.value.densityRange] as [number, number],
-                ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}) }
+            ? {
+                entryPatientMm: [...d.value.entryPatientMm] as [number, number, number],
+                geometricDepthMm: d.value.geometricDepthMm,
+                radiologicalDepthMm: d.value.radiologicalDepthMm,
+                densityRange: [...d.value.densityRange] as [number, number],
+                ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}),
+              }
             : { problem: d.message }),
         });
       }

@@ -1,4 +1,13 @@
-import type { Beam, Calculation, CalculationPoint, DoseVerificationPoint, FractionGroup, Plan, PlanningSystemDepths, ReferencedBeam } from '../model/index.js';
+import type {
+  Beam,
+  Calculation,
+  CalculationPoint,
+  DoseVerificationPoint,
+  FractionGroup,
+  Plan,
+  PlanningSystemDepths,
+  ReferencedBeam,
+} from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 
 /** Points within this distance are the same point (coordinates are written to 0.1 mm or finer). */
@@ -11,13 +20,23 @@ const SAME_POINT_MM = 0.5;
  * None for a point of the user's elsewhere: the planning system's depths belong to its own point.
  * When the plan names no point (the isocenter is used), the first depths the beam carries.
  */
-export function planningSystemDepths(plan: Plan, group: FractionGroup, entry: ReferencedBeam, beam: Beam, point: CalculationPoint | undefined): PlanningSystemDepths | undefined {
+export function planningSystemDepths(
+  plan: Plan,
+  group: FractionGroup,
+  entry: ReferencedBeam,
+  beam: Beam,
+  point: CalculationPoint | undefined,
+): PlanningSystemDepths | undefined {
   if (point?.source === 'user' && !point.planningSystemDoseHere) return undefined;
   const stated = point?.source === 'user' ? choosePoint(plan, group, entry, beam) : point;
-  const references = stated?.doseReferenceNumber !== undefined ? [stated.doseReferenceNumber]
-    : stated?.source === 'beam-dose-specification-point'
-      ? plan.doseReferences.filter((d) => d.pointPatientMm?.every((v, i) => Math.abs(v - stated.patientMm[i]!) < SAME_POINT_MM)).map((d) => d.number)
-      : undefined;
+  const references =
+    stated?.doseReferenceNumber !== undefined
+      ? [stated.doseReferenceNumber]
+      : stated?.source === 'beam-dose-specification-point'
+        ? plan.doseReferences
+            .filter((d) => d.pointPatientMm?.every((v, i) => Math.abs(v - stated.patientMm[i]!) < SAME_POINT_MM))
+            .map((d) => d.number)
+        : undefined;
   const v = beam.doseVerification
     .filter((d) => !references || references.includes(d.doseReferenceNumber))
     .flatMap((d) => d.points)
@@ -38,11 +57,21 @@ function hasDepths(p: DoseVerificationPoint): boolean {
 }
 
 /** The planning system's own depth data beside ours, with the differences. */
-export function besideOurs(t: PlanningSystemDepths | undefined, depthMm: number, radiologicalMm: number | undefined, ssdMm: number): Calculation['planningSystemDepths'] {
+export function besideOurs(
+  t: PlanningSystemDepths | undefined,
+  depthMm: number,
+  radiologicalMm: number | undefined,
+  ssdMm: number,
+): Calculation['planningSystemDepths'] {
   if (!t) return undefined;
   return {
     ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),
-    ...(t.equivalentDepthMm !== undefined ? { equivalentDepthMm: t.equivalentDepthMm, ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - t.equivalentDepthMm } : {}) } : {}),
+    ...(t.equivalentDepthMm !== undefined
+      ? {
+          equivalentDepthMm: t.equivalentDepthMm,
+          ...(radiologicalMm !== undefined ? { equivalentDepthDifferenceMm: radiologicalMm - t.equivalentDepthMm } : {}),
+        }
+      : {}),
     ...(t.ssdMm !== undefined ? { ssdMm: t.ssdMm, ssdDifferenceMm: ssdMm - t.ssdMm } : {}),
   };
 }

@@ -16,7 +16,9 @@ export const Policy = z
     format: z.literal('plumbline.policy'),
     formatVersion: z.literal(1),
     description: z.string().optional(),
-    levels: z.record(CaseCategory, Level).refine((r) => CaseCategory.options.every((c) => c in r), { message: `give levels for every category: ${CaseCategory.options.join(', ')}` }),
+    levels: z
+      .record(CaseCategory, Level)
+      .refine((r) => CaseCategory.options.every((c) => c in r), { message: `give levels for every category: ${CaseCategory.options.join(', ')}` }),
     classification: z
       .object({
         /** A point farther than this from the central axis makes the case off-axis. */

@@ -19,9 +19,18 @@ export function groupTotals(plan: Plan, g: FractionGroup, beams: readonly BeamCh
     const point = at[0]!.point!.patientMm;
     const rx = prescriptionPerFractionCGy(plan, g, point);
     out.push({
-      pointPatientMm: point, beams: checked.map((b) => b.beamNumber), independentDoseCGy: ind, planningSystemDoseCGy: tps,
+      pointPatientMm: point,
+      beams: checked.map((b) => b.beamNumber),
+      independentDoseCGy: ind,
+      planningSystemDoseCGy: tps,
       ...deviation('deviationPercent', ind, tps),
-      ...(rx !== undefined ? { prescriptionPerFractionCGy: rx, ...deviation('independentVsPrescriptionPercent', ind, rx), ...deviation('planningSystemVsPrescriptionPercent', tps, rx) } : {}),
+      ...(rx !== undefined
+        ? {
+            prescriptionPerFractionCGy: rx,
+            ...deviation('independentVsPrescriptionPercent', ind, rx),
+            ...deviation('planningSystemVsPrescriptionPercent', tps, rx),
+          }
+        : {}),
       // Beams not checked have no point of ours: any of them makes the group's totals incomplete.
       complete: checked.length === at.length && beams.every((b) => b.status === 'checked'),
     });
@@ -39,8 +48,14 @@ export function courseTotals(groups: readonly FractionGroupCheck[]): Total[] {
       const prev = byPoint.get(k);
       const ind = (prev?.independentDoseCGy ?? 0) + n * t.independentDoseCGy;
       const tps = (prev?.planningSystemDoseCGy ?? 0) + n * t.planningSystemDoseCGy;
-      byPoint.set(k, { pointPatientMm: t.pointPatientMm, beams: [...(prev?.beams ?? []), ...t.beams], independentDoseCGy: ind, planningSystemDoseCGy: tps,
-        ...deviation('deviationPercent', ind, tps), complete: (prev?.complete ?? true) && t.complete });
+      byPoint.set(k, {
+        pointPatientMm: t.pointPatientMm,
+        beams: [...(prev?.beams ?? []), ...t.beams],
+        independentDoseCGy: ind,
+        planningSystemDoseCGy: tps,
+        ...deviation('deviationPercent', ind, tps),
+        complete: (prev?.complete ?? true) && t.complete,
+      });
     }
   }
   return [...byPoint.values()];
@@ -61,7 +76,9 @@ function prescriptionPerFractionCGy(plan: Plan, g: FractionGroup, point: readonl
     if (d?.pointPatientMm && gy !== undefined && pointKey(d.pointPatientMm) === pointKey(point)) return cGyFromGy(gy) / g.fractionsPlanned;
   }
   if (plan.fractionGroups.length === 1) {
-    const d = plan.doseReferences.find((x) => x.pointPatientMm && x.targetPrescriptionDoseGy !== undefined && pointKey(x.pointPatientMm) === pointKey(point));
+    const d = plan.doseReferences.find(
+      (x) => x.pointPatientMm && x.targetPrescriptionDoseGy !== undefined && pointKey(x.pointPatientMm) === pointKey(point),
+    );
     if (d) return cGyFromGy(d.targetPrescriptionDoseGy!) / g.fractionsPlanned;
   }
   return undefined;

@@ -15,11 +15,20 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
   const issues: Issue[] = [...validateTables(lm)];
   for (const [bi, beam] of lm.machine.beams.entries()) {
     const ref = referenceFieldFactors(beam, lm.machine.sadCm);
-    for (const [name, side, v] of [['Sc', ref.scCm, ref.sc], ['Sp', ref.spCm, ref.sp]] as const) {
+    for (const [name, side, v] of [
+      ['Sc', ref.scCm, ref.sc],
+      ['Sp', ref.spCm, ref.sp],
+    ] as const) {
       if (!(Math.abs(v - 1) <= REFERENCE_TOLERANCE)) {
-        issues.push({ severity: 'error', code: 'physical-range', file: lm.manifestFile, path: `beams[${bi}].calibration`,
+        issues.push({
+          severity: 'error',
+          code: 'physical-range',
+          file: lm.manifestFile,
+          path: `beams[${bi}].calibration`,
           message: `beam ${beam.id}: ${name} of the reference field (${side.toFixed(2)} cm, as defined ${beam.calibration.referenceFieldAt === 'surface' ? 'at the surface' : 'at the normalization point'}) is not 1`,
-          expected: `1.000 ± ${REFERENCE_TOLERANCE}`, found: Number.isFinite(v) ? v.toFixed(4) : 'outside the table' });
+          expected: `1.000 ± ${REFERENCE_TOLERANCE}`,
+          found: Number.isFinite(v) ? v.toFixed(4) : 'outside the table',
+        });
       }
     }
     const agreement = pddTprAgreement(beam);
@@ -27,9 +36,15 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
     const pddTable = lm.tables.find((t) => t.beamId === beam.id && t.quantity === 'pdd')!;
     const n = pddTable.lookup.columns!.values.length;
     for (const d of agreement.differences.filter((x) => Math.abs(x.differencePercent) > PDD_TPR_TOLERANCE_PERCENT)) {
-      issues.push({ severity: 'error', code: 'tables-disagree', file: pddTable.csv.file, ...pddTable.csv.valuePositions[d.row * n + d.column]!,
+      issues.push({
+        severity: 'error',
+        code: 'tables-disagree',
+        file: pddTable.csv.file,
+        ...pddTable.csv.valuePositions[d.row * n + d.column]!,
         message: `beam ${beam.id}: PDD at ${d.depthCm} cm for ${d.surfaceSideCm} cm converted to ${beam.tpr!.kind} differs from the ${beam.tpr!.kind} table by ${d.differencePercent.toFixed(2)} %`,
-        expected: `within ±${PDD_TPR_TOLERANCE_PERCENT} %`, found: `${d.differencePercent.toFixed(2)} %` });
+        expected: `within ±${PDD_TPR_TOLERANCE_PERCENT} %`,
+        found: `${d.differencePercent.toFixed(2)} %`,
+      });
     }
   }
   return issues;

@@ -20,15 +20,18 @@ const positive = (what: string) => numberOption(what, false);
 
 /** `X` or `XxY` in cm, both positive: a square's side or a rectangle's sides (y absent for one side). */
 const sidesOption = (message: string) =>
-  z.string().optional().transform((s, ctx) => {
-    if (s === undefined) return undefined;
-    const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
-    if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
-      ctx.addIssue({ code: 'custom', message: `${message}, found "${s}"` });
-      return z.NEVER;
-    }
-    return { x: Number(m[1]), ...(m[2] !== undefined ? { y: Number(m[2]) } : {}) } as { x: number; y?: number };
-  });
+  z
+    .string()
+    .optional()
+    .transform((s, ctx) => {
+      if (s === undefined) return undefined;
+      const m = /^\s*(\d+(?:\.\d+)?)\s*(?:[xX×]\s*(\d+(?:\.\d+)?))?\s*$/.exec(s);
+      if (!m || Number(m[1]) <= 0 || (m[2] !== undefined && Number(m[2]) <= 0)) {
+        ctx.addIssue({ code: 'custom', message: `${message}, found "${s}"` });
+        return z.NEVER;
+      }
+      return { x: Number(m[1]), ...(m[2] !== undefined ? { y: Number(m[2]) } : {}) } as { x: number; y?: number };
+    });
 
 /** The options of `plumbline calc`, validated before anything is computed. */
 export const CalcOptions = z
@@ -41,8 +44,13 @@ export const CalcOptions = z
     irradiated: positive('--irradiated (equivalent square, cm)').optional(),
     depth: numberOption('--depth (cm)', true).optional(),
     applicator: z.string().min(1).optional(),
-    cutout: sidesOption('--cutout must be XxY in cm (a rectangle) or one equivalent square side')
-      .transform((v) => v && (v.y === undefined ? { kind: 'equivalent-square' as const, sideCm: v.x, method: 'as given' } : { kind: 'rectangle' as const, xCm: v.x, yCm: v.y })),
+    cutout: sidesOption('--cutout must be XxY in cm (a rectangle) or one equivalent square side').transform(
+      (v) =>
+        v &&
+        (v.y === undefined
+          ? { kind: 'equivalent-square' as const, sideCm: v.x, method: 'as given' }
+          : { kind: 'rectangle' as const, xCm: v.x, yCm: v.y }),
+    ),
     isodose: positive('--isodose (%)').optional(),
     mu: positive('--mu').optional(),
     dose: positive('--dose (cGy)').optional(),
@@ -53,9 +61,15 @@ export const CalcOptions = z
     json: z.boolean().default(false),
   })
   .refine((o) => (o.mu === undefined) !== (o.dose === undefined), { message: 'give exactly one of --mu and --dose' })
-  .refine((o) => o.applicator !== undefined || (o.setup !== undefined && o.field !== undefined && o.depth !== undefined), { message: 'a photon calculation needs --setup, --field and --depth (an electron one: --applicator)' })
-  .refine((o) => o.applicator === undefined || (o.depth === undefined) !== (o.isodose === undefined), { message: 'an electron calculation needs exactly one of --depth and --isodose' })
-  .refine((o) => o.applicator !== undefined || (o.cutout === undefined && o.isodose === undefined), { message: '--cutout and --isodose are for electron beams (with --applicator)' });
+  .refine((o) => o.applicator !== undefined || (o.setup !== undefined && o.field !== undefined && o.depth !== undefined), {
+    message: 'a photon calculation needs --setup, --field and --depth (an electron one: --applicator)',
+  })
+  .refine((o) => o.applicator === undefined || (o.depth === undefined) !== (o.isodose === undefined), {
+    message: 'an electron calculation needs exactly one of --depth and --isodose',
+  })
+  .refine((o) => o.applicator !== undefined || (o.cutout === undefined && o.isodose === undefined), {
+    message: '--cutout and --isodose are for electron beams (with --applicator)',
+  });
 
 /** `plumbline calc`: a manual point calculation with every factor shown. */
 export function runCalc(raw: Record<string, unknown>): CommandOutcome {
@@ -69,7 +83,11 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
   if (o.applicator !== undefined) {
     const r = electronCalc(machine, { ...o, applicator: o.applicator });
     if (!r.ok) return refuse(r.issues);
-    return { stdout: o.json ? [JSON.stringify(electronCalcDocument(r.value, VERSION), null, 2)] : electronCalcText(r.value), stderr: warnings, exitCode: 0 };
+    return {
+      stdout: o.json ? [JSON.stringify(electronCalcDocument(r.value, VERSION), null, 2)] : electronCalcText(r.value),
+      stderr: warnings,
+      exitCode: 0,
+    };
   }
   const r = photonCalc(machine, { ...o, setup: o.setup!, field: o.field!, depth: o.depth! });
   if (!r.ok) return refuse(r.issues);

@@ -30,9 +30,17 @@ export const CheckOptionsSchema = z.object({
   structures: z.string().min(1).optional(),
   density: z.string().min(1).optional(),
   heterogeneity: z.enum(['tpr-ratio', 'batho'], { message: '--heterogeneity must be tpr-ratio or batho' }).default('tpr-ratio'),
-  bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
-  threads: z.string().regex(/^[1-9]\d*$/, '--threads must be a whole number of at least 1').transform(Number)
-    .refine((n) => n <= 64, '--threads must be at most 64').optional(),
+  bodyThreshold: z
+    .string()
+    .regex(/^-?\d+$/, '--body-threshold must be an integer HU')
+    .transform(Number)
+    .optional(),
+  threads: z
+    .string()
+    .regex(/^[1-9]\d*$/, '--threads must be a whole number of at least 1')
+    .transform(Number)
+    .refine((n) => n <= 64, '--threads must be at most 64')
+    .optional(),
 });
 
 /** `plumbline check`: read every plan, check it against the beam data, report; batch runs go on past bad files. */
@@ -43,11 +51,15 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
   const inputs = loadCheckInputs(o);
   if (!inputs.ok) return refuse(inputs.issues);
   const files = collectFiles(paths);
-  const bar = process.stderr.isTTY && files.length > 1 ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic) : undefined;
+  const bar =
+    process.stderr.isTTY && files.length > 1
+      ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic)
+      : undefined;
   bar?.start(files.length, 0);
   const { plans, refused } = await checkFiles(files, inputs.value, o, () => bar?.increment());
   bar?.stop();
-  if (plans.length === 0 && refused.length === 0) refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
+  if (plans.length === 0 && refused.length === 0)
+    refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
 
   const doc = checkDocument(plans, refused, beamDataStamp(inputs.value.machine), inputs.value.policy, new Date());
   const stderr = inputs.value.warnings.map(formatIssue);
@@ -56,7 +68,14 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
       writeFileAtomic(o.html, checkHtml(doc));
       stderr.push(`wrote ${o.html}`);
     } catch (e) {
-      return refuse([{ severity: 'error', code: 'unreadable', file: o.html, message: `cannot write the HTML report (${(e as NodeJS.ErrnoException).code ?? String(e)})` }]);
+      return refuse([
+        {
+          severity: 'error',
+          code: 'unreadable',
+          file: o.html,
+          message: `cannot write the HTML report (${(e as NodeJS.ErrnoException).code ?? String(e)})`,
+        },
+      ]);
     }
   }
   const inputError = refused.length > 0 || plans.some((p) => p.issues.length > 0);

@@ -8,7 +8,11 @@ import type { CommandOutcome } from './outcome.js';
 const Options = z.object({
   ct: z.array(z.string().min(1)).min(1),
   density: z.string().min(1).optional(),
-  bodyThreshold: z.string().regex(/^-?\d+$/, '--body-threshold must be an integer HU').transform(Number).optional(),
+  bodyThreshold: z
+    .string()
+    .regex(/^-?\d+$/, '--body-threshold must be an integer HU')
+    .transform(Number)
+    .optional(),
   json: z.boolean().default(false),
   structures: z.string().min(1).optional(),
 });
@@ -18,9 +22,18 @@ export function runDepth(planFile: string, raw: Record<string, unknown>): Comman
   const parsed = Options.safeParse(raw);
   if (!parsed.success) return refuse(parsed.error.issues.map((i) => ({ severity: 'error', code: 'invalid-option', message: i.message })));
   const o = parsed.data;
-  const r = planDepthsFromCt(planFile, { ct: o.ct, density: o.density, bodyThresholdHu: o.bodyThreshold ?? DEFAULT_POLICY.ct.bodyThresholdHu, structures: o.structures });
+  const r = planDepthsFromCt(planFile, {
+    ct: o.ct,
+    density: o.density,
+    bodyThresholdHu: o.bodyThreshold ?? DEFAULT_POLICY.ct.bodyThresholdHu,
+    structures: o.structures,
+  });
   if (!r.ok) return refuse(r.issues);
-  return { stdout: o.json ? [JSON.stringify(r.value, null, 2)] : depthText(r.value), stderr: [], exitCode: r.value.beams.some((b) => b.problem) ? 2 : 0 };
+  return {
+    stdout: o.json ? [JSON.stringify(r.value, null, 2)] : depthText(r.value),
+    stderr: [],
+    exitCode: r.value.beams.some((b) => b.problem) ? 2 : 0,
+  };
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

@@ -43,7 +43,10 @@ export async function main(argv: readonly string[]): Promise<number> {
     .requiredOption('--beam-data <manifest>', "the machine's beam-data manifest, or 'demo' for the invented demo machine")
     .option('--policy <file>', 'action-level policy (JSON); the shipped defaults otherwise')
     .option('--point <x,y,z>', 'calculation point in patient coordinates, mm (overrides the plan)')
-    .option('--machine-alias <PLAN=DATA>', 'map a plan machine name to a beam-data machine name (repeatable)', (v: string, all: string[] = []) => [...all, v])
+    .option('--machine-alias <PLAN=DATA>', 'map a plan machine name to a beam-data machine name (repeatable)', (v: string, all: string[] = []) => [
+      ...all,
+      v,
+    ])
     .option('--suggest-point', 'also calculate at the suggested point when a point is unfit')
     .option('--heterogeneity <method>', "with --ct: 'tpr-ratio' (default, effective path length) or 'batho' (Batho's power law)")
     .option('--json', 'print one versioned JSON document')
@@ -69,7 +72,10 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--irradiated <side>', 'equivalent square of the irradiated field (MLC, blocks) at the isocenter plane, cm')
     .option('--depth <cm>', 'depth of the point')
     .option('--applicator <ID>', 'electrons: the applicator as the beam data name it')
-    .option('--cutout <XxY|side>', 'electrons: the cutout at the nominal SSD, cm: a rectangle or one equivalent square side (default: the open applicator)')
+    .option(
+      '--cutout <XxY|side>',
+      'electrons: the cutout at the nominal SSD, cm: a rectangle or one equivalent square side (default: the open applicator)',
+    )
     .option('--isodose <percent>', 'electrons: prescribe to this isodose (the depth where the PDD falls to it) instead of --depth')
     .option('--mu <MU>', 'monitor units: compute the dose')
     .option('--dose <cGy>', 'dose at the point: compute the MU')
@@ -84,7 +90,7 @@ export async function main(argv: readonly string[]): Promise<number> {
 
   program
     .command('depth')
-    .description("per beam: the SSD from the plan and from the CT, geometric and radiological depth, entry point and densities met")
+    .description('per beam: the SSD from the plan and from the CT, geometric and radiological depth, entry point and densities met')
     .argument('<plan>', 'RT Plan file')
     .requiredOption('--ct <path...>', "the patient's CT series (a folder or files)")
     .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo'")

@@ -41,15 +41,21 @@ export async function runServe(configFile: string): Promise<CommandOutcome> {
 
 export const HistoryOptions = z.object({
   config: z.string().min(1),
-  since: z.string().regex(/^\d{4}-\d{2}-\d{2}(T[\d:.]+Z?)?$/, '--since must be a date (YYYY-MM-DD) or an ISO date-time').optional(),
+  since: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}(T[\d:.]+Z?)?$/, '--since must be a date (YYYY-MM-DD) or an ISO date-time')
+    .optional(),
   verdict: z.array(z.enum(Verdict.options, { message: "--verdict must be 'within tolerance', 'needs review' or 'beyond action level'" })).optional(),
   machine: z.string().min(1).optional(),
   json: z.boolean().default(false),
 });
 
 export const HistoryDocument = z.object({
-  schemaVersion: z.literal(1), kind: z.literal('plumbline.history'), tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
-  checks: z.array(CheckRecord.extend({ reviews: z.number() })), caution: z.string(),
+  schemaVersion: z.literal(1),
+  kind: z.literal('plumbline.history'),
+  tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
+  checks: z.array(CheckRecord.extend({ reviews: z.number() })),
+  caution: z.string(),
 });
 
 /** `plumbline history`: the recorded checks, newest first. */
@@ -61,11 +67,51 @@ export function runHistory(raw: Record<string, unknown>): CommandOutcome {
   if (!config.ok) return refuse(config.issues.map(formatIssue));
   const store = new HistoryStore(config.value.history.database);
   try {
-    const checks = store.listChecks({ ...(o.since ? { since: o.since } : {}), ...(o.verdict ? { verdicts: o.verdict } : {}), ...(o.machine ? { machine: o.machine } : {}) })
+    const checks = store
+      .listChecks({
+        ...(o.since ? { since: o.since } : {}),
+        ...(o.verdict ? { verdicts: o.verdict } : {}),
+        ...(o.machine ? { machine: o.machine } : {}),
+      })
       .map((c) => ({ ...c, reviews: store.reviews(c.id).length }));
-    if (o.json) return { stdout: [JSON.stringify(HistoryDocument.parse({ schemaVersion: 1, kind: 'plumbline.history', tool: { name: 'plumbline', version: VERSION }, checks, caution: CAUTION }), null, 2)], stderr: [], exitCode: 0 };
-    const rows = checks.map((c) => [String(c.id), c.recordedAt.replace('T', ' ').slice(0, 19), c.planLabel, c.patientId ?? '—', c.machine ?? '—', c.verdict, c.fullyVerified ? 'yes' : 'no', fixed(c.reviews, 0)]);
-    return { stdout: [`${checks.length} check(s) in ${config.value.history.database}`, ...textTable(['check', 'recorded (UTC)', 'plan', 'patient', 'machine', 'verdict', 'fully verified', 'reviews'], rows).map((l) => `  ${l}`), '', CAUTION], stderr: [], exitCode: 0 };
+    if (o.json)
+      return {
+        stdout: [
+          JSON.stringify(
+            HistoryDocument.parse({
+              schemaVersion: 1,
+              kind: 'plumbline.history',
+              tool: { name: 'plumbline', version: VERSION },
+              checks,
+              caution: CAUTION,
+            }),
+            null,
+            2,
+          ),
+        ],
+        stderr: [],
+        exitCode: 0,
+      };
+    const rows = checks.map((c) => [
+      String(c.id),
+      c.recordedAt.replace('T', ' ').slice(0, 19),
+      c.planLabel,
+      c.patientId ?? '—',
+      c.machine ?? '—',
+      c.verdict,
+      c.fullyVerified ? 'yes' : 'no',
+      fixed(c.reviews, 0),
+    ]);
+    return {
+      stdout: [
+        `${checks.length} check(s) in ${config.value.history.database}`,
+        ...textTable(['check', 'recorded (UTC)', 'plan', 'patient', 'machine', 'verdict', 'fully verified', 'reviews'], rows).map((l) => `  ${l}`),
+        '',
+        CAUTION,
+      ],
+      stderr: [],
+      exitCode: 0,
+    };
   } finally {
     store.close();
   }

@@ -53,7 +53,15 @@ export function readCtSeries(files: readonly string[]): Result<CtVolume> {
     for (const file of files) {
       const h = readHeader(file, issues, scratch);
       if (h && 'otherSopClassUid' in h) {
-        issues.push({ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: 'not a CT image', expected: `CT Image Storage (${CT_IMAGE_STORAGE})`, found: h.otherSopClassUid ?? 'none' });
+        issues.push({
+          severity: 'error',
+          code: 'invalid-value',
+          file,
+          path: 'SOPClassUID',
+          message: 'not a CT image',
+          expected: `CT Image Storage (${CT_IMAGE_STORAGE})`,
+          found: h.otherSopClassUid ?? 'none',
+        });
       } else if (h) headers.push(h);
     }
     if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
@@ -124,24 +132,57 @@ function readHeader(file: string, issues: Issue[], scratch: Buffer): SliceHeader
     return undefined;
   }
   if (el.length === 0xffffffff) {
-    issues.push({ severity: 'error', code: 'unsupported-transfer-syntax', file, path: 'PixelData', message: 'the pixel data are compressed; only uncompressed CT is read' });
+    issues.push({
+      severity: 'error',
+      code: 'unsupported-transfer-syntax',
+      file,
+      path: 'PixelData',
+      message: 'the pixel data are compressed; only uncompressed CT is read',
+    });
     return undefined;
   }
   if (bits !== 16 || r.integer('SamplesPerPixel') !== 1) {
-    issues.push({ severity: 'error', code: 'invalid-value', file, path: 'BitsAllocated', message: 'only 16-bit greyscale CT is read', expected: '16 bits, 1 sample', found: `${bits} bits` });
+    issues.push({
+      severity: 'error',
+      code: 'invalid-value',
+      file,
+      path: 'BitsAllocated',
+      message: 'only 16-bit greyscale CT is read',
+      expected: '16 bits, 1 sample',
+      found: `${bits} bits`,
+    });
     return undefined;
   }
   const deflatedFile = parsed.transferSyntaxUid === DEFLATED_EXPLICIT_VR_LE;
   if (el.length !== rows * columns * 2 || el.dataOffset + el.length > (deflatedFile ? ds.byteArray.length : size)) {
-    issues.push({ severity: 'error', code: 'inconsistent', file, path: 'PixelData', message: 'the pixel data do not match Rows × Columns or run past the end of the file', expected: `${rows * columns * 2} bytes`, found: `${el.length}` });
+    issues.push({
+      severity: 'error',
+      code: 'inconsistent',
+      file,
+      path: 'PixelData',
+      message: 'the pixel data do not match Rows × Columns or run past the end of the file',
+      expected: `${rows * columns * 2} bytes`,
+      found: `${el.length}`,
+    });
     return undefined;
   }
   // A deflated file's offsets are in the inflated bytes: keep its pixels (inflate the whole file once).
   const deflatedPixels = deflatedFile ? inflatedPixels(file, el.length) : undefined;
   return {
-    file, series: r.string('SeriesInstanceUID') ?? '', frame, position: ipp as [number, number, number], iop, spacing, rows, columns,
-    signed: r.integer('PixelRepresentation') === 1, bitsStored: Math.min(16, Math.max(1, r.integer('BitsStored') ?? 16)), slope: r.number('RescaleSlope') ?? 1, intercept: r.number('RescaleIntercept') ?? 0,
-    bigEndian: parsed.transferSyntaxUid === EXPLICIT_VR_BE, pixelOffset: el.dataOffset,
+    file,
+    series: r.string('SeriesInstanceUID') ?? '',
+    frame,
+    position: ipp as [number, number, number],
+    iop,
+    spacing,
+    rows,
+    columns,
+    signed: r.integer('PixelRepresentation') === 1,
+    bitsStored: Math.min(16, Math.max(1, r.integer('BitsStored') ?? 16)),
+    slope: r.number('RescaleSlope') ?? 1,
+    intercept: r.number('RescaleIntercept') ?? 0,
+    bigEndian: parsed.transferSyntaxUid === EXPLICIT_VR_BE,
+    pixelOffset: el.dataOffset,
     ...(deflatedPixels ? { pixels: deflatedPixels } : {}),
   };
 }
@@ -151,11 +192,24 @@ function assemble(headers: readonly SliceHeader[], helper: ReadHelper | undefine
   if (headers.length === 0) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: 'no CT slices were given' }] };
   const ref = headers[0]!;
   for (const h of headers.slice(1)) {
-    const mismatch = h.iop.some((v, i) => Math.abs(v - ref.iop[i]!) > COSINE_TOLERANCE) ? 'orientation'
-      : h.rows !== ref.rows || h.columns !== ref.columns ? 'size'
-      : h.spacing.some((v, i) => Math.abs(v - ref.spacing[i]!) > SPACING_TOLERANCE_MM) ? 'pixel spacing'
-      : h.frame !== ref.frame ? 'frame of reference' : h.series !== ref.series ? 'series' : undefined;
-    if (mismatch) issues.push({ severity: 'error', code: 'inconsistent', file: h.file, message: `the slice's ${mismatch} differs from the first slice's (${ref.file})` });
+    const mismatch = h.iop.some((v, i) => Math.abs(v - ref.iop[i]!) > COSINE_TOLERANCE)
+      ? 'orientation'
+      : h.rows !== ref.rows || h.columns !== ref.columns
+        ? 'size'
+        : h.spacing.some((v, i) => Math.abs(v - ref.spacing[i]!) > SPACING_TOLERANCE_MM)
+          ? 'pixel spacing'
+          : h.frame !== ref.frame
+            ? 'frame of reference'
+            : h.series !== ref.series
+              ? 'series'
+              : undefined;
+    if (mismatch)
+      issues.push({
+        severity: 'error',
+        code: 'inconsistent',
+        file: h.file,
+        message: `the slice's ${mismatch} differs from the first slice's (${ref.file})`,
+      });
   }
   if (issues.length) return { ok: false, issues };
   const rowDir = ref.iop.slice(0, 3) as [number, number, number];
@@ -170,14 +224,24 @@ function assemble(headers: readonly SliceHeader[], helper: ReadHelper | undefine
     if (step < SPACING_TOLERANCE_MM) {
       issues.push({ severity: 'error', code: 'duplicate', file: b.file, message: `two slices at the same position (${a.file} and ${b.file})` });
     } else if (Math.abs(step - gap) > Math.max(SPACING_TOLERANCE_MM, 0.01 * gap)) {
-      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are not evenly spaced: ${step.toFixed(3)} mm between ${a.file} and ${b.file}, ${gap.toFixed(3)} mm elsewhere (a missing slice?)` });
+      issues.push({
+        severity: 'error',
+        code: 'inconsistent',
+        file: b.file,
+        message: `the slices are not evenly spaced: ${step.toFixed(3)} mm between ${a.file} and ${b.file}, ${gap.toFixed(3)} mm elsewhere (a missing slice?)`,
+      });
     }
     // A tilted (gantry-tilt) series: successive positions not along the normal.
     const d = [b.position[0] - a.position[0], b.position[1] - a.position[1], b.position[2] - a.position[2]] as [number, number, number];
     const along = dot(d, normal);
     const off = Math.hypot(d[0] - along * normal[0], d[1] - along * normal[1], d[2] - along * normal[2]);
     if (off > SPACING_TOLERANCE_MM * 10) {
-      issues.push({ severity: 'error', code: 'inconsistent', file: b.file, message: `the slices are tilted: ${b.file} is offset ${off.toFixed(2)} mm across the slice normal from ${a.file}` });
+      issues.push({
+        severity: 'error',
+        code: 'inconsistent',
+        file: b.file,
+        message: `the slices are tilted: ${b.file} is offset ${off.toFixed(2)} mm across the slice normal from ${a.file}`,
+      });
     }
   }
   if (issues.length) return { ok: false, issues };
@@ -189,11 +253,16 @@ function assemble(headers: readonly SliceHeader[], helper: ReadHelper | undefine
   const volumeBytes = new Uint8Array(hu.buffer, hu.byteOffset, hu.byteLength);
   try {
     const directSlices = sorted.flatMap((h, k) => (direct(h) ? [k] : []));
-    readRanges(volumeBytes, directSlices.map((k) => ({ file: sorted[k]!.file, position: sorted[k]!.pixelOffset, at: 2 * k * n, length: 2 * n })), helper, (j) => {
-      const k = directSlices[j]!;
-      const h = sorted[k]!;
-      rescaleInPlace(hu.subarray(k * n, (k + 1) * n), h.signed, h.bitsStored, h.intercept);
-    });
+    readRanges(
+      volumeBytes,
+      directSlices.map((k) => ({ file: sorted[k]!.file, position: sorted[k]!.pixelOffset, at: 2 * k * n, length: 2 * n })),
+      helper,
+      (j) => {
+        const k = directSlices[j]!;
+        const h = sorted[k]!;
+        rescaleInPlace(hu.subarray(k * n, (k + 1) * n), h.signed, h.bitsStored, h.intercept);
+      },
+    );
     for (let k = 0; k < sorted.length; k++) {
       const h = sorted[k]!;
       const slice = hu.subarray(k * n, (k + 1) * n);
@@ -207,14 +276,34 @@ function assemble(headers: readonly SliceHeader[], helper: ReadHelper | undefine
     }
   } catch (e) {
     const err = e as NodeJS.ErrnoException & { file?: string };
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', ...(err.file ? { file: err.file } : {}), message: `cannot read the pixel data (${err.code ?? String(e)})` }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'unreadable',
+          ...(err.file ? { file: err.file } : {}),
+          message: `cannot read the pixel data (${err.code ?? String(e)})`,
+        },
+      ],
+    };
   }
   return {
     ok: true,
     value: {
-      frameOfReferenceUid: ref.frame, seriesInstanceUid: ref.series, columns: ref.columns, rows: ref.rows, slices: sorted.length,
-      originMm: sorted[0]!.position, rowDirection: rowDir, columnDirection: colDir, normal,
-      columnSpacingMm: ref.spacing[1]!, rowSpacingMm: ref.spacing[0]!, sliceSpacingMm: gap, hu,
+      frameOfReferenceUid: ref.frame,
+      seriesInstanceUid: ref.series,
+      columns: ref.columns,
+      rows: ref.rows,
+      slices: sorted.length,
+      originMm: sorted[0]!.position,
+      rowDirection: rowDir,
+      columnDirection: colDir,
+      normal,
+      columnSpacingMm: ref.spacing[1]!,
+      rowSpacingMm: ref.spacing[0]!,
+      sliceSpacingMm: gap,
+      hu,
     },
     warnings: [],
   };

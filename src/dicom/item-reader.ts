@@ -105,8 +105,14 @@ export class ItemReader {
       const parsed = parseNumberBytes(b, el.dataOffset, Math.min(el.dataOffset + el.length, b.length), vr === 'IS');
       if (parsed.ok) return parsed.values;
       const where = parsed.count > 1 ? `value ${parsed.index + 1} of ${parsed.count}` : 'value';
-      this.report('error', 'invalid-number', kw, `${where} cannot be read as a number`,
-        vr === 'DS' ? 'a decimal string (DS)' : 'an integer string (IS)', JSON.stringify(parsed.text));
+      this.report(
+        'error',
+        'invalid-number',
+        kw,
+        `${where} cannot be read as a number`,
+        vr === 'DS' ? 'a decimal string (DS)' : 'an integer string (IS)',
+        JSON.stringify(parsed.text),
+      );
       return undefined;
     }
     const size = BINARY_SIZE[vr];
@@ -153,14 +159,7 @@ export class ItemReader {
   }
 
   /** Records an issue about attribute `kw` of this item (or about the item itself when kw is undefined). */
-  report(
-    severity: IssueSeverity,
-    code: IssueCode,
-    kw: Keyword | undefined,
-    message: string,
-    expected?: string,
-    found?: string,
-  ): void {
+  report(severity: IssueSeverity, code: IssueCode, kw: Keyword | undefined, message: string, expected?: string, found?: string): void {
     const { file, path, beamNumber, beamName, controlPointIndex } = this.scope;
     const fullPath = kw ? `${path ? `${path}.` : ''}${kw}` : path;
     const tag = kw ? ATTRIBUTES[kw].tag : undefined;
@@ -199,13 +198,7 @@ export class ItemReader {
  * Reports a missing attribute unless it was present but unreadable (already reported).
  * Returns the value so calls read as `need(r, 'BeamMeterset', r.number('BeamMeterset'), '…')`.
  */
-export function need<T>(
-  r: ItemReader,
-  kw: Keyword,
-  value: T | undefined,
-  expected: string,
-  severity: IssueSeverity = 'error',
-): T | undefined {
+export function need<T>(r: ItemReader, kw: Keyword, value: T | undefined, expected: string, severity: IssueSeverity = 'error'): T | undefined {
   if (value === undefined && !r.has(kw)) {
     r.report(severity, 'missing-attribute', kw, 'is missing', expected);
   } else if (value === undefined && r.isEmpty(kw)) {
@@ -215,12 +208,7 @@ export function need<T>(
 }
 
 /** A coded string checked against its allowed values; anything else is reported and dropped. */
-export function oneOf<T extends string>(
-  r: ItemReader,
-  kw: Keyword,
-  allowed: readonly T[],
-  severity: IssueSeverity = 'error',
-): T | undefined {
+export function oneOf<T extends string>(r: ItemReader, kw: Keyword, allowed: readonly T[], severity: IssueSeverity = 'error'): T | undefined {
   const v = r.string(kw);
   if (v === undefined) return undefined;
   if ((allowed as readonly string[]).includes(v)) return v as T;

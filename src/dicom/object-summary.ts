@@ -10,7 +10,10 @@ export type ObjectKind = 'plan' | 'ct' | 'structures' | 'dose';
 
 /** The storage SOP classes the check uses, by kind. */
 export const STORAGE_CLASSES: Readonly<Record<ObjectKind, string>> = {
-  plan: RT_PLAN_STORAGE, ct: CT_IMAGE_STORAGE, structures: RT_STRUCTURE_SET_STORAGE, dose: RT_DOSE_STORAGE,
+  plan: RT_PLAN_STORAGE,
+  ct: CT_IMAGE_STORAGE,
+  structures: RT_STRUCTURE_SET_STORAGE,
+  dose: RT_DOSE_STORAGE,
 };
 
 /** What intake needs to know of an object before checking anything: what it is and where it belongs. */
@@ -34,7 +37,19 @@ export function readObjectSummary(file: string): { ok: true; value: ObjectSummar
   const sopInstanceUid = r.string('SOPInstanceUID');
   const kind = (Object.keys(STORAGE_CLASSES) as ObjectKind[]).find((k) => STORAGE_CLASSES[k] === sopClassUid);
   if (!kind || !sopClassUid || !sopInstanceUid) {
-    return { ok: false, issues: [{ severity: 'error', code: 'not-rt-plan', file, path: 'SOPClassUID', message: 'not an object the check uses (RT Plan, CT Image, RT Structure Set, RT Dose)', found: sopClassUid ?? 'none' }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'not-rt-plan',
+          file,
+          path: 'SOPClassUID',
+          message: 'not an object the check uses (RT Plan, CT Image, RT Structure Set, RT Dose)',
+          found: sopClassUid ?? 'none',
+        },
+      ],
+    };
   }
   let frame = r.string('FrameOfReferenceUID');
   if (kind === 'structures' && !frame) {
@@ -43,5 +58,15 @@ export function readObjectSummary(file: string): { ok: true; value: ObjectSummar
   }
   const study = r.string('StudyInstanceUID');
   const patient = r.string('PatientID');
-  return { ok: true, value: { kind, sopClassUid, sopInstanceUid, ...(study ? { studyInstanceUid: study } : {}), ...(frame ? { frameOfReferenceUid: frame } : {}), ...(patient ? { patientId: patient } : {}) } };
+  return {
+    ok: true,
+    value: {
+      kind,
+      sopClassUid,
+      sopInstanceUid,
+      ...(study ? { studyInstanceUid: study } : {}),
+      ...(frame ? { frameOfReferenceUid: frame } : {}),
+      ...(patient ? { patientId: patient } : {}),
+    },
+  };
 }

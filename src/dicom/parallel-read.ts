@@ -78,7 +78,12 @@ export function startReadHelper(): ReadHelper | undefined {
  * `readSync` for a range that cannot be read, with the range's `file` on the error (`code`
  * 'truncated' for a file that ends early).
  */
-export function readRanges(target: Uint8Array, ranges: readonly ReadRange[], helper: ReadHelper | undefined, then: (k: number) => void = () => undefined): number {
+export function readRanges(
+  target: Uint8Array,
+  ranges: readonly ReadRange[],
+  helper: ReadHelper | undefined,
+  then: (k: number) => void = () => undefined,
+): number {
   if (!helper || !(target.buffer instanceof SharedArrayBuffer)) {
     ranges.forEach((r, k) => {
       readRange(target, r);
@@ -87,7 +92,11 @@ export function readRanges(target: Uint8Array, ranges: readonly ReadRange[], hel
     return 0;
   }
   const state = new Int32Array(new SharedArrayBuffer(4 * (1 + ranges.length)));
-  helper.worker.postMessage({ target: target.buffer, state: state.buffer, ranges: ranges.map((r) => [r.file, r.position, target.byteOffset + r.at, r.length]) });
+  helper.worker.postMessage({
+    target: target.buffer,
+    state: state.buffer,
+    ranges: ranges.map((r) => [r.file, r.position, target.byteOffset + r.at, r.length]),
+  });
   const mine: number[] = [];
   for (;;) {
     const k = Atomics.add(state, 0, 1);
@@ -104,8 +113,13 @@ export function readRanges(target: Uint8Array, ranges: readonly ReadRange[], hel
     let v: number;
     while ((v = Atomics.load(state, 1 + k)) < DONE && performance.now() < deadline) Atomics.wait(state, 1 + k, v, deadline - performance.now());
     if (v === DONE) byHelper++;
-    else if (v === FAILED) readRange(target, ranges[k]!); // to throw its error here (or read it after all)
-    else throw Object.assign(new Error(`the helper thread did not finish reading within ${HELPER_WAIT_MS / 1000} s`), { code: 'ETIMEDOUT', file: ranges[k]!.file });
+    else if (v === FAILED)
+      readRange(target, ranges[k]!); // to throw its error here (or read it after all)
+    else
+      throw Object.assign(new Error(`the helper thread did not finish reading within ${HELPER_WAIT_MS / 1000} s`), {
+        code: 'ETIMEDOUT',
+        file: ranges[k]!.file,
+      });
     then(k);
   }
   return byHelper;
@@ -119,7 +133,7 @@ function readRange(target: Uint8Array, r: ReadRange): void {
   try {
     const fd = openSync(r.file, 'r');
     try {
-      for (let done = 0; done < r.length;) {
+      for (let done = 0; done < r.length; ) {
         const got = readSync(fd, target, r.at + done, r.length - done, r.position + done);
         if (got === 0) throw Object.assign(new Error('the file ended early'), { code: 'truncated' });
         done += got;

@@ -2,11 +2,7 @@ import zlib from 'node:zlib';
 import dicomParser, { type DataSet } from 'dicom-parser';
 import type { Issue } from '../model/issue.js';
 import { ATTRIBUTES } from './dictionary.js';
-import {
-  EXPLICIT_VR_LE,
-  IMPLICIT_VR_LE,
-  SUPPORTED_TRANSFER_SYNTAXES,
-} from './transfer-syntax.js';
+import { EXPLICIT_VR_LE, IMPLICIT_VR_LE, SUPPORTED_TRANSFER_SYNTAXES } from './transfer-syntax.js';
 
 export interface ParsedDataset {
   readonly dataSet: DataSet;
@@ -21,16 +17,12 @@ export interface ParseOptions {
   readonly untilTag?: string;
 }
 
-export type ParseOutcome =
-  | { readonly ok: true; readonly value: ParsedDataset }
-  | { readonly ok: false; readonly issues: readonly Issue[] };
+export type ParseOutcome = { readonly ok: true; readonly value: ParsedDataset } | { readonly ok: false; readonly issues: readonly Issue[] };
 
 const DEFAULT_MAX_INFLATED_BYTES = 256 * 1024 * 1024;
 
 /** Tells dicom-parser each known attribute's VR in implicit VR, so sequences are never guessed. */
-const VR_BY_TAG: ReadonlyMap<string, string> = new Map(
-  Object.values(ATTRIBUTES).map((a) => [a.tag, a.vr] as const),
-);
+const VR_BY_TAG: ReadonlyMap<string, string> = new Map(Object.values(ATTRIBUTES).map((a) => [a.tag, a.vr] as const));
 const vrCallback = (tag: string): string | undefined => VR_BY_TAG.get(tag);
 
 const PREAMBLE_AND_PREFIX = 132;
@@ -40,11 +32,7 @@ const PREAMBLE_AND_PREFIX = 132;
  * preamble, or a bare dataset (implicit or explicit VR little endian, told apart by its first
  * element the way most readers do). Never throws: a failure is an issue naming what went wrong.
  */
-export function parseDicomBytes(
-  bytes: Uint8Array,
-  file: string,
-  options: ParseOptions = {},
-): ParseOutcome {
+export function parseDicomBytes(bytes: Uint8Array, file: string, options: ParseOptions = {}): ParseOutcome {
   const fail = (code: Issue['code'], message: string, extra: Partial<Issue> = {}): ParseOutcome => ({
     ok: false,
     issues: [{ severity: 'error', code, file, message, ...extra }],
@@ -72,8 +60,7 @@ export function parseDicomBytes(
       found: `${bytes.length} bytes starting ${hexStart(bytes)}`,
     });
   }
-  const input =
-    layout === 'meta-without-preamble' ? withPreamble(bytes) : bytes;
+  const input = layout === 'meta-without-preamble' ? withPreamble(bytes) : bytes;
   const hasPart10Header = layout === 'part10';
   const bareSyntax = layout === 'bare-explicit' ? EXPLICIT_VR_LE : IMPLICIT_VR_LE;
 
@@ -81,7 +68,12 @@ export function parseDicomBytes(
   try {
     dataSet =
       layout === 'bare-implicit' || layout === 'bare-explicit'
-        ? dicomParser.parseDicom(input, { TransferSyntaxUID: bareSyntax, vrCallback, inflater, ...(options.untilTag ? { untilTag: options.untilTag } : {}) } as never)
+        ? dicomParser.parseDicom(input, {
+            TransferSyntaxUID: bareSyntax,
+            vrCallback,
+            inflater,
+            ...(options.untilTag ? { untilTag: options.untilTag } : {}),
+          } as never)
         : dicomParser.parseDicom(input, { vrCallback, inflater, ...(options.untilTag ? { untilTag: options.untilTag } : {}) } as never);
   } catch (e) {
     if (inflateRefused) {
@@ -130,8 +122,7 @@ function withPreamble(b: Uint8Array): Uint8Array {
 /** dicom-parser throws strings or `{ exception, dataSet }`; turn either into an actionable issue. */
 function describeParseFailure(e: unknown, bytes: Uint8Array, file: string): ParseOutcome {
   const raw = e as { exception?: unknown; dataSet?: DataSet } | string | Error;
-  const text =
-    typeof raw === 'string' ? raw : raw instanceof Error ? raw.message : String(raw.exception ?? raw);
+  const text = typeof raw === 'string' ? raw : raw instanceof Error ? raw.message : String(raw.exception ?? raw);
   const partial = typeof raw === 'object' && !(raw instanceof Error) ? raw.dataSet : undefined;
   const detail = text.replace(/^dicomParser\.[A-Za-z]+: /, '');
   const overrun = partial ? findOverrun(partial, bytes.length) : undefined;
@@ -174,9 +165,7 @@ interface Overrun {
   readonly length: number;
 }
 
-const KEYWORD_BY_TAG: ReadonlyMap<string, string> = new Map(
-  Object.entries(ATTRIBUTES).map(([kw, a]) => [a.tag, kw] as const),
-);
+const KEYWORD_BY_TAG: ReadonlyMap<string, string> = new Map(Object.entries(ATTRIBUTES).map(([kw, a]) => [a.tag, kw] as const));
 
 /** The first element (searched depth-first) whose declared length runs past the end of the bytes. */
 function findOverrun(ds: DataSet, size: number): Overrun | undefined {

@@ -19,7 +19,12 @@ export function headScratch(): Buffer {
  * only until the next call with the same scratch. Why: a fresh 64 KiB buffer per slice of a
  * 200-slice CT cost more in allocation and garbage collection than parsing the headers.
  */
-export function parseHead(file: string, scratch?: Buffer): { ok: true; value: { parsed: Extract<ReturnType<typeof parseDicomBytes>, { ok: true }>['value']; size: number } } | { ok: false; issues: Issue[] } {
+export function parseHead(
+  file: string,
+  scratch?: Buffer,
+):
+  | { ok: true; value: { parsed: Extract<ReturnType<typeof parseDicomBytes>, { ok: true }>['value']; size: number } }
+  | { ok: false; issues: Issue[] } {
   let size: number;
   let parsed: ReturnType<typeof parseDicomBytes> | undefined;
   try {
@@ -37,9 +42,13 @@ export function parseHead(file: string, scratch?: Buffer): { ok: true; value: { 
       closeSync(fd);
     }
   } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }],
+    };
   }
-  if (!parsed || ((!parsed.ok || !parsed.value.dataSet.elements[PIXEL_DATA]) && size > HEADER_BYTES)) parsed = parseDicomBytes(readFileSync(file), file, { untilTag: PIXEL_DATA });
+  if (!parsed || ((!parsed.ok || !parsed.value.dataSet.elements[PIXEL_DATA]) && size > HEADER_BYTES))
+    parsed = parseDicomBytes(readFileSync(file), file, { untilTag: PIXEL_DATA });
   if (!parsed.ok) return { ok: false, issues: [...parsed.issues] };
   return { ok: true, value: { parsed: parsed.value, size } };
 }

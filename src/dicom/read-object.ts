@@ -18,7 +18,10 @@ export function readDicomObject(file: string, sopClassUid: string, what: string)
   try {
     bytes = readFileSync(file);
   } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'unreadable', file, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }],
+    };
   }
   const parsed = parseDicomBytes(bytes, file);
   if (!parsed.ok) return { ok: false, issues: [...parsed.issues] };
@@ -26,7 +29,20 @@ export function readDicomObject(file: string, sopClassUid: string, what: string)
   const reader = new ItemReader(parsed.value.dataSet, { file, path: '' }, issues, 'latin1');
   const found = reader.string('SOPClassUID');
   if (found !== sopClassUid) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-value', file, path: 'SOPClassUID', message: `not an ${what}`, expected: sopClassUid, found: found ?? 'none' }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'invalid-value',
+          file,
+          path: 'SOPClassUID',
+          message: `not an ${what}`,
+          expected: sopClassUid,
+          found: found ?? 'none',
+        },
+      ],
+    };
   }
   return { ok: true, value: { reader, dataSet: parsed.value.dataSet, transferSyntaxUid: parsed.value.transferSyntaxUid, issues } };
 }

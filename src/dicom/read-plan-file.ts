@@ -25,7 +25,10 @@ export function importPlanBytes(bytes: Uint8Array, file: string, options: ParseO
     plan = readRtPlan(dataSet, file);
   } catch (e) {
     // dicom-parser reads values lazily; a corrupt element can still throw here.
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: `the dataset cannot be read (${String((e as Error)?.message ?? e)})` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'unreadable', file, message: `the dataset cannot be read (${String((e as Error)?.message ?? e)})` }],
+    };
   }
   if (!plan.ok) return plan;
   return { ok: true, value: { plan: plan.value, source: { file, transferSyntaxUid, hasPart10Header } }, warnings: plan.warnings };
@@ -38,12 +41,29 @@ export function importPlanFile(file: string, options: ReadPlanOptions = {}): Res
     const size = statSync(file).size;
     const max = options.maxFileBytes ?? DEFAULT_MAX_FILE_BYTES;
     if (size > max) {
-      return { ok: false, issues: [{ severity: 'error', code: 'too-large', file, message: 'the file is larger than the limit', expected: `at most ${max} bytes`, found: `${size}` }] };
+      return {
+        ok: false,
+        issues: [
+          {
+            severity: 'error',
+            code: 'too-large',
+            file,
+            message: 'the file is larger than the limit',
+            expected: `at most ${max} bytes`,
+            found: `${size}`,
+          },
+        ],
+      };
     }
     bytes = readFileSync(file);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    return { ok: false, issues: [{ severity: 'error', code: 'unreadable', file, message: code === 'ENOENT' ? 'no such file' : `cannot read the file (${code ?? String(e)})` }] };
+    return {
+      ok: false,
+      issues: [
+        { severity: 'error', code: 'unreadable', file, message: code === 'ENOENT' ? 'no such file' : `cannot read the file (${code ?? String(e)})` },
+      ],
+    };
   }
   return importPlanBytes(bytes, file, options);
 }

@@ -146,7 +146,11 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
     vMin = Math.min(vMin, b.y0);
     vMax = Math.max(vMax, b.y1);
   });
-  const extent = !open.length ? { x1: 0, x2: 0, y1: 0, y2: 0 } : swapped ? { x1: vMin, x2: vMax, y1: uMin, y2: uMax } : { x1: uMin, x2: uMax, y1: vMin, y2: vMax };
+  const extent = !open.length
+    ? { x1: 0, x2: 0, y1: 0, y2: 0 }
+    : swapped
+      ? { x1: vMin, x2: vMax, y1: uMin, y2: uMax }
+      : { x1: uMin, x2: uMax, y1: vMin, y2: vMax };
   const box = { x1: xj ? jaws.x1 : extent.x1, x2: xj ? jaws.x2 : extent.x2, y1: yj ? jaws.y1 : extent.y1, y2: yj ? jaws.y2 : extent.y2 };
   return {
     jawsMm: jaws,
@@ -213,7 +217,11 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
         const iv = 1 / dv;
         const step = dv > 0 ? 1 : dv < 0 ? -1 : 0;
         let reached = enter; // how far the rings go
-        for (let k = step > 0 ? firstBandFrom(openFlat, pv, false) : step < 0 ? firstBandFrom(openFlat, pv, true) : 0; k >= 0 && k < m; k += step || 1) {
+        for (
+          let k = step > 0 ? firstBandFrom(openFlat, pv, false) : step < 0 ? firstBandFrom(openFlat, pv, true) : 0;
+          k >= 0 && k < m;
+          k += step || 1
+        ) {
           const o = 4 * k;
           let a: number;
           let b: number;
@@ -274,7 +282,14 @@ function edgeHits(edges: Float64Array, p: number, q: number, dp: number, dq: num
  * Where the ray (x, y) + s·(dx, dy), s ≥ 0, lies inside a rectangle: out[0] = enter, out[1] = exit
  * (slabs; enter ≥ exit when it misses). Written into `out`: it runs for every sector of every segment.
  */
-export function spanInside(box: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number }, x: number, y: number, dx: number, dy: number, out: Float64Array): Float64Array {
+export function spanInside(
+  box: { readonly x1: number; readonly x2: number; readonly y1: number; readonly y2: number },
+  x: number,
+  y: number,
+  dx: number,
+  dy: number,
+  out: Float64Array,
+): Float64Array {
   let enter = 0;
   let exit = Infinity;
   // Along each axis: all s when the ray runs parallel inside the slab, none when outside it.

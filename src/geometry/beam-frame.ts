@@ -10,10 +10,26 @@ import { type Mat3, type Vec3, add, apply, multiply, rotationY, rotationZ, sub, 
  * Y towards the gantry, Z up) to LPS for each patient position.
  */
 const POSITION_TO_LPS: Partial<Record<PatientPosition, Mat3>> = {
-  HFS: [[1, 0, 0], [0, 0, -1], [0, 1, 0]],
-  HFP: [[-1, 0, 0], [0, 0, 1], [0, 1, 0]],
-  FFS: [[-1, 0, 0], [0, 0, -1], [0, -1, 0]],
-  FFP: [[1, 0, 0], [0, 0, 1], [0, -1, 0]],
+  HFS: [
+    [1, 0, 0],
+    [0, 0, -1],
+    [0, 1, 0],
+  ],
+  HFP: [
+    [-1, 0, 0],
+    [0, 0, 1],
+    [0, 1, 0],
+  ],
+  FFS: [
+    [-1, 0, 0],
+    [0, 0, -1],
+    [0, -1, 0],
+  ],
+  FFP: [
+    [1, 0, 0],
+    [0, 0, 1],
+    [0, -1, 0],
+  ],
 };
 
 export const SUPPORTED_POSITIONS = Object.keys(POSITION_TO_LPS) as PatientPosition[];

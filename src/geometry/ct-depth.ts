@@ -49,7 +49,8 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   const step = o.interfaceStep ?? 0.2;
   const layers: { distanceToPointMm: number; density: number }[] = [];
   const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
-  if (o.body && surface === undefined) return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
+  if (o.body && surface === undefined)
+    return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
   let firstVoxelMm = -1;
   let lastVoxelEndMm = -1;
   traceRay(volume, sourceMm, pointMm, (voxel, voxelStart, voxelLength) => {
@@ -81,13 +82,26 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
     radiological += rho * length;
   });
   if (refused !== undefined) return { ok: false, message: `HU ${refused} on the ray lies outside the HU to electron density table` };
-  if (entry < 0) return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
-  if (lastVoxelEndMm < total - 1e-6) return { ok: false, message: `the point lies outside the CT: the ray leaves the CT ${(total - lastVoxelEndMm).toFixed(1)} mm before it, with no densities there` };
+  if (entry < 0)
+    return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
+  if (lastVoxelEndMm < total - 1e-6)
+    return {
+      ok: false,
+      message: `the point lies outside the CT: the ray leaves the CT ${(total - lastVoxelEndMm).toFixed(1)} mm before it, with no densities there`,
+    };
   // By the threshold, a body already there in the first voxel the ray meets runs out of the CT's
   // field of view: where it begins (the SSD) is unknown.
-  if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0) return { ok: false, message: `the first CT voxel the ray meets is already at or above the body threshold (${o.bodyThresholdHu} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface` };
+  if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0)
+    return {
+      ok: false,
+      message: `the first CT voxel the ray meets is already at or above the body threshold (${o.bodyThresholdHu} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface`,
+    };
   // The drawn body must lie in the CT where the ray enters it: outside, there are no densities to add.
-  if (surface !== undefined && entry > surface + 1e-6) return { ok: false, message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there` };
+  if (surface !== undefined && entry > surface + 1e-6)
+    return {
+      ok: false,
+      message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there`,
+    };
   const dir = scale(sub(pointMm, sourceMm), 1 / total);
   return {
     ok: true,
@@ -105,7 +119,14 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
 }
 
 /** Source to the body surface along the central axis (for the SSD cross-check with the plan). */
-export function ctSsdAlongAxisMm(volume: CtVolume, sourceMm: Vec3, directionPatient: Vec3, maxMm: number, bodyThresholdHu: number, body?: BodySurface): number | undefined {
+export function ctSsdAlongAxisMm(
+  volume: CtVolume,
+  sourceMm: Vec3,
+  directionPatient: Vec3,
+  maxMm: number,
+  bodyThresholdHu: number,
+  body?: BodySurface,
+): number | undefined {
   const farMm = add(sourceMm, scale(directionPatient, maxMm));
   if (body) return body.entryMm(sourceMm, farMm);
   let entry: number | undefined;

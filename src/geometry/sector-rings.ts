@@ -17,13 +17,27 @@ export interface BlockOutline {
  * leaves or a block) starts a new ring, and each ring is weighed by what covers its middle, which
  * handles any outline the three make together, re-entrant or not.
  */
-export function sectorRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): PackedRings {
+export function sectorRings(
+  aperture: Aperture,
+  blocks: readonly BlockOutline[],
+  x: number,
+  y: number,
+  n: number,
+  leafTransmission: number,
+): PackedRings {
   if (blocks.length === 0) return aperture.sectorRingsMm(x, y, n, leafTransmission);
   return crossingRings(aperture, blocks, x, y, n, leafTransmission);
 }
 
 /** The general form (any blocks), by the crossings of each sector with every edge; exported for the tests. */
-export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[], x: number, y: number, n: number, leafTransmission: number): PackedRings {
+export function crossingRings(
+  aperture: Aperture,
+  blocks: readonly BlockOutline[],
+  x: number,
+  y: number,
+  n: number,
+  leafTransmission: number,
+): PackedRings {
   // Along an axis without jaws the leaves' open extent bounds the field (no transmission beyond it).
   const j = aperture.collimatingMm;
   const inJaws = (px: number, py: number) => px >= j.x1 && px <= j.x2 && py >= j.y1 && py <= j.y2;
@@ -48,7 +62,9 @@ export function crossingRings(aperture: Aperture, blocks: readonly BlockOutline[
     spanInside(j, x, y, dx, dy, span);
     const enter = span[0]!;
     const jawExit = span[1]!;
-    const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort((a, b) => a - b);
+    const all = [...apertureCuts, ...blocks.flatMap((b) => polygonRayCrossings(b.outlineMm, x, y, dx, dy)), ...(enter > 0 ? [enter] : [])].sort(
+      (a, b) => a - b,
+    );
     const cuts = all.filter((c) => c > 1e-9 && c < jawExit);
     let from = 0;
     for (const to of [...cuts, jawExit]) {

@@ -30,12 +30,20 @@ const rad = (deg: number) => (deg * Math.PI) / 180;
 export function rotationY(deg: number): Mat3 {
   const c = Math.cos(rad(deg));
   const s = Math.sin(rad(deg));
-  return [[c, 0, s], [0, 1, 0], [-s, 0, c]];
+  return [
+    [c, 0, s],
+    [0, 1, 0],
+    [-s, 0, c],
+  ];
 }
 
 /** Right-handed rotation by `deg` about the z axis (active). */
 export function rotationZ(deg: number): Mat3 {
   const c = Math.cos(rad(deg));
   const s = Math.sin(rad(deg));
-  return [[c, -s, 0], [s, c, 0], [0, 0, 1]];
+  return [
+    [c, -s, 0],
+    [s, c, 0],
+    [0, 0, 1],
+  ];
 }

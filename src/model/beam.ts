@@ -61,9 +61,7 @@ export const Block = z
   .readonly();
 export type Block = z.infer<typeof Block>;
 
-export const Applicator = z
-  .object({ id: z.string(), type: z.string(), description: z.string().optional() })
-  .readonly();
+export const Applicator = z.object({ id: z.string(), type: z.string(), description: z.string().optional() }).readonly();
 export type Applicator = z.infer<typeof Applicator>;
 
 /** The planning system's own depth data for a dose reference (Beam Dose Verification Control Point). */

@@ -40,7 +40,9 @@ export const PointFitness = z.object({
   /** Distance from the point to the nearest field edge at its depth, cm (negative: outside the field). */
   edgeDistanceCm: z.number(),
   flags: z.array(Note),
-  suggestion: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), depthCm: z.number(), offAxisCm: z.number(), edgeDistanceCm: z.number() }).optional(),
+  suggestion: z
+    .object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), depthCm: z.number(), offAxisCm: z.number(), edgeDistanceCm: z.number() })
+    .optional(),
 });
 
 /** What the plan says of a beam, checked or not. */
@@ -56,76 +58,89 @@ const BeamIdentity = {
 };
 
 export const Calculation = z.object({
-      machineBeam: z.string(),
-      setup: z.enum(['SSD', 'SAD']),
-      /** Why this setup: the SSD against the SAD, or the kind of beam. */
-      setupBasis: Note,
-      ssdCm: z.number(),
-      depthCm: z.number(),
-      offAxisCm: z.number(),
-      collimatorFieldCm: z.object({ x: z.number(), y: z.number() }),
-      collimatorSquareCm: z.number(),
-      irradiatedSquareCm: z.number(),
-      wedgeId: z.string().optional(),
-      approximations: z.array(Note),
-      factors: z.array(FactorJson),
-      dosePerMuCGy: z.number(),
-      independentDoseCGy: z.number(),
-      independentMu: z.number().optional(),
-      doseDeviationPercent: z.number().optional(),
-      muDeviationPercent: z.number().optional(),
-      clamps: z.array(Clamp),
-      /** With the patient's CT: the traced geometry and the heterogeneity correction. */
-      ct: z
-        .object({
-          ssdAlongAxisMm: z.number().optional(),
-          planSsdMm: z.number().optional(),
-          ssdDifferenceMm: z.number().optional(),
-          ssdAlongRayMm: z.number(),
-          geometricDepthMm: z.number(),
-          radiologicalDepthMm: z.number(),
-          entryPatientMm: z.tuple([z.number(), z.number(), z.number()]),
-          densityRange: z.tuple([z.number(), z.number()]),
-          nearestInterfaceMm: z.number().optional(),
-          correctionFactor: z.number(),
-          homogeneousDoseCGy: z.number(),
-          bodyThresholdHu: z.number(),
-          /** How the surface was found: the EXTERNAL structure or the HU threshold. */
-          body: z.string(),
-          method: CtMethod,
-        })
-        .optional(),
-      /** An electron beam: applicator, cutout and the effective SSD for its air gap. */
-      electron: z
-        .object({ applicatorId: z.string(), cutout: z.enum(['none', 'rectangle', 'shaped']), fieldSideCm: z.number(), effectiveSsdCm: z.number(), airGapCm: z.number(), pddPercent: z.number() })
-        .optional(),
-      /** A modulated beam: how its segments were summed, and over what range of geometry. */
-      modulated: z
-        .object({
-          method: z.string(),
-          controlPoints: z.number(),
-          segments: z.number(),
-          gantryStartDeg: z.number(),
-          gantryEndDeg: z.number(),
-          depthSource: DepthSource,
-          depthRangeCm: z.tuple([z.number(), z.number()]),
-          radiologicalDepthRangeCm: z.tuple([z.number(), z.number()]).optional(),
-          correctionFactor: z.number().optional(),
-          homogeneousDoseCGy: z.number().optional(),
-          /** The largest difference between the CT's SSD and the plan's over the control points that state one. */
-          maxSsdDifferenceMm: z.number().optional(),
-          /** Share of the MU during which leaves or jaws cover the point. */
-          pointCoveredMuPercent: z.number(),
-          /** Share of the MU from segments integrated by Clarkson (the rest: plain rectangles, by equivalent square). */
-          clarksonMuPercent: z.number(),
-        })
-        .optional(),
-      /** The planning system's own depth data for the point, where the plan carries them, beside ours. */
-      planningSystemDepths: z
-        .object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional(),
-          depthDifferenceMm: z.number().optional(), equivalentDepthDifferenceMm: z.number().optional(), ssdDifferenceMm: z.number().optional() })
-        .optional(),
-    });
+  machineBeam: z.string(),
+  setup: z.enum(['SSD', 'SAD']),
+  /** Why this setup: the SSD against the SAD, or the kind of beam. */
+  setupBasis: Note,
+  ssdCm: z.number(),
+  depthCm: z.number(),
+  offAxisCm: z.number(),
+  collimatorFieldCm: z.object({ x: z.number(), y: z.number() }),
+  collimatorSquareCm: z.number(),
+  irradiatedSquareCm: z.number(),
+  wedgeId: z.string().optional(),
+  approximations: z.array(Note),
+  factors: z.array(FactorJson),
+  dosePerMuCGy: z.number(),
+  independentDoseCGy: z.number(),
+  independentMu: z.number().optional(),
+  doseDeviationPercent: z.number().optional(),
+  muDeviationPercent: z.number().optional(),
+  clamps: z.array(Clamp),
+  /** With the patient's CT: the traced geometry and the heterogeneity correction. */
+  ct: z
+    .object({
+      ssdAlongAxisMm: z.number().optional(),
+      planSsdMm: z.number().optional(),
+      ssdDifferenceMm: z.number().optional(),
+      ssdAlongRayMm: z.number(),
+      geometricDepthMm: z.number(),
+      radiologicalDepthMm: z.number(),
+      entryPatientMm: z.tuple([z.number(), z.number(), z.number()]),
+      densityRange: z.tuple([z.number(), z.number()]),
+      nearestInterfaceMm: z.number().optional(),
+      correctionFactor: z.number(),
+      homogeneousDoseCGy: z.number(),
+      bodyThresholdHu: z.number(),
+      /** How the surface was found: the EXTERNAL structure or the HU threshold. */
+      body: z.string(),
+      method: CtMethod,
+    })
+    .optional(),
+  /** An electron beam: applicator, cutout and the effective SSD for its air gap. */
+  electron: z
+    .object({
+      applicatorId: z.string(),
+      cutout: z.enum(['none', 'rectangle', 'shaped']),
+      fieldSideCm: z.number(),
+      effectiveSsdCm: z.number(),
+      airGapCm: z.number(),
+      pddPercent: z.number(),
+    })
+    .optional(),
+  /** A modulated beam: how its segments were summed, and over what range of geometry. */
+  modulated: z
+    .object({
+      method: z.string(),
+      controlPoints: z.number(),
+      segments: z.number(),
+      gantryStartDeg: z.number(),
+      gantryEndDeg: z.number(),
+      depthSource: DepthSource,
+      depthRangeCm: z.tuple([z.number(), z.number()]),
+      radiologicalDepthRangeCm: z.tuple([z.number(), z.number()]).optional(),
+      correctionFactor: z.number().optional(),
+      homogeneousDoseCGy: z.number().optional(),
+      /** The largest difference between the CT's SSD and the plan's over the control points that state one. */
+      maxSsdDifferenceMm: z.number().optional(),
+      /** Share of the MU during which leaves or jaws cover the point. */
+      pointCoveredMuPercent: z.number(),
+      /** Share of the MU from segments integrated by Clarkson (the rest: plain rectangles, by equivalent square). */
+      clarksonMuPercent: z.number(),
+    })
+    .optional(),
+  /** The planning system's own depth data for the point, where the plan carries them, beside ours. */
+  planningSystemDepths: z
+    .object({
+      depthMm: z.number().optional(),
+      equivalentDepthMm: z.number().optional(),
+      ssdMm: z.number().optional(),
+      depthDifferenceMm: z.number().optional(),
+      equivalentDepthDifferenceMm: z.number().optional(),
+      ssdDifferenceMm: z.number().optional(),
+    })
+    .optional(),
+});
 export type Calculation = z.infer<typeof Calculation>;
 
 /** A beam the engine gave no dose, with the reason; the point when one was chosen. */
@@ -142,7 +157,15 @@ export const CheckedBeam = z.object({
   tolerancePercent: z.number(),
   actionPercent: z.number(),
   fitness: PointFitness,
-  suggestedPoint: z.object({ patientMm: z.tuple([z.number(), z.number(), z.number()]), independentDoseCGy: z.number(), depthCm: z.number(), offAxisCm: z.number(), clamps: z.array(Clamp) }).optional(),
+  suggestedPoint: z
+    .object({
+      patientMm: z.tuple([z.number(), z.number(), z.number()]),
+      independentDoseCGy: z.number(),
+      depthCm: z.number(),
+      offAxisCm: z.number(),
+      clamps: z.array(Clamp),
+    })
+    .optional(),
   verdict: Verdict,
   verdictReasons: z.array(Note),
   /** The deviation the verdict was judged on, and on what basis. */

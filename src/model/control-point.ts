@@ -19,19 +19,13 @@ export type BeamLimitingDeviceType = z.infer<typeof BeamLimitingDeviceType>;
  * Positions of one beam-limiting device, mm in IEC BEAM LIMITING DEVICE coordinates projected to
  * the isocenter plane. Jaws: [X1, X2] (or [Y1, Y2]). Leaves: bank 1 (leaves 1..N) then bank 2.
  */
-export const DevicePosition = z
-  .object({ type: BeamLimitingDeviceType, positionsMm: finiteNumbers })
-  .readonly();
+export const DevicePosition = z.object({ type: BeamLimitingDeviceType, positionsMm: finiteNumbers }).readonly();
 export type DevicePosition = z.infer<typeof DevicePosition>;
 
-export const WedgePosition = z
-  .object({ wedgeNumber: z.number().int(), position: z.enum(['IN', 'OUT']) })
-  .readonly();
+export const WedgePosition = z.object({ wedgeNumber: z.number().int(), position: z.enum(['IN', 'OUT']) }).readonly();
 export type WedgePosition = z.infer<typeof WedgePosition>;
 
-export const DoseReferenceCoefficient = z
-  .object({ doseReferenceNumber: z.number().int(), cumulativeCoefficient: finite.optional() })
-  .readonly();
+export const DoseReferenceCoefficient = z.object({ doseReferenceNumber: z.number().int(), cumulativeCoefficient: finite.optional() }).readonly();
 
 /**
  * A control point with every value in force: DICOM sends only what changes after the first

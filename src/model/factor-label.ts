@@ -13,7 +13,9 @@ export function factorLabel(f: Factor): string {
     case 'Sp':
       return `Sp(${cm(a[0]!)})`;
     case 'PDD':
-      return f.name === 'square-root' ? `√(PDD(${cm(a[0]!)}, ${cm(a[1]!)})·PDD(${cm(a[0]!)}, ${cm(a[2]!)}))/100 at SSD ${cm(a[3]!)}` : `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
+      return f.name === 'square-root'
+        ? `√(PDD(${cm(a[0]!)}, ${cm(a[1]!)})·PDD(${cm(a[0]!)}, ${cm(a[2]!)}))/100 at SSD ${cm(a[3]!)}`
+        : `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
     case 'Se':
       return a.length === 2 ? `Se ${f.name}(√(${cm(a[0]!)} × ${cm(a[1]!)}) by the square-root rule)` : `Se ${f.name}(${cm(a[0]!)})`;
     case 'TPR':

@@ -27,13 +27,7 @@ export const FractionGroup = z
     description: z.string().optional(),
     fractionsPlanned: z.number().int().nonnegative().optional(),
     beamDoseMeaning: z.string().optional(),
-    doseReferences: z
-      .array(
-        z
-          .object({ doseReferenceNumber: z.number().int(), targetPrescriptionDoseGy: finite.optional() })
-          .readonly(),
-      )
-      .readonly(),
+    doseReferences: z.array(z.object({ doseReferenceNumber: z.number().int(), targetPrescriptionDoseGy: finite.optional() }).readonly()).readonly(),
     beams: z.array(ReferencedBeam).readonly(),
   })
   .readonly();

@@ -5,8 +5,23 @@ import { FractionGroup } from './fraction-group.js';
 
 /** Patient positions of DICOM (0018,5100). The check supports the first four; the rest are recognised. */
 export const PATIENT_POSITIONS = [
-  'HFS', 'HFP', 'FFS', 'FFP', 'HFDR', 'HFDL', 'FFDR', 'FFDL',
-  'LFP', 'LFS', 'RFP', 'RFS', 'AFDR', 'AFDL', 'PFDR', 'PFDL', 'SITTING',
+  'HFS',
+  'HFP',
+  'FFS',
+  'FFP',
+  'HFDR',
+  'HFDL',
+  'FFDR',
+  'FFDL',
+  'LFP',
+  'LFS',
+  'RFP',
+  'RFS',
+  'AFDR',
+  'AFDL',
+  'PFDR',
+  'PFDL',
+  'SITTING',
 ] as const;
 export const PatientPosition = z.enum(PATIENT_POSITIONS);
 export type PatientPosition = z.infer<typeof PatientPosition>;
@@ -48,7 +63,5 @@ export const Plan = z
 export type Plan = z.infer<typeof Plan>;
 
 /** Where a plan came from: the file and how it was encoded. */
-export const PlanSource = z
-  .object({ file: z.string(), transferSyntaxUid: z.string(), hasPart10Header: z.boolean() })
-  .readonly();
+export const PlanSource = z.object({ file: z.string(), transferSyntaxUid: z.string(), hasPart10Header: z.boolean() }).readonly();
 export type PlanSource = z.infer<typeof PlanSource>;

@@ -85,10 +85,7 @@ export interface PhotonPointResult {
   readonly clamps: readonly LookupNote[];
 }
 
-export type PhotonPointOutcome =
-  | { readonly ok: true; readonly value: PhotonPointResult }
-  | { readonly ok: false; readonly issues: readonly Issue[] };
-
+export type PhotonPointOutcome = { readonly ok: true; readonly value: PhotonPointResult } | { readonly ok: false; readonly issues: readonly Issue[] };
 
 /** A point calculation for one electron beam (AAPM TG-71), everything in cm. */
 export interface ElectronPointInput {
@@ -97,7 +94,9 @@ export interface ElectronPointInput {
    * The cutout (or the open applicator) at the nominal SSD: a rectangle X × Y, whose Se and PDD follow
    * the square-root rule, or any other shape by its equivalent square (and how it was found).
    */
-  readonly field: { readonly kind: 'rectangle'; readonly xCm: number; readonly yCm: number } | { readonly kind: 'equivalent-square'; readonly sideCm: number; readonly method: string };
+  readonly field:
+    | { readonly kind: 'rectangle'; readonly xCm: number; readonly yCm: number }
+    | { readonly kind: 'equivalent-square'; readonly sideCm: number; readonly method: string };
   readonly depthCm: number;
   readonly ssdCm: number;
 }

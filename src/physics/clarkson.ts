@@ -63,7 +63,12 @@ export function clarksonSpTpr(
     sectors = sectorRadiiCm.length;
     for (const sector of sectorRadiiCm) {
       // Crossings: open and under the leaves in turn out to the jaws (the same scatter sum).
-      const s = typeof sector === 'number' ? { crossingsCm: [sector] } : Array.isArray(sector) ? { crossingsCm: sector as readonly number[] } : (sector as ClarksonSector);
+      const s =
+        typeof sector === 'number'
+          ? { crossingsCm: [sector] }
+          : Array.isArray(sector)
+            ? { crossingsCm: sector as readonly number[] }
+            : (sector as ClarksonSector);
       const limit = s.jawLimitCm ?? s.crossingsCm[s.crossingsCm.length - 1] ?? 0;
       let previous = 0;
       let open = true;

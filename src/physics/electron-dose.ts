@@ -16,8 +16,18 @@ export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointI
   const cal = beam.calibration;
   const app = beam.applicators.find((a) => a.id === input.applicatorId);
   if (!app) {
-    return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `electron beam ${beam.id} has no applicator "${input.applicatorId}"`,
-      expected: beam.applicators.map((a) => a.id).join(', '), found: input.applicatorId }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'missing-table',
+          message: `electron beam ${beam.id} has no applicator "${input.applicatorId}"`,
+          expected: beam.applicators.map((a) => a.id).join(', '),
+          found: input.applicatorId,
+        },
+      ],
+    };
   }
   const bad = checkInput(input);
   if (bad.length) return { ok: false, issues: bad };
@@ -36,7 +46,12 @@ export function electronDosePerMu(beam: ElectronBeamModel, input: ElectronPointI
     f.kind === 'rectangle'
       ? { key: 'PDD', value: pdd / 100, args: [d, f.xCm, f.yCm, beam.pdd.ssdCm], name: 'square-root' }
       : { key: 'PDD', value: pdd / 100, args: [d, f.sideCm, beam.pdd.ssdCm] },
-    { key: 'ISF', value: inverseSquareFactor(effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap), args: [effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap], name: `effective SSD ${effectiveSsdCm.toFixed(1)} cm, air gap ${gap.toFixed(1)} cm` },
+    {
+      key: 'ISF',
+      value: inverseSquareFactor(effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap),
+      args: [effectiveSsdCm + cal.d0Cm, effectiveSsdCm + cal.d0Cm + gap],
+      name: `effective SSD ${effectiveSsdCm.toFixed(1)} cm, air gap ${gap.toFixed(1)} cm`,
+    },
   ];
   let dosePerMuCGy = 1;
   for (const x of factors) dosePerMuCGy *= x.value;
@@ -92,7 +107,13 @@ function checkInput(i: ElectronPointInput): Issue[] {
   const out: Issue[] = [];
   const need = (name: string, v: number, min: number, strict: boolean) => {
     if (!Number.isFinite(v) || (strict ? v <= min : v < min)) {
-      out.push({ severity: 'error', code: 'invalid-option', message: `${name} must be a finite number ${strict ? '>' : '>='} ${min}`, expected: `${strict ? '>' : '>='} ${min}`, found: String(v) });
+      out.push({
+        severity: 'error',
+        code: 'invalid-option',
+        message: `${name} must be a finite number ${strict ? '>' : '>='} ${min}`,
+        expected: `${strict ? '>' : '>='} ${min}`,
+        found: String(v),
+      });
     }
   };
   if (i.field.kind === 'rectangle') {

@@ -24,12 +24,17 @@ export type HeterogeneityMethod = 'tpr-ratio' | 'batho';
  * coefficients of the point's medium to water is taken as 1 (a water-like point). Not defined
  * within the build-up distance past an interface: the caller says so.
  */
-export function bathoCorrection(beam: PhotonBeamModel, layers: readonly { readonly distanceToPointCm: number; readonly density: number }[], sideAtDepthCm: number): Looked<number> {
+export function bathoCorrection(
+  beam: PhotonBeamModel,
+  layers: readonly { readonly distanceToPointCm: number; readonly density: number }[],
+  sideAtDepthCm: number,
+): Looked<number> {
   const lookups: LookupNote[] = [];
   let lnCf = 0;
   let previous = 1;
   for (const layer of layers) {
-    if (layer.density !== previous) lnCf += (layer.density - previous) * Math.log(tprAt(beam, Math.max(0, layer.distanceToPointCm), sideAtDepthCm, lookups));
+    if (layer.density !== previous)
+      lnCf += (layer.density - previous) * Math.log(tprAt(beam, Math.max(0, layer.distanceToPointCm), sideAtDepthCm, lookups));
     previous = layer.density;
   }
   return { value: Math.exp(lnCf), lookups };

@@ -54,23 +54,50 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
     const xAt = beam.oar.offAxisAt === 'depth' ? offAxis : projectFieldCm(offAxis, spd, sadCm);
     factors.push({ key: 'OAR', value: beam.oar.at(d, xAt, log), args: [d, xAt], name: beam.oar.offAxisAt });
   } else if (offAxis !== 0) {
-    return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no OAR table, so an off-axis point cannot be calculated` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no OAR table, so an off-axis point cannot be calculated` }],
+    };
   }
   if (input.wedgeId !== undefined) {
     const w = beam.wedges.find((v) => v.id === input.wedgeId);
     if (!w) {
-      return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no wedge "${input.wedgeId}"`,
-        expected: beam.wedges.map((v) => v.id).join(', ') || 'no wedges', found: input.wedgeId }] };
+      return {
+        ok: false,
+        issues: [
+          {
+            severity: 'error',
+            code: 'missing-table',
+            message: `beam ${beam.id} has no wedge "${input.wedgeId}"`,
+            expected: beam.wedges.map((v) => v.id).join(', ') || 'no wedges',
+            found: input.wedgeId,
+          },
+        ],
+      };
     }
-    factors.push(w.byDepth
-      ? { key: 'WF', value: w.factor.at(d, collimatorSquare, log), args: [d, collimatorSquare], name: w.id }
-      : { key: 'WF', value: w.factor.at(collimatorSquare, 0, log), args: [collimatorSquare], name: w.id });
+    factors.push(
+      w.byDepth
+        ? { key: 'WF', value: w.factor.at(d, collimatorSquare, log), args: [d, collimatorSquare], name: w.id }
+        : { key: 'WF', value: w.factor.at(collimatorSquare, 0, log), args: [collimatorSquare], name: w.id },
+    );
     // Off axis along the wedge, the wedged / open ratio of the clinic's wedged profiles.
-    if (w.profile && input.towardHeelCm !== undefined) factors.push({ key: 'WP', value: w.profile.at(d, input.towardHeelCm, log), args: [d, input.towardHeelCm], name: w.id });
+    if (w.profile && input.towardHeelCm !== undefined)
+      factors.push({ key: 'WP', value: w.profile.at(d, input.towardHeelCm, log), args: [d, input.towardHeelCm], name: w.id });
   }
   if (input.sweptWedge) {
     if (!beam.sweptWedge) {
-      return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no swept-wedge table, so a jaw-swept (dynamic) wedge cannot be calculated`, expected: 'a sweptWedge table', found: 'none' }] };
+      return {
+        ok: false,
+        issues: [
+          {
+            severity: 'error',
+            code: 'missing-table',
+            message: `beam ${beam.id} has no swept-wedge table, so a jaw-swept (dynamic) wedge cannot be calculated`,
+            expected: 'a sweptWedge table',
+            found: 'none',
+          },
+        ],
+      };
     }
     const { angleDeg, fieldLengthCm } = input.sweptWedge;
     factors.push({ key: 'WF', value: beam.sweptWedge.at(angleDeg, fieldLengthCm, log), args: [fieldLengthCm], name: `swept ${angleDeg}°` });
@@ -78,8 +105,18 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   if (input.trayId !== undefined) {
     const t = beam.trays.find((v) => v.id === input.trayId);
     if (!t) {
-      return { ok: false, issues: [{ severity: 'error', code: 'missing-table', message: `beam ${beam.id} has no tray "${input.trayId}"`,
-        expected: beam.trays.map((v) => v.id).join(', ') || 'no trays', found: input.trayId }] };
+      return {
+        ok: false,
+        issues: [
+          {
+            severity: 'error',
+            code: 'missing-table',
+            message: `beam ${beam.id} has no tray "${input.trayId}"`,
+            expected: beam.trays.map((v) => v.id).join(', ') || 'no trays',
+            found: input.trayId,
+          },
+        ],
+      };
     }
     factors.push({ key: 'TF', value: t.factor, args: [], name: t.id });
   }
@@ -93,7 +130,14 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       setup: input.setup,
       dosePerMuCGy: dosePerMu,
       factors,
-      geometry: { sourceToPointCm: spd, collimatorSquareCm: collimatorSquare, surfaceSquareCm: surfaceSquare, squareAtD0Cm: squareAtD0, squareAtDepthCm: squareAtDepth, offAxisCm: offAxis },
+      geometry: {
+        sourceToPointCm: spd,
+        collimatorSquareCm: collimatorSquare,
+        surfaceSquareCm: surfaceSquare,
+        squareAtD0Cm: squareAtD0,
+        squareAtDepthCm: squareAtDepth,
+        offAxisCm: offAxis,
+      },
       clamps: log,
     },
   };
@@ -106,8 +150,14 @@ export function muForDose(result: PhotonPointResult, doseCGy: number): number {
 
 /** The common case checked without allocating; checkInput then says what is wrong. */
 function inputIsValid(i: PhotonPointInput): boolean {
-  return positiveOrAbsent(i.collimatorFieldCm.x) && positiveOrAbsent(i.collimatorFieldCm.y) && positiveOrAbsent(i.irradiatedSquareCm) &&
-    nonNegativeOrAbsent(i.depthCm) && positiveOrAbsent(i.ssdCm) && nonNegativeOrAbsent(i.offAxisCm);
+  return (
+    positiveOrAbsent(i.collimatorFieldCm.x) &&
+    positiveOrAbsent(i.collimatorFieldCm.y) &&
+    positiveOrAbsent(i.irradiatedSquareCm) &&
+    nonNegativeOrAbsent(i.depthCm) &&
+    positiveOrAbsent(i.ssdCm) &&
+    nonNegativeOrAbsent(i.offAxisCm)
+  );
 }
 function positiveOrAbsent(v: number | undefined): boolean {
   return v === undefined || (Number.isFinite(v) && v > 0);
@@ -121,7 +171,13 @@ function checkInput(i: PhotonPointInput): Issue[] {
   const need = (name: string, v: number | undefined, min: number, strict: boolean) => {
     if (v === undefined) return;
     if (!Number.isFinite(v) || (strict ? v <= min : v < min)) {
-      out.push({ severity: 'error', code: 'invalid-option', message: `${name} must be a finite number ${strict ? '>' : '>='} ${min}`, expected: `${strict ? '>' : '>='} ${min}`, found: String(v) });
+      out.push({
+        severity: 'error',
+        code: 'invalid-option',
+        message: `${name} must be a finite number ${strict ? '>' : '>='} ${min}`,
+        expected: `${strict ? '>' : '>='} ${min}`,
+        found: String(v),
+      });
     }
   };
   need('field X (cm)', i.collimatorFieldCm.x, 0, true);

@@ -1,9 +1,15 @@
 import { z } from 'zod';
-import { factorLabel, type LookupNote, type MachineModel, type PhotonBeamModel, type PhotonPointInput, type PhotonPointResult } from '../model/index.js';
+import {
+  factorLabel,
+  type LookupNote,
+  type MachineModel,
+  type PhotonBeamModel,
+  type PhotonPointInput,
+  type PhotonPointResult,
+} from '../model/index.js';
 
 import { CAUTION } from './caution.js';
 import { handCalculation } from './hand-calculation.js';
-
 
 export interface CalcReport {
   readonly machine: MachineModel;
@@ -54,15 +60,29 @@ export const CalcDocument = z.object({
     trayId: z.string().optional(),
   }),
   geometry: z.object({
-    sourceToPointCm: z.number(), collimatorSquareCm: z.number(), surfaceSquareCm: z.number(),
-    squareAtD0Cm: z.number(), squareAtDepthCm: z.number(), offAxisCm: z.number(),
+    sourceToPointCm: z.number(),
+    collimatorSquareCm: z.number(),
+    surfaceSquareCm: z.number(),
+    squareAtD0Cm: z.number(),
+    squareAtDepthCm: z.number(),
+    offAxisCm: z.number(),
   }),
   factors: z.array(z.object({ key: z.string(), label: z.string(), value: z.number(), args: z.array(z.number()), name: z.string().optional() })),
   dosePerMuCGy: z.number(),
   mu: z.number(),
   doseCGy: z.number(),
   given: z.enum(['mu', 'dose']),
-  clamps: z.array(z.object({ table: z.string(), axis: z.string(), requested: z.number(), used: z.number(), kind: z.string(), range: z.tuple([z.number(), z.number()]), unit: z.string() })),
+  clamps: z.array(
+    z.object({
+      table: z.string(),
+      axis: z.string(),
+      requested: z.number(),
+      used: z.number(),
+      kind: z.string(),
+      range: z.tuple([z.number(), z.number()]),
+      unit: z.string(),
+    }),
+  ),
   caution: z.string(),
 });
 export type CalcDocument = z.infer<typeof CalcDocument>;

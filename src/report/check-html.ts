@@ -9,14 +9,18 @@ import { fixed as n, pointMm as mm, signed } from './table.js';
 function deviationChart(beams: readonly CheckedBeam[]): string {
   const rows = beams.filter((b) => b.calculation.doseDeviationPercent !== undefined);
   if (!rows.length) return '';
-  const span = Math.max(...rows.map((b) => Math.max(b.actionPercent * 1.5, Math.abs(b.judgedDeviationPercent ?? b.calculation.doseDeviationPercent!) + 1)));
+  const span = Math.max(
+    ...rows.map((b) => Math.max(b.actionPercent * 1.5, Math.abs(b.judgedDeviationPercent ?? b.calculation.doseDeviationPercent!) + 1)),
+  );
   const width = 640;
   const left = 150;
   const plot = width - left - 20;
   const rowH = 26;
   const x = (v: number) => left + ((v + span) / (2 * span)) * plot;
   const height = rows.length * rowH + 34;
-  const parts: string[] = [`<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of each beam against its levels">`];
+  const parts: string[] = [
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of each beam against its levels">`,
+  ];
   rows.forEach((b, i) => {
     const y = 8 + i * rowH;
     const dev = b.judgedDeviationPercent ?? b.calculation.doseDeviationPercent!;
@@ -50,9 +54,13 @@ function handCalculation(b: BeamCheck): string {
 <p>Point ${mm(b.point.patientMm)}: ${esc(pointText(b.point))}. ${c.setup} setup: ${esc(noteText(c.setupBasis))}. ${esc(depthText(c))},
 ${c.offAxisCm.toFixed(2)} cm off axis. ${c.modulated ? 'Mean collimator' : 'Collimator'} ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
 irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
-${c.ct ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
+${
+  c.ct
+    ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
 geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
-heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>` : ''}
+heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>`
+    : ''
+}
 <table class="calc">${lines}${c.ct ? `<tr><td>heterogeneity correction CF</td><td class="num">${c.ct.correctionFactor.toFixed(4)}</td></tr>` : ''}<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
 <p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>
 (planning system ${n(b.planningSystemDoseCGy, 1)} cGy, ${signed(c.doseDeviationPercent)} %).
@@ -76,8 +84,14 @@ function summaryRow(group: number, b: BeamCheck): string {
 function planSection(p: PlanCheck): string {
   const beams = p.fractionGroups.flatMap((g) => g.beams);
   const rows = p.fractionGroups.map((g) => g.beams.map((b) => summaryRow(g.number, b)).join('')).join('');
-  const totals = p.fractionGroups.flatMap((g) => g.totals.map((t) => `<li>Fraction group ${g.number}, point ${mm(t.pointPatientMm)}: independent ${t.independentDoseCGy.toFixed(1)} cGy,
-planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${t.doseGridCGy !== undefined ? `; planning system's dose grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''}${t.prescriptionPerFractionCGy !== undefined ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''}${t.complete ? '' : ' — incomplete'}</li>`)).join('');
+  const totals = p.fractionGroups
+    .flatMap((g) =>
+      g.totals.map(
+        (t) => `<li>Fraction group ${g.number}, point ${mm(t.pointPatientMm)}: independent ${t.independentDoseCGy.toFixed(1)} cGy,
+planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${t.doseGridCGy !== undefined ? `; planning system's dose grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''}${t.prescriptionPerFractionCGy !== undefined ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''}${t.complete ? '' : ' — incomplete'}</li>`,
+      ),
+    )
+    .join('');
   return `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
 <p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256 <code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
 <table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU plan</th><th>MU indep</th><th>TPS cGy</th><th>indep cGy</th><th>dev %</th><th>verdict</th></tr></thead><tbody>${rows}</tbody></table>

@@ -16,7 +16,9 @@ export interface ElectronCalcReport {
 }
 
 const fieldText = (f: ElectronPointInput['field']) =>
-  f.kind === 'rectangle' ? `cutout ${f.xCm} x ${f.yCm} cm at the nominal SSD (Se and PDD by the square-root rule)` : `cutout equivalent square ${f.sideCm.toFixed(2)} cm (${f.method})`;
+  f.kind === 'rectangle'
+    ? `cutout ${f.xCm} x ${f.yCm} cm at the nominal SSD (Se and PDD by the square-root rule)`
+    : `cutout equivalent square ${f.sideCm.toFixed(2)} cm (${f.method})`;
 
 /** The electron calculation as a physicist writes it: applicator, cutout, depth, one factor per line, the result. */
 export function electronCalcText(r: ElectronCalcReport): string[] {
@@ -27,7 +29,9 @@ export function electronCalcText(r: ElectronCalcReport): string[] {
     `  depth ${r.input.depthCm.toFixed(2)} cm${r.isodosePercent !== undefined ? ` (the depth of the ${r.isodosePercent} % isodose on the central axis)` : ''}, SSD ${r.input.ssdCm} cm (air gap ${r.result.airGapCm.toFixed(1)} cm, effective SSD ${r.result.effectiveSsdCm.toFixed(1)} cm)`,
     '',
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
-    ...r.result.clamps.map((n) => `  note: ${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}, as the beam data allow`),
+    ...r.result.clamps.map(
+      (n) => `  note: ${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}, as the beam data allow`,
+    ),
     '',
     CAUTION,
   ];
@@ -41,7 +45,10 @@ export const ElectronCalcDocument = z.object({
   beam: z.object({ id: z.string(), nominalEnergyMeV: z.number() }),
   input: z.object({
     applicatorId: z.string(),
-    field: z.union([z.object({ kind: z.literal('rectangle'), xCm: z.number(), yCm: z.number() }), z.object({ kind: z.literal('equivalent-square'), sideCm: z.number(), method: z.string() })]),
+    field: z.union([
+      z.object({ kind: z.literal('rectangle'), xCm: z.number(), yCm: z.number() }),
+      z.object({ kind: z.literal('equivalent-square'), sideCm: z.number(), method: z.string() }),
+    ]),
     depthCm: z.number(),
     ssdCm: z.number(),
   }),
@@ -58,12 +65,20 @@ export const ElectronCalcDocument = z.object({
 
 export function electronCalcDocument(r: ElectronCalcReport, version: string): z.infer<typeof ElectronCalcDocument> {
   return ElectronCalcDocument.parse({
-    schemaVersion: 1, kind: 'plumbline.electron-calc', tool: { name: 'plumbline', version },
+    schemaVersion: 1,
+    kind: 'plumbline.electron-calc',
+    tool: { name: 'plumbline', version },
     machine: { name: r.machine.name, dataVersion: r.machine.version, invented: r.machine.invented },
     beam: { id: r.beam.id, nominalEnergyMeV: r.beam.nominalEnergyMeV },
-    input: r.input, ...(r.isodosePercent !== undefined ? { isodosePercent: r.isodosePercent } : {}),
-    airGapCm: r.result.airGapCm, effectiveSsdCm: r.result.effectiveSsdCm,
+    input: r.input,
+    ...(r.isodosePercent !== undefined ? { isodosePercent: r.isodosePercent } : {}),
+    airGapCm: r.result.airGapCm,
+    effectiveSsdCm: r.result.effectiveSsdCm,
     factors: r.result.factors.map((f) => ({ ...f, args: [...f.args], label: factorLabel(f) })),
-    dosePerMuCGy: r.result.dosePerMuCGy, mu: r.mu, doseCGy: r.doseCGy, given: r.given, caution: CAUTION,
+    dosePerMuCGy: r.result.dosePerMuCGy,
+    mu: r.mu,
+    doseCGy: r.doseCGy,
+    given: r.given,
+    caution: CAUTION,
   });
 }

@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { IssueJson, Plan, PlanSource } from '../model/index.js';
 
-
 /** The `inspect --json` document. Bump `schemaVersion` on any change a consumer could notice. */
 export const InspectDocument = z.object({
   schemaVersion: z.literal(1),

@@ -39,7 +39,8 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'wedge-type': (v) => `a ${s(v, 'type').toLowerCase()} wedge: physical and jaw-swept (dynamic) wedges are checked, this type is not`,
   'table-eccentric': () => 'the table top eccentric angle is not 0 (not supported)',
   'no-patient-position': () => 'the patient position is not given',
-  'patient-position': (v) => `patient position ${s(v, 'position')}: the beam geometry supports ${s(v, 'supported').replace(/, (\w+)$/, ' and $1')} so far`,
+  'patient-position': (v) =>
+    `patient position ${s(v, 'position')}: the beam geometry supports ${s(v, 'supported').replace(/, (\w+)$/, ' and $1')} so far`,
   'no-isocenter': () => 'the first control point has no isocenter',
   'no-energy': () => 'no nominal energy',
   'input-refused': (v) => s(v, 'message'),
@@ -55,7 +56,8 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'no-axis-ssd': () => 'the central axis meets no body voxel in the CT and the plan gives no SSD',
   'point-blocked': () => 'the calculation point lies under a block or the leaves: choose a point in the open field',
   'calculation-refused': (v) => `${where(v)}${s(v, 'message')}`,
-  'heterogeneity-outside-tables': (v) => `${where(v)}the heterogeneity correction needs TPR at ${n(v, 'radiologicalDepthCm').toFixed(2)} cm, outside the tables`,
+  'heterogeneity-outside-tables': (v) =>
+    `${where(v)}the heterogeneity correction needs TPR at ${n(v, 'radiologicalDepthCm').toFixed(2)} cm, outside the tables`,
   'modulated-blocks': () => 'a modulated beam with blocks: not supported',
   'modulated-wedge': () => 'a modulated beam with a wedge in: not supported',
   'collimator-or-couch-turns': () => 'the collimator or the couch turns during the beam: not supported',
@@ -65,54 +67,70 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'segment-no-aperture': (v) => `${where(v)}no aperture (no jaws and no leaves along an axis)`,
   'electron-no-applicator': () => 'an electron beam without an applicator in the plan',
   'electron-blocks': () => 'an electron beam with shielding blocks or more than one cutout: not supported',
-  'cutout-too-large': (v) => `the cutout (${f1(v, 'spanCm')} cm across) is larger than the applicator ${s(v, 'applicatorId')} (${n(v, 'applicatorSideCm')} cm)`,
+  'cutout-too-large': (v) =>
+    `the cutout (${f1(v, 'spanCm')} cm across) is larger than the applicator ${s(v, 'applicatorId')} (${n(v, 'applicatorSideCm')} cm)`,
   'homogeneous-refused': (v) => `the homogeneous comparison: ${s(v, 'message')}`,
-  'ssd-irregular-tpr-form': () => 'SSD setup of an irregular field: calculated in the TPR form at the point (SPD = SSD + d), which equals the PDD form for consistent beam data',
+  'ssd-irregular-tpr-form': () =>
+    'SSD setup of an irregular field: calculated in the TPR form at the point (SPD = SSD + d), which equals the PDD form for consistent beam data',
   'clarkson-irregular': (v) => {
     const blocks = n(v, 'blocks');
     const what = [n(v, 'mlc') ? 'MLC' : '', blocks ? `${blocks} block(s)` : ''].filter(Boolean).join(' and ');
     const bt = Array.isArray(v.blockTransmissions) ? v.blockTransmissions.join(', ') : '';
     return `irregular field (${what}) by Clarkson integration over ${n(v, 'sectors')} sectors; leaf transmission ${n(v, 'leafTransmission')}${blocks ? `, block transmission as the plan states (${bt})` : ''}`;
   },
-  'wedge-profile-not-applied': (v) => `the wedge profile is not applied: orientation ${s(v, 'orientationDeg')}° is not 0, 90, 180 or 270, or the beam data do not say where the heel points`,
+  'wedge-profile-not-applied': (v) =>
+    `the wedge profile is not applied: orientation ${s(v, 'orientationDeg')}° is not 0, 90, 180 or 270, or the beam data do not say where the heel points`,
   'wedge-central-axis-factor': () => 'the wedge factor is the central-axis value; the wedge profile off axis is not applied',
   'swept-wedge-asymmetric': () => 'the swept-wedge factor is for a field centred on the axis; this one is asymmetric along the sweep',
   'bolus-depth': () => "a bolus is referenced: the depth is taken from the plan's SSD, which must include it",
   'table-pitch-roll-ignored': () => 'table top pitch and roll are ignored',
   'batho-interface-in-build-up': (v) => `an interface ${f1(v, 'distanceCm')} cm upstream of the point, within dmax: Batho's law is not defined there`,
-  'modulated-clarkson': (v) => `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${n(v, 'segments')} segments between ${n(v, 'controlPoints')} control points, `
-    + `each with its own aperture, gantry angle and depth, weighted by its MU share; ${n(v, 'sectors')} sectors, leaf transmission ${n(v, 'leafTransmission')}`,
+  'modulated-clarkson': (v) =>
+    `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${n(v, 'segments')} segments between ${n(v, 'controlPoints')} control points, ` +
+    `each with its own aperture, gantry angle and depth, weighted by its MU share; ${n(v, 'sectors')} sectors, leaf transmission ${n(v, 'leafTransmission')}`,
   'modulated-depths': (v) => `depths ${(DEPTH_SOURCE[s(v, 'source')] ?? (() => s(v, 'source')))(v)}`,
-  'modulated-heterogeneity': (v) => `heterogeneity corrected per segment by ${CT_METHOD_TEXT[s(v, 'method')] ?? s(v, 'method')}: dose-weighted CF ${n(v, 'correctionFactor').toFixed(4)} `
-    + `(homogeneous dose ${f1(v, 'homogeneousDoseCGy')} cGy)`,
+  'modulated-heterogeneity': (v) =>
+    `heterogeneity corrected per segment by ${CT_METHOD_TEXT[s(v, 'method')] ?? s(v, 'method')}: dose-weighted CF ${n(v, 'correctionFactor').toFixed(4)} ` +
+    `(homogeneous dose ${f1(v, 'homogeneousDoseCGy')} cGy)`,
   'leaf-ends-not-modelled': () => 'the leaf tongue-and-groove effect and the rounded leaf ends are not modelled',
-  'electron-cutout': (v) => `${(CUTOUT[s(v, 'cutout')] ?? (() => s(v, 'cutout')))(v)}${v.effectiveSsdCm === undefined ? '' : `; effective SSD ${f1(v, 'effectiveSsdCm')} cm`}`,
-  'electron-extended-ssd': (v) => `extended SSD: the PDD measured at ${n(v, 'measuredSsdCm')} cm is used at ${f1(v, 'ssdCm')} cm, with the inverse square of the effective SSD for the air gap`,
-  'electron-off-axis': (v) => `the point is ${f1(v, 'offAxisCm')} cm from the central axis: electron doses are central-axis values (no off-axis ratio)`,
+  'electron-cutout': (v) =>
+    `${(CUTOUT[s(v, 'cutout')] ?? (() => s(v, 'cutout')))(v)}${v.effectiveSsdCm === undefined ? '' : `; effective SSD ${f1(v, 'effectiveSsdCm')} cm`}`,
+  'electron-extended-ssd': (v) =>
+    `extended SSD: the PDD measured at ${n(v, 'measuredSsdCm')} cm is used at ${f1(v, 'ssdCm')} cm, with the inverse square of the effective SSD for the air gap`,
+  'electron-off-axis': (v) =>
+    `the point is ${f1(v, 'offAxisCm')} cm from the central axis: electron doses are central-axis values (no off-axis ratio)`,
   'outside-field': (v) => `the point lies outside the field (${f1(v, 'beyondCm')} cm beyond its edge)`,
   'near-field-edge': (v) => `the point is ${f1(v, 'edgeDistanceCm')} cm from the field edge (margin ${n(v, 'marginCm')} cm)`,
   'build-up': (v) => `the point is in the build-up region (${f1(v, 'depthCm')} cm, shallower than dmax ${n(v, 'dmaxCm')} cm)`,
-  'past-interface': (v) => `the point is ${(n(v, 'distanceMm') / MM_PER_CM).toFixed(1)} cm past a density interface along the ray (margin ${n(v, 'marginCm')} cm)`,
-  'covered-by-leaves': (v) => `the point is under the leaves or outside the jaws for ${n(v, 'percent').toFixed(0)} % of the MU: its dose rests on leaf transmission and penumbra`,
-  'build-up-some-angles': (v) => `the point is in the build-up region at some gantry angles (depth down to ${f1(v, 'minDepthCm')} cm, dmax ${n(v, 'dmaxCm')} cm)`,
-  'ssd-differs-some-angle': (v) => `the SSD from the CT differs from the plan's by up to ${f1(v, 'maxDifferenceMm')} mm at some control point (tolerance ${n(v, 'toleranceMm')} mm): `
-    + 'bolus missing, wrong CT or wrong isocenter?',
+  'past-interface': (v) =>
+    `the point is ${(n(v, 'distanceMm') / MM_PER_CM).toFixed(1)} cm past a density interface along the ray (margin ${n(v, 'marginCm')} cm)`,
+  'covered-by-leaves': (v) =>
+    `the point is under the leaves or outside the jaws for ${n(v, 'percent').toFixed(0)} % of the MU: its dose rests on leaf transmission and penumbra`,
+  'build-up-some-angles': (v) =>
+    `the point is in the build-up region at some gantry angles (depth down to ${f1(v, 'minDepthCm')} cm, dmax ${n(v, 'dmaxCm')} cm)`,
+  'ssd-differs-some-angle': (v) =>
+    `the SSD from the CT differs from the plan's by up to ${f1(v, 'maxDifferenceMm')} mm at some control point (tolerance ${n(v, 'toleranceMm')} mm): ` +
+    'bolus missing, wrong CT or wrong isocenter?',
   'electron-build-up': (v) => `the point is in the build-up region (${f1(v, 'depthCm')} cm, shallower than this field's dmax ${f1(v, 'dmaxCm')} cm)`,
-  'steep-fall-off': (v) => `the point lies on the steep fall-off of the depth dose (PDD ${n(v, 'pddPercent').toFixed(0)} % < ${n(v, 'thresholdPercent')} %)`,
+  'steep-fall-off': (v) =>
+    `the point lies on the steep fall-off of the depth dose (PDD ${n(v, 'pddPercent').toFixed(0)} % < ${n(v, 'thresholdPercent')} %)`,
   'no-beam-dose': () => 'the plan gives no Beam Dose for this beam, so there is nothing to compare with',
   'judged-on-share': (v) => `the beam gives ${f1(v, 'sharePercent')} % of the point's dose, so it is judged on its share of the point dose`,
   'dose-at-other-point': () => "the planning system's Beam Dose refers to another point than --point",
   'dose-point-unstated': () => 'the plan does not say where its Beam Dose applies',
   'point-unfit': () => 'the point is not fit for a point check',
-  'ct-correction': (v) => `CT depths: heterogeneity corrected by ${CT_METHOD_TEXT[s(v, 'method')] ?? s(v, 'method')}, CF = ${n(v, 'correctionFactor').toFixed(4)} `
-    + `(homogeneous dose ${f1(v, 'homogeneousDoseCGy')} cGy)`,
-  'ct-ssd-differs': (v) => `the SSD from the CT (${(n(v, 'ctSsdMm') / MM_PER_CM).toFixed(1)} cm) differs from the plan's (${(n(v, 'planSsdMm') / MM_PER_CM).toFixed(1)} cm) `
-    + `by ${f1(v, 'differenceMm')} mm (tolerance ${n(v, 'toleranceMm')} mm): bolus missing, wrong CT or wrong isocenter?`,
+  'ct-correction': (v) =>
+    `CT depths: heterogeneity corrected by ${CT_METHOD_TEXT[s(v, 'method')] ?? s(v, 'method')}, CF = ${n(v, 'correctionFactor').toFixed(4)} ` +
+    `(homogeneous dose ${f1(v, 'homogeneousDoseCGy')} cGy)`,
+  'ct-ssd-differs': (v) =>
+    `the SSD from the CT (${(n(v, 'ctSsdMm') / MM_PER_CM).toFixed(1)} cm) differs from the plan's (${(n(v, 'planSsdMm') / MM_PER_CM).toFixed(1)} cm) ` +
+    `by ${f1(v, 'differenceMm')} mm (tolerance ${n(v, 'toleranceMm')} mm): bolus missing, wrong CT or wrong isocenter?`,
   'planning-system-depths': () => "the planning system's own depth data",
   'ssd-equals-sad': (v) => `the SSD (${f1(v, 'ssdCm')} cm) equals the SAD: the isocenter is on the surface`,
   'isocenter-deep': (v) => `the isocenter lies ${f1(v, 'depthCm')} cm deep`,
   'modulated-tpr-form': () => 'a modulated beam: every segment in the TPR form at the point',
-  'electron-applicator': (v) => `an electron beam with applicator ${s(v, 'applicatorId')} at SSD ${f1(v, 'ssdCm')} cm (nominal ${n(v, 'nominalSsdCm')} cm)`,
+  'electron-applicator': (v) =>
+    `an electron beam with applicator ${s(v, 'applicatorId')} at SSD ${f1(v, 'ssdCm')} cm (nominal ${n(v, 'nominalSsdCm')} cm)`,
   'beams-not-checked': (v) => `${n(v, 'count')} beam(s) not checked: the plan is not fully verified`,
   'no-beam-checked': () => 'no beam of this plan could be checked',
   'approval-status': (v) => `the plan's approval status is ${s(v, 'status', 'not given')}`,
@@ -131,7 +149,8 @@ export function noteText(note: Note): string {
 export function reasonTexts(b: CheckedBeam): string[] {
   const out = b.verdictReasons.map((r) => {
     if (r.code === 'point-unfit') return `${noteText(r)}: ${b.fitness.flags.map(noteText).join('; ')}`;
-    if (r.code === 'planning-system-depths' && b.calculation.planningSystemDepths) return planningDepthsText(b.calculation.planningSystemDepths, "the planning system's own depth data:");
+    if (r.code === 'planning-system-depths' && b.calculation.planningSystemDepths)
+      return planningDepthsText(b.calculation.planningSystemDepths, "the planning system's own depth data:");
     return noteText(r);
   });
   return [...out, ...b.calculation.approximations.map(noteText)];
@@ -140,14 +159,20 @@ export function reasonTexts(b: CheckedBeam): string[] {
 /** Why this point: which attribute or option named it. */
 export function pointText(p: Pick<CalculationPoint, 'source' | 'doseReferenceVia' | 'doseReferenceNumber'>): string {
   switch (p.source) {
-    case 'user': return '--point given';
-    case 'beam-dose-specification-point': return 'the Beam Dose Specification Point of the beam in the fraction group';
-    case 'dose-reference': return p.doseReferenceVia === 'referenced-uid'
-      ? `dose reference ${p.doseReferenceNumber} named by the beam's Referenced Dose Reference UID`
-      : `dose reference ${p.doseReferenceNumber}, the fraction group's only dose reference with coordinates`;
-    case 'prescription-point': return `dose reference ${p.doseReferenceNumber}, the plan's only target point`;
-    case 'isocenter': return 'the plan names no point for its Beam Dose; the isocenter is used and the comparison assumes the Beam Dose applies there';
-    case 'suggested': return 'a point suggested by plumbline';
+    case 'user':
+      return '--point given';
+    case 'beam-dose-specification-point':
+      return 'the Beam Dose Specification Point of the beam in the fraction group';
+    case 'dose-reference':
+      return p.doseReferenceVia === 'referenced-uid'
+        ? `dose reference ${p.doseReferenceNumber} named by the beam's Referenced Dose Reference UID`
+        : `dose reference ${p.doseReferenceNumber}, the fraction group's only dose reference with coordinates`;
+    case 'prescription-point':
+      return `dose reference ${p.doseReferenceNumber}, the plan's only target point`;
+    case 'isocenter':
+      return 'the plan names no point for its Beam Dose; the isocenter is used and the comparison assumes the Beam Dose applies there';
+    case 'suggested':
+      return 'a point suggested by plumbline';
   }
 }
 

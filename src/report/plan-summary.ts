@@ -15,17 +15,27 @@ const point = (p: readonly number[] | undefined) => (p ? `(${p.map((v) => v.toFi
 export function planSummary(plan: Plan, source: PlanSource, warnings: readonly Issue[]): string[] {
   const out: string[] = [];
   const date = plan.date ? ` ${plan.date.replace(/^(\d{4})(\d{2})(\d{2})$/, '$1-$2-$3')}` : '';
-  out.push(`RT Plan "${plan.label}"${plan.name && plan.name !== plan.label ? ` (${plan.name})` : ''}${date}, ${plan.approvalStatus ?? 'approval status not given'}`);
-  out.push(`  file: ${source.file} (${TRANSFER_SYNTAX_NAMES[source.transferSyntaxUid] ?? source.transferSyntaxUid}${source.hasPart10Header ? '' : ', no Part-10 header'})`);
+  out.push(
+    `RT Plan "${plan.label}"${plan.name && plan.name !== plan.label ? ` (${plan.name})` : ''}${date}, ${plan.approvalStatus ?? 'approval status not given'}`,
+  );
+  out.push(
+    `  file: ${source.file} (${TRANSFER_SYNTAX_NAMES[source.transferSyntaxUid] ?? source.transferSyntaxUid}${source.hasPart10Header ? '' : ', no Part-10 header'})`,
+  );
   out.push(`  patient: ${plan.patient.id ?? '—'}, ${plan.patient.name ?? '—'}`);
-  out.push(`  setups: ${plan.patientSetups.map((s) => `${s.number} ${s.position ?? s.additionalPosition ?? '—'}${s.setupTechnique ? ` ${s.setupTechnique}` : ''}`).join('; ') || '—'}`);
+  out.push(
+    `  setups: ${plan.patientSetups.map((s) => `${s.number} ${s.position ?? s.additionalPosition ?? '—'}${s.setupTechnique ? ` ${s.setupTechnique}` : ''}`).join('; ') || '—'}`,
+  );
   for (const d of plan.doseReferences) {
     const rx = d.targetPrescriptionDoseGy !== undefined ? `, prescription ${fixed(d.targetPrescriptionDoseGy, 3)} Gy` : '';
-    out.push(`  dose reference ${d.number}${d.description ? ` "${d.description}"` : ''}: ${d.type ?? '—'} ${d.structureType}${d.pointPatientMm ? ` at ${point(d.pointPatientMm)}` : ''}${rx}`);
+    out.push(
+      `  dose reference ${d.number}${d.description ? ` "${d.description}"` : ''}: ${d.type ?? '—'} ${d.structureType}${d.pointPatientMm ? ` at ${point(d.pointPatientMm)}` : ''}${rx}`,
+    );
   }
   const beamsByNumber = new Map(plan.beams.map((b) => [b.number, b]));
   for (const g of plan.fractionGroups) {
-    out.push(`  fraction group ${g.number}${g.description ? ` "${g.description}"` : ''}: ${g.fractionsPlanned ?? '—'} fractions, ${g.beams.length} beam(s)${g.beamDoseMeaning ? `, beam dose ${g.beamDoseMeaning}` : ''}`);
+    out.push(
+      `  fraction group ${g.number}${g.description ? ` "${g.description}"` : ''}: ${g.fractionsPlanned ?? '—'} fractions, ${g.beams.length} beam(s)${g.beamDoseMeaning ? `, beam dose ${g.beamDoseMeaning}` : ''}`,
+    );
     const rows = g.beams.map((rb) => {
       const b = beamsByNumber.get(rb.beamNumber);
       return b ? beamRow(b, rb.beamMeterset, rb.beamDoseGy) : [String(rb.beamNumber), '(not in plan)'];
@@ -35,19 +45,47 @@ export function planSummary(plan: Plan, source: PlanSource, warnings: readonly I
   const unreferenced = plan.beams.filter((b) => !plan.fractionGroups.some((g) => g.beams.some((rb) => rb.beamNumber === b.number)));
   if (unreferenced.length) {
     out.push('  beams in no fraction group:');
-    out.push(...textTable(BEAM_HEADER, unreferenced.map((b) => beamRow(b, undefined, undefined))).map((l) => `    ${l}`));
+    out.push(
+      ...textTable(
+        BEAM_HEADER,
+        unreferenced.map((b) => beamRow(b, undefined, undefined)),
+      ).map((l) => `    ${l}`),
+    );
   }
   for (const w of warnings) out.push(`  ${formatIssue(w)}`);
   return out;
 }
 
-const BEAM_HEADER = ['beam', 'name', 'type', 'energy', 'gantry', 'coll', 'couch', 'X1 mm', 'X2 mm', 'Y1 mm', 'Y2 mm', 'MLC', 'wedge', 'applicator', 'blocks', 'CPs', 'MU', 'dose Gy', 'SSD mm'];
+const BEAM_HEADER = [
+  'beam',
+  'name',
+  'type',
+  'energy',
+  'gantry',
+  'coll',
+  'couch',
+  'X1 mm',
+  'X2 mm',
+  'Y1 mm',
+  'Y2 mm',
+  'MLC',
+  'wedge',
+  'applicator',
+  'blocks',
+  'CPs',
+  'MU',
+  'dose Gy',
+  'SSD mm',
+];
 
 function beamRow(b: Beam, mu: number | undefined, doseGy: number | undefined): string[] {
   const cp0 = b.controlPoints[0]!;
   const last = b.controlPoints[b.controlPoints.length - 1]!;
   const jaws = jawOpeningMm(cp0);
-  const mlc = b.limitingDevices.filter((d) => d.type === 'MLCX' || d.type === 'MLCY').map((d) => `${d.type} ${d.numberOfPairs}`).join(' ');
+  const mlc = b.limitingDevices
+    .filter((d) => d.type === 'MLCX' || d.type === 'MLCY')
+    .map((d) => `${d.type} ${d.numberOfPairs}`)
+    .join(' ');
   const arc = last.gantryAngleDeg !== cp0.gantryAngleDeg ? `→${fixed(last.gantryAngleDeg, 1)} ${cp0.gantryRotation ?? ''}`.trimEnd() : '';
   // Photon beams are named by their nominal accelerating potential (MV), particles by energy (MeV).
   const energyUnit = b.radiationType === 'PHOTON' ? 'MV' : 'MeV';
@@ -64,7 +102,9 @@ function beamRow(b: Beam, mu: number | undefined, doseGy: number | undefined): s
     fixed(jaws.y1, 1),
     fixed(jaws.y2, 1),
     mlc || '—',
-    b.wedges.map((w) => `${w.id ?? w.number}${w.angleDeg !== undefined ? ` ${w.angleDeg}°` : ''}${w.type ? ` ${w.type.toLowerCase()}` : ''}`).join(', ') || '—',
+    b.wedges
+      .map((w) => `${w.id ?? w.number}${w.angleDeg !== undefined ? ` ${w.angleDeg}°` : ''}${w.type ? ` ${w.type.toLowerCase()}` : ''}`)
+      .join(', ') || '—',
     b.applicators.map((a) => a.id).join(', ') || '—',
     b.blocks.map((k) => `${k.type.toLowerCase()}${k.name ? ` ${k.name}` : ''}`).join(', ') || '—',
     String(b.controlPoints.length),

@@ -7,6 +7,10 @@ type Theirs = NonNullable<Calculation['planningSystemDepths']>;
 export function planningDepthsText(t: Theirs, lead = "the planning system's own"): string {
   const part = (what: string, theirs: number | undefined, diff: number | undefined) =>
     theirs === undefined ? [] : [`${what} ${theirs.toFixed(1)} mm${diff === undefined ? '' : ` (ours ${signed(diff)} mm)`}`];
-  const parts = [...part('depth', t.depthMm, t.depthDifferenceMm), ...part('equivalent depth', t.equivalentDepthMm, t.equivalentDepthDifferenceMm), ...part('SSD', t.ssdMm, t.ssdDifferenceMm)];
+  const parts = [
+    ...part('depth', t.depthMm, t.depthDifferenceMm),
+    ...part('equivalent depth', t.equivalentDepthMm, t.equivalentDepthDifferenceMm),
+    ...part('SSD', t.ssdMm, t.ssdDifferenceMm),
+  ];
   return `${lead} ${parts.join(', ')}`;
 }

@@ -1,7 +1,11 @@
 /** Left-aligned text columns; the widest cell sets each column's width. */
 export function textTable(header: readonly string[], rows: readonly (readonly string[])[]): string[] {
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
-  const line = (cells: readonly string[]) => cells.map((c, i) => c.padEnd(widths[i]!)).join('  ').trimEnd();
+  const line = (cells: readonly string[]) =>
+    cells
+      .map((c, i) => c.padEnd(widths[i]!))
+      .join('  ')
+      .trimEnd();
   return [line(header), ...rows.map(line)];
 }
 

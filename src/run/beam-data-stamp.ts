@@ -19,7 +19,13 @@ export function beamDataStamp(m: LoadedMachine): BeamDataStamp {
   if (known) return known;
   const h = createHash('sha256').update(readFileSync(m.manifestFile));
   for (const f of [...new Set(m.tables.map((t) => t.csv.file))].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(readFileSync(f));
-  const stamp = { manifest: m.manifestFile, sha256: h.digest('hex'), machine: m.machine.name, dataVersion: m.machine.version, invented: m.machine.invented };
+  const stamp = {
+    manifest: m.manifestFile,
+    sha256: h.digest('hex'),
+    machine: m.machine.name,
+    dataVersion: m.machine.version,
+    invented: m.machine.invented,
+  };
   stamps.set(m, stamp);
   return stamp;
 }

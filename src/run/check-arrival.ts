@@ -19,7 +19,11 @@ export interface LoadedCompanions {
 }
 
 /** Reads a group's CT (with its body from the structure set) and RT Doses; what cannot be used becomes a warning, never a refusal. */
-export function loadCompanions(c: Companions, ct: { density: string; bodyThresholdHu?: number | undefined } | undefined, policy: Policy): LoadedCompanions {
+export function loadCompanions(
+  c: Companions,
+  ct: { density: string; bodyThresholdHu?: number | undefined } | undefined,
+  policy: Policy,
+): LoadedCompanions {
   const warnings: Note[] = [];
   let patientCt: PatientCt | undefined;
   if (c.ctFiles.length && !ct) warnings.push(note('ct-without-density'));
@@ -41,17 +45,32 @@ export function loadCompanions(c: Companions, ct: { density: string; bodyThresho
  * An arrived plan checked against the beam data its machine names, with the companions in its frame
  * of reference; the companions' warnings travel with the result.
  */
-export function checkArrivedPlan(bytes: Uint8Array, file: string, sha256: string, machines: readonly [LoadedMachine, ...LoadedMachine[]], policy: Policy, companions: LoadedCompanions):
-  { ok: true; value: { result: PlanCheck; machine: LoadedMachine } } | { ok: false; issues: readonly Issue[] } {
+export function checkArrivedPlan(
+  bytes: Uint8Array,
+  file: string,
+  sha256: string,
+  machines: readonly [LoadedMachine, ...LoadedMachine[]],
+  policy: Policy,
+  companions: LoadedCompanions,
+): { ok: true; value: { result: PlanCheck; machine: LoadedMachine } } | { ok: false; issues: readonly Issue[] } {
   const imported = importPlanBytes(bytes, file);
   if (!imported.ok) return imported;
   const plan = imported.value.plan;
   const aliases = new Map<string, string>();
   const machine = chooseMachine(plan, machines, (m) => m.machine, aliases);
   const ct = companions.ct && companions.ct.volume.frameOfReferenceUid === plan.frameOfReferenceUid ? companions.ct : undefined;
-  const result = checkPlan(plan, { path: `sha256:${sha256}`, sha256 }, {
-    machine: machine.machine, policy, aliases, suggestPoint: false, ...(ct ? { ct } : {}), ...(companions.doseGrids.length ? { doseGrids: companions.doseGrids } : {}),
-  });
+  const result = checkPlan(
+    plan,
+    { path: `sha256:${sha256}`, sha256 },
+    {
+      machine: machine.machine,
+      policy,
+      aliases,
+      suggestPoint: false,
+      ...(ct ? { ct } : {}),
+      ...(companions.doseGrids.length ? { doseGrids: companions.doseGrids } : {}),
+    },
+  );
   const warnings = companions.warnings;
   return { ok: true, value: { result: warnings.length ? { ...result, warnings: [...result.warnings, ...warnings] } : result, machine } };
 }

@@ -10,7 +10,13 @@ import { VERSION } from './version.js';
  * The versioned result document of some checked plans, with what they were computed from. Pure:
  * the beam data's hash and the time are passed in by the caller, which reads files and the clock.
  */
-export function checkDocument(plans: readonly PlanCheck[], refused: readonly Issue[], beamData: BeamDataStamp, policy: Policy, createdAt: Date): CheckDocument {
+export function checkDocument(
+  plans: readonly PlanCheck[],
+  refused: readonly Issue[],
+  beamData: BeamDataStamp,
+  policy: Policy,
+  createdAt: Date,
+): CheckDocument {
   return CheckDocument.parse({
     schemaVersion: 2,
     kind: 'plumbline.check',

@@ -16,12 +16,19 @@ export interface FileOutcome {
  * is skipped, anything else unreadable is refused. With CT series, the plan uses the one in its frame
  * of reference (or the single one given for a single plan, whose mismatch the check then reports).
  */
-export function checkFile(f: CollectedFile, o: Omit<CheckOptions, 'ct'> & { cts: readonly NonNullable<CheckOptions['ct']>[]; singlePlan: boolean }): FileOutcome {
+export function checkFile(
+  f: CollectedFile,
+  o: Omit<CheckOptions, 'ct'> & { cts: readonly NonNullable<CheckOptions['ct']>[]; singlePlan: boolean },
+): FileOutcome {
   let bytes: Buffer;
   try {
     bytes = readFileSync(f.path);
   } catch (e) {
-    return { refused: [{ severity: 'error', code: 'unreadable', file: f.path, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` }] };
+    return {
+      refused: [
+        { severity: 'error', code: 'unreadable', file: f.path, message: `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})` },
+      ],
+    };
   }
   const r = importPlanBytes(bytes, f.path);
   if (!r.ok) {
@@ -31,7 +38,8 @@ export function checkFile(f: CollectedFile, o: Omit<CheckOptions, 'ct'> & { cts:
   }
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const { cts, singlePlan, ...options } = o;
-  const own = cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && singlePlan ? cts[0] : undefined);
+  const own =
+    cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && singlePlan ? cts[0] : undefined);
   const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, { ...options, ...(own ? { ct: own } : {}) });
   const planWarnings = cts.length && !own ? [note('no-ct-in-frame')] : [];
   return { plan: planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked, refused: [] };

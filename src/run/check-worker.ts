@@ -30,8 +30,14 @@ const aliases = new Map(job.aliases);
 // Sent one by one, so the main thread takes in results while this one checks the next files.
 job.files.forEach((f, k) => {
   const result = checkFile(f, {
-    machine: machine.value.machine, policy: policy.value, aliases, ...(job.point ? { pointPatientMm: job.point } : {}),
-    suggestPoint: job.suggestPoint, heterogeneity: job.heterogeneity, cts: [], singlePlan: false,
+    machine: machine.value.machine,
+    policy: policy.value,
+    aliases,
+    ...(job.point ? { pointPatientMm: job.point } : {}),
+    suggestPoint: job.suggestPoint,
+    heterogeneity: job.heterogeneity,
+    cts: [],
+    singlePlan: false,
   });
   parentPort!.postMessage({ k, result } satisfies WorkerMessage);
 });

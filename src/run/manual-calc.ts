@@ -32,8 +32,14 @@ export function photonCalc(machine: MachineModel, o: PhotonCalcRequest): { ok: t
   let trayId: string | undefined;
   if (o.tray === true) {
     if (beam.trays.length !== 1) {
-      return refuse([{ severity: 'error', code: 'invalid-option', message: `--tray needs an ID: beam ${beam.id} has ${beam.trays.length} trays`,
-        expected: beam.trays.map((t) => t.id).join(', ') || 'a beam with a tray' }]);
+      return refuse([
+        {
+          severity: 'error',
+          code: 'invalid-option',
+          message: `--tray needs an ID: beam ${beam.id} has ${beam.trays.length} trays`,
+          expected: beam.trays.map((t) => t.id).join(', ') || 'a beam with a tray',
+        },
+      ]);
     }
     trayId = beam.trays[0]!.id;
   } else if (typeof o.tray === 'string') trayId = o.tray;
@@ -41,10 +47,24 @@ export function photonCalc(machine: MachineModel, o: PhotonCalcRequest): { ok: t
   // isocenter unless an SSD is given, so SSD = SAD − depth.
   const ssdCm = o.ssd ?? (o.setup === 'SSD' ? machine.sadCm : machine.sadCm - o.depth);
   const ssdNote = o.ssd !== undefined ? 'given' : o.setup === 'SSD' ? 'the SAD, none given' : 'SAD − depth: the point at the isocenter, none given';
-  if (!(ssdCm > 0)) return refuse([{ severity: 'error', code: 'invalid-option', message: `the depth ${o.depth} cm puts the surface behind the source`, expected: `depth < ${machine.sadCm} cm` }]);
+  if (!(ssdCm > 0))
+    return refuse([
+      {
+        severity: 'error',
+        code: 'invalid-option',
+        message: `the depth ${o.depth} cm puts the surface behind the source`,
+        expected: `depth < ${machine.sadCm} cm`,
+      },
+    ]);
   const input: PhotonPointInput = {
-    setup: o.setup, collimatorFieldCm: o.field, ...(o.irradiated !== undefined ? { irradiatedSquareCm: o.irradiated } : {}), depthCm: o.depth, ssdCm,
-    ...(o.offAxis !== undefined ? { offAxisCm: o.offAxis } : {}), ...(o.wedge !== undefined ? { wedgeId: o.wedge } : {}), ...(trayId !== undefined ? { trayId } : {}),
+    setup: o.setup,
+    collimatorFieldCm: o.field,
+    ...(o.irradiated !== undefined ? { irradiatedSquareCm: o.irradiated } : {}),
+    depthCm: o.depth,
+    ssdCm,
+    ...(o.offAxis !== undefined ? { offAxisCm: o.offAxis } : {}),
+    ...(o.wedge !== undefined ? { wedgeId: o.wedge } : {}),
+    ...(trayId !== undefined ? { trayId } : {}),
   };
   const r = photonDosePerMu(beam, machine.sadCm, input);
   if (!r.ok) return refuse(r.issues);
@@ -71,17 +91,44 @@ export function electronCalc(machine: MachineModel, o: ElectronCalcRequest): { o
   if (!found.ok) return refuse([found.issue]);
   const beam = found.beam;
   const app = beam.applicators.find((a) => a.id === o.applicator);
-  if (!app) return refuse([{ severity: 'error', code: 'missing-table', message: `electron beam ${beam.id} has no applicator "${o.applicator}"`, expected: beam.applicators.map((a) => a.id).join(', '), found: o.applicator }]);
+  if (!app)
+    return refuse([
+      {
+        severity: 'error',
+        code: 'missing-table',
+        message: `electron beam ${beam.id} has no applicator "${o.applicator}"`,
+        expected: beam.applicators.map((a) => a.id).join(', '),
+        found: o.applicator,
+      },
+    ]);
   const field: ElectronPointInput['field'] = o.cutout ?? { kind: 'equivalent-square', sideCm: app.sideCm, method: 'the open applicator' };
   const depthCm = o.depth ?? electronIsodoseDepthCm(beam, field, o.isodose!);
   if (depthCm === undefined) {
-    return refuse([{ severity: 'error', code: 'out-of-range', message: `the ${o.isodose} % isodose is not reached beyond dmax within ${beam.id}'s PDD table for this cutout`,
-      expected: 'an isodose level the PDD passes through beyond dmax' }]);
+    return refuse([
+      {
+        severity: 'error',
+        code: 'out-of-range',
+        message: `the ${o.isodose} % isodose is not reached beyond dmax within ${beam.id}'s PDD table for this cutout`,
+        expected: 'an isodose level the PDD passes through beyond dmax',
+      },
+    ]);
   }
   const input: ElectronPointInput = { applicatorId: app.id, field, depthCm, ssdCm: o.ssd ?? beam.calibration.ssd0Cm };
   const r = electronDosePerMu(beam, input);
   if (!r.ok) return refuse(r.issues);
   const mu = o.mu ?? o.dose! / r.value.dosePerMuCGy;
   const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
-  return { ok: true, value: { machine, beam, input, result: r.value, mu, doseCGy, given: o.mu !== undefined ? 'mu' : 'dose', ...(o.isodose !== undefined ? { isodosePercent: o.isodose } : {}) } };
+  return {
+    ok: true,
+    value: {
+      machine,
+      beam,
+      input,
+      result: r.value,
+      mu,
+      doseCGy,
+      given: o.mu !== undefined ? 'mu' : 'dose',
+      ...(o.isodose !== undefined ? { isodosePercent: o.isodose } : {}),
+    },
+  };
 }

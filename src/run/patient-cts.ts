@@ -10,29 +10,57 @@ import { resolveDemoFile } from './demo-files.js';
  * Reads `--ct` (folders or files; every CT series among them) with `--density` (a CSV, or `demo`
  * for the invented demo table). Each plan then uses the series in its own frame of reference.
  */
-export function loadPatientCts(ctPaths: readonly string[], density: string | undefined, bodyThresholdHu: number, structuresFile?: string): { ok: true; value: PatientCt[] } | { ok: false; issues: readonly Issue[] } {
+export function loadPatientCts(
+  ctPaths: readonly string[],
+  density: string | undefined,
+  bodyThresholdHu: number,
+  structuresFile?: string,
+): { ok: true; value: PatientCt[] } | { ok: false; issues: readonly Issue[] } {
   if (!density) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-option', message: "--ct needs --density: the clinic's HU to relative electron density table (CSV)" }] };
+    return {
+      ok: false,
+      issues: [
+        { severity: 'error', code: 'invalid-option', message: "--ct needs --density: the clinic's HU to relative electron density table (CSV)" },
+      ],
+    };
   }
   const table = loadDensityTable(density === 'demo' ? resolveDemoFile('ct/hu-to-density.csv') : density);
   if (!table.ok) return table;
   const files = collectFiles(ctPaths).map((f) => f.path);
   const { volumes, issues } = readCtVolumes(files);
   if (issues.length) return { ok: false, issues };
-  if (!volumes.length) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: `no CT series found in ${ctPaths.join(', ')}` }] };
+  if (!volumes.length)
+    return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', message: `no CT series found in ${ctPaths.join(', ')}` }] };
   let external: Structure | undefined;
   if (structuresFile) {
     const rs = readRtStruct(structuresFile);
     if (!rs.ok) return rs;
     external = rs.value.structures.find((s) => s.type === 'EXTERNAL');
-    if (!external) return { ok: false, issues: [{ severity: 'error', code: 'missing-attribute', file: structuresFile, message: 'the structure set has no EXTERNAL structure (the body)', expected: 'an ROI of RT ROI Interpreted Type EXTERNAL' }] };
+    if (!external)
+      return {
+        ok: false,
+        issues: [
+          {
+            severity: 'error',
+            code: 'missing-attribute',
+            file: structuresFile,
+            message: 'the structure set has no EXTERNAL structure (the body)',
+            expected: 'an ROI of RT ROI Interpreted Type EXTERNAL',
+          },
+        ],
+      };
   }
   return {
     ok: true,
     value: volumes.map((volume) => {
       const own = external && (!external.frameOfReferenceUid || external.frameOfReferenceUid === volume.frameOfReferenceUid) ? external : undefined;
-      return { volume, density: table.value.density, densityTable: table.value.file, bodyThresholdHu,
-        ...(own ? { body: bodySurface(volume, own), bodySource: `EXTERNAL "${own.name}"` } : { bodySource: `HU >= ${bodyThresholdHu}` }) };
+      return {
+        volume,
+        density: table.value.density,
+        densityTable: table.value.file,
+        bodyThresholdHu,
+        ...(own ? { body: bodySurface(volume, own), bodySource: `EXTERNAL "${own.name}"` } : { bodySource: `HU >= ${bodyThresholdHu}` }),
+      };
     }),
   };
 }

@@ -23,16 +23,39 @@ export function planDepthsFromCt(planFile: string, o: DepthRequest): { ok: true;
   if (!cts.ok) return cts;
   const ct = cts.value.find((c) => c.volume.frameOfReferenceUid === plan.frameOfReferenceUid);
   if (!ct) {
-    return { ok: false, issues: [{ severity: 'error', code: 'inconsistent', file: planFile, path: 'FrameOfReferenceUID', message: 'no CT series in the plan\'s frame of reference',
-      expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`, found: cts.value.map((c) => c.volume.frameOfReferenceUid).join(', ') }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          severity: 'error',
+          code: 'inconsistent',
+          file: planFile,
+          path: 'FrameOfReferenceUID',
+          message: "no CT series in the plan's frame of reference",
+          expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`,
+          found: cts.value.map((c) => c.volume.frameOfReferenceUid).join(', '),
+        },
+      ],
+    };
   }
   const v = ct.volume;
   return {
     ok: true,
     value: DepthDocument.parse({
-      schemaVersion: 2, kind: 'plumbline.depth', tool: { name: 'plumbline', version: VERSION }, plan: planFile,
-      ct: { seriesInstanceUid: v.seriesInstanceUid, frameOfReferenceUid: v.frameOfReferenceUid, slices: v.slices, bodyThresholdHu: o.bodyThresholdHu, body: ct.bodySource, densityTable: ct.densityTable },
-      beams: planDepths(plan, ct), caution: CAUTION,
+      schemaVersion: 2,
+      kind: 'plumbline.depth',
+      tool: { name: 'plumbline', version: VERSION },
+      plan: planFile,
+      ct: {
+        seriesInstanceUid: v.seriesInstanceUid,
+        frameOfReferenceUid: v.frameOfReferenceUid,
+        slices: v.slices,
+        bodyThresholdHu: o.bodyThresholdHu,
+        body: ct.bodySource,
+        densityTable: ct.densityTable,
+      },
+      beams: planDepths(plan, ct),
+      caution: CAUTION,
     }),
   };
 }

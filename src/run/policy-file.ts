@@ -9,9 +9,22 @@ export function loadPolicy(file: string | undefined): { ok: true; value: Policy 
   try {
     json = JSON.parse(readFileSync(file, 'utf8'));
   } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-manifest', file, message: `cannot read the policy (${(e as Error).message})` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'invalid-manifest', file, message: `cannot read the policy (${(e as Error).message})` }],
+    };
   }
   const p = Policy.safeParse(json);
-  if (!p.success) return { ok: false, issues: p.error.issues.map((i) => ({ severity: 'error' as const, code: 'invalid-manifest' as const, file, path: i.path.join('.'), message: i.message })) };
+  if (!p.success)
+    return {
+      ok: false,
+      issues: p.error.issues.map((i) => ({
+        severity: 'error' as const,
+        code: 'invalid-manifest' as const,
+        file,
+        path: i.path.join('.'),
+        message: i.message,
+      })),
+    };
   return { ok: true, value: p.data };
 }

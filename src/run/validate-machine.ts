@@ -16,5 +16,9 @@ export function validateMachine(manifestArg: string): MachineValidation {
   const loaded = loadMachine(file);
   if (!loaded.ok) return { file, issues: loaded.issues };
   const lm = loaded.value;
-  return { file, issues: [...loaded.warnings, ...validateBeamData(lm)], loaded: { photonBeams: lm.machine.beams.length, electronBeams: lm.machine.electronBeams.length, tables: lm.tables.length } };
+  return {
+    file,
+    issues: [...loaded.warnings, ...validateBeamData(lm)],
+    loaded: { photonBeams: lm.machine.beams.length, electronBeams: lm.machine.electronBeams.length, tables: lm.tables.length },
+  };
 }

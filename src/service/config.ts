@@ -3,7 +3,10 @@ import { dirname, isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
 import type { Issue } from '../model/index.js';
 
-const AeTitle = z.string().regex(/^[ -~]{1,16}$/, 'an AE title is 1 to 16 printable ASCII characters').refine((s) => s.trim() === s && !s.includes('\\'), 'no leading or trailing spaces, no backslash');
+const AeTitle = z
+  .string()
+  .regex(/^[ -~]{1,16}$/, 'an AE title is 1 to 16 printable ASCII characters')
+  .refine((s) => s.trim() === s && !s.includes('\\'), 'no leading or trailing spaces, no backslash');
 
 /**
  * The service's configuration file: where objects arrive and go, who may send, which beam data
@@ -23,7 +26,11 @@ export const ServiceConfig = z
         /** Calling AE titles allowed to associate; any other is rejected at association. */
         allowedCallingAeTitles: z.array(AeTitle).min(1),
         /** Objects larger than this are refused (bytes). */
-        maxObjectBytes: z.number().int().positive().default(2 * 1024 ** 3),
+        maxObjectBytes: z
+          .number()
+          .int()
+          .positive()
+          .default(2 * 1024 ** 3),
       })
       .strict()
       .optional(),
@@ -41,12 +48,18 @@ export const ServiceConfig = z
     /** Beam-data manifests, one per machine (the manifest names the machine and its aliases), or 'demo'. */
     beamData: z.array(z.string().min(1)).min(1),
     policy: z.string().min(1).optional(),
-    ct: z.object({ density: z.string().min(1), bodyThresholdHu: z.number().int().optional() }).strict().optional(),
+    ct: z
+      .object({ density: z.string().min(1), bodyThresholdHu: z.number().int().optional() })
+      .strict()
+      .optional(),
     /** Seconds without a new object in a frame of reference before its plans are checked. */
     settleSeconds: z.number().nonnegative().default(30),
     /** Hours a group without any plan (a CT, structures or dose alone) waits for its plan before it is archived unchecked. */
     orphanHours: z.number().positive().default(72),
-    serve: z.object({ host: z.string().min(1).default('127.0.0.1'), port: z.number().int().min(1).max(65535).default(8470) }).strict().default({ host: '127.0.0.1', port: 8470 }),
+    serve: z
+      .object({ host: z.string().min(1).default('127.0.0.1'), port: z.number().int().min(1).max(65535).default(8470) })
+      .strict()
+      .default({ host: '127.0.0.1', port: 8470 }),
   })
   .strict();
 export type ServiceConfig = z.infer<typeof ServiceConfig>;
@@ -57,10 +70,23 @@ export function loadServiceConfig(file: string): { ok: true; value: ServiceConfi
   try {
     json = JSON.parse(readFileSync(file, 'utf8'));
   } catch (e) {
-    return { ok: false, issues: [{ severity: 'error', code: 'invalid-option', file, message: `cannot read the service configuration (${(e as Error).message})` }] };
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'invalid-option', file, message: `cannot read the service configuration (${(e as Error).message})` }],
+    };
   }
   const p = ServiceConfig.safeParse(json);
-  if (!p.success) return { ok: false, issues: p.error.issues.map((i) => ({ severity: 'error' as const, code: 'invalid-option' as const, file, path: i.path.join('.'), message: i.message })) };
+  if (!p.success)
+    return {
+      ok: false,
+      issues: p.error.issues.map((i) => ({
+        severity: 'error' as const,
+        code: 'invalid-option' as const,
+        file,
+        path: i.path.join('.'),
+        message: i.message,
+      })),
+    };
   const base = dirname(resolve(file));
   const at = (p: string) => (p === 'demo' || isAbsolute(p) ? p : resolve(base, p));
   const c = p.data;

@@ -1,7 +1,17 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { beamDataStamp, checkArrivedPlan, checkDocument, type LoadedMachine, loadCompanions, type ObjectSummary, type Policy, readObjectSummary, VERSION } from '../run/index.js';
+import {
+  beamDataStamp,
+  checkArrivedPlan,
+  checkDocument,
+  type LoadedMachine,
+  loadCompanions,
+  type ObjectSummary,
+  type Policy,
+  readObjectSummary,
+  VERSION,
+} from '../run/index.js';
 import { checkHtml } from '../report/check-html.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
@@ -70,7 +80,9 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
     const settled = quietMs >= ctx.config.settleSeconds * 1000;
     const plans = group.filter((e) => e.summary.kind === 'plan');
     if (plans.length === 0 && quietMs >= ctx.config.orphanHours * 3_600_000) {
-      ctx.log(`${group.length} object(s) (${[...new Set(group.map((e) => e.summary.kind))].join(', ')}) waited ${ctx.config.orphanHours} h for a plan in their frame of reference: archived unchecked`);
+      ctx.log(
+        `${group.length} object(s) (${[...new Set(group.map((e) => e.summary.kind))].join(', ')}) waited ${ctx.config.orphanHours} h for a plan in their frame of reference: archived unchecked`,
+      );
       for (const e of group) archive(ctx, e);
       continue;
     }
@@ -87,7 +99,11 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
   return { checked, duplicates, refused, waiting };
 }
 
-function checkGroup(ctx: PipelineContext, group: readonly Entry[], plans: readonly Entry[]): { checked: number; duplicates: number; refused: number } {
+function checkGroup(
+  ctx: PipelineContext,
+  group: readonly Entry[],
+  plans: readonly Entry[],
+): { checked: number; duplicates: number; refused: number } {
   const of = (kind: string) => group.filter((e) => e.summary.kind === kind).map((e) => e.file);
   const companions = loadCompanions({ ctFiles: of('ct'), structuresFile: of('structures')[0], doseFiles: of('dose') }, ctx.config.ct, ctx.policy);
   let checked = 0;
@@ -109,9 +125,19 @@ function checkGroup(ctx: PipelineContext, group: readonly Entry[], plans: readon
     const recordedAt = new Date(ctx.now());
     const stamp = beamDataStamp(machine);
     const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
-    const inputs: CheckInput[] = group.filter((e) => e.summary.kind !== 'plan' || e === p).map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
-    const id = ctx.history.recordCheck({ recordedAt: recordedAt.toISOString(), result, planSha256: p.sha256, toolVersion: VERSION,
-      beamDataVersion: stamp.dataVersion, beamDataSha256: stamp.sha256, inputs, html: checkHtml(doc) });
+    const inputs: CheckInput[] = group
+      .filter((e) => e.summary.kind !== 'plan' || e === p)
+      .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
+    const id = ctx.history.recordCheck({
+      recordedAt: recordedAt.toISOString(),
+      result,
+      planSha256: p.sha256,
+      toolVersion: VERSION,
+      beamDataVersion: stamp.dataVersion,
+      beamDataSha256: stamp.sha256,
+      inputs,
+      html: checkHtml(doc),
+    });
     ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${result.verdict}${result.fullyVerified ? '' : ', not fully verified'}`);
     checked++;
   }

@@ -23,7 +23,12 @@ export interface ReceiverOptions {
 
 const ACCEPTED_SOP_CLASSES = new Set<string>([SopClass.Verification, ...Object.values(STORAGE_CLASSES)]);
 /** In order of preference; every SCP must accept Implicit VR Little Endian. */
-const ACCEPTED_TRANSFER_SYNTAXES = [TransferSyntax.ExplicitVRLittleEndian, TransferSyntax.ImplicitVRLittleEndian, TransferSyntax.ExplicitVRBigEndian, '1.2.840.10008.1.2.1.99'];
+const ACCEPTED_TRANSFER_SYNTAXES = [
+  TransferSyntax.ExplicitVRLittleEndian,
+  TransferSyntax.ImplicitVRLittleEndian,
+  TransferSyntax.ExplicitVRBigEndian,
+  '1.2.840.10008.1.2.1.99',
+];
 /** Our implementation UID (a UUID-derived OID, PS3.5 B.2) and name, written in each stored file's meta header. */
 const IMPLEMENTATION_UID = '2.25.301929349735478839237066361593011584412';
 const IMPLEMENTATION_NAME = `PLUMBLINE_${VERSION}`.slice(0, 16);
@@ -79,11 +84,21 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
       this.sendAssociationAccept();
     }
 
-    createStoreWritableStream(pc: { getAcceptedTransferSyntaxUid(): string | undefined }, request: { getAffectedSopClassUid(): string; getAffectedSopInstanceUid(): string }): Writable {
+    createStoreWritableStream(
+      pc: { getAcceptedTransferSyntaxUid(): string | undefined },
+      request: { getAffectedSopClassUid(): string; getAffectedSopInstanceUid(): string },
+    ): Writable {
       const tmp = join(incoming, `${randomUUID()}.part`);
       this.partial.add(tmp);
       const fd = openSync(tmp, 'w');
-      writeSync(fd, metaHeader(request.getAffectedSopClassUid(), request.getAffectedSopInstanceUid(), pc.getAcceptedTransferSyntaxUid() ?? TransferSyntax.ImplicitVRLittleEndian));
+      writeSync(
+        fd,
+        metaHeader(
+          request.getAffectedSopClassUid(),
+          request.getAffectedSopInstanceUid(),
+          pc.getAcceptedTransferSyntaxUid() ?? TransferSyntax.ImplicitVRLittleEndian,
+        ),
+      );
       let bytes = 0;
       let closed = false;
       const finish = () => {
@@ -113,7 +128,11 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
       return w;
     }
 
-    createDatasetFromStoreWritableStream(w: Writable, pc: { getAcceptedTransferSyntaxUid(): string | undefined }, callback: (d: InstanceType<typeof Dataset>) => void): void {
+    createDatasetFromStoreWritableStream(
+      w: Writable,
+      pc: { getAcceptedTransferSyntaxUid(): string | undefined },
+      callback: (d: InstanceType<typeof Dataset>) => void,
+    ): void {
       const d = new Dataset({}, pc.getAcceptedTransferSyntaxUid());
       Object.assign(d, { plumbline: (w as unknown as { plumbline: unknown }).plumbline });
       callback(d);
@@ -205,8 +224,12 @@ function metaHeader(sopClass: string, sopInstance: string, transferSyntax: strin
     return Buffer.concat([h, padded]);
   };
   const body = Buffer.concat([
-    element(0x0001, 'OB', Buffer.from([0, 1])), element(0x0002, 'UI', Buffer.from(sopClass)), element(0x0003, 'UI', Buffer.from(sopInstance)),
-    element(0x0010, 'UI', Buffer.from(transferSyntax)), element(0x0012, 'UI', Buffer.from(IMPLEMENTATION_UID)), element(0x0013, 'SH', Buffer.from(IMPLEMENTATION_NAME)),
+    element(0x0001, 'OB', Buffer.from([0, 1])),
+    element(0x0002, 'UI', Buffer.from(sopClass)),
+    element(0x0003, 'UI', Buffer.from(sopInstance)),
+    element(0x0010, 'UI', Buffer.from(transferSyntax)),
+    element(0x0012, 'UI', Buffer.from(IMPLEMENTATION_UID)),
+    element(0x0013, 'SH', Buffer.from(IMPLEMENTATION_NAME)),
   ]);
   const length = Buffer.alloc(4);
   length.writeUInt32LE(body.length);

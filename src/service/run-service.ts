@@ -26,7 +26,11 @@ export function openService(config: ServiceConfig): { ok: true; value: Omit<Pipe
     machines.push(loaded.value);
   }
   const [first, ...others] = machines;
-  if (!first) return { ok: false, issues: [{ severity: 'error', code: 'invalid-manifest', path: 'beamData', message: 'the configuration names no beam data' }] };
+  if (!first)
+    return {
+      ok: false,
+      issues: [{ severity: 'error', code: 'invalid-manifest', path: 'beamData', message: 'the configuration names no beam data' }],
+    };
   const policy = loadPolicy(config.policy);
   if (!policy.ok) return policy;
   return { ok: true, value: { config, machines: [first, ...others], policy: policy.value, history: new HistoryStore(config.history.database) } };
@@ -36,7 +40,10 @@ export function openService(config: ServiceConfig): { ok: true; value: Omit<Pipe
  * Runs intake: the DICOM receiver (when `receive`), the watched folder (when given), and the
  * pipeline every second over the inbox, one pass at a time.
  */
-export async function runService(base: Omit<PipelineContext, 'log' | 'now'>, o: { receive: boolean; watch?: string; log: (line: string) => void }): Promise<RunningService> {
+export async function runService(
+  base: Omit<PipelineContext, 'log' | 'now'>,
+  o: { receive: boolean; watch?: string; log: (line: string) => void },
+): Promise<RunningService> {
   const ctx: PipelineContext = { ...base, log: o.log, now: () => Date.now() };
   let busy = false;
   const pass = () => {
@@ -44,7 +51,8 @@ export async function runService(base: Omit<PipelineContext, 'log' | 'now'>, o: 
     busy = true;
     try {
       const r = processInbox(ctx);
-      if (r.checked || r.duplicates || r.refused) o.log(`pass: ${r.checked} checked, ${r.duplicates} duplicate(s), ${r.refused} refused, ${r.waiting} waiting`);
+      if (r.checked || r.duplicates || r.refused)
+        o.log(`pass: ${r.checked} checked, ${r.duplicates} duplicate(s), ${r.refused} refused, ${r.waiting} waiting`);
     } catch (e) {
       o.log(`pipeline error (will retry): ${(e as Error).message}`);
     } finally {
@@ -53,9 +61,18 @@ export async function runService(base: Omit<PipelineContext, 'log' | 'now'>, o: 
   };
   const rc = base.config.receiver;
   if (o.receive && !rc) throw new Error('the configuration has no receiver section');
-  const receiver = o.receive && rc
-    ? await startReceiver({ host: rc.host, port: rc.port, aeTitle: rc.aeTitle, allowedCallingAeTitles: rc.allowedCallingAeTitles, maxObjectBytes: rc.maxObjectBytes, inbox: base.config.folders.inbox, log: o.log })
-    : undefined;
+  const receiver =
+    o.receive && rc
+      ? await startReceiver({
+          host: rc.host,
+          port: rc.port,
+          aeTitle: rc.aeTitle,
+          allowedCallingAeTitles: rc.allowedCallingAeTitles,
+          maxObjectBytes: rc.maxObjectBytes,
+          inbox: base.config.folders.inbox,
+          log: o.log,
+        })
+      : undefined;
   const watchState: WatchState = { seen: new Map() };
   const timer = setInterval(() => {
     if (o.watch) {

@@ -18,7 +18,13 @@ describe('table interpolation', () => {
   it('reproduces a plane exactly (bilinear), at nodes, edges and inside', () => {
     const t = plane();
     const log: LookupLog = [];
-    for (const [d, s] of [[0, 5], [20, 10], [7.5, 6.25], [13, 9.9]] as const) expect(t.at(d, s, log)).toBeCloseTo(2 * d + 3 * s, 12);
+    for (const [d, s] of [
+      [0, 5],
+      [20, 10],
+      [7.5, 6.25],
+      [13, 9.9],
+    ] as const)
+      expect(t.at(d, s, log)).toBeCloseTo(2 * d + 3 * s, 12);
     expect(log).toEqual([]);
   });
   it('refuses a lookup outside the range with a note naming table, axis and range', () => {
@@ -40,8 +46,13 @@ describe('table interpolation', () => {
     expect(log).toHaveLength(1);
   });
   it('log-linear in depth reproduces an exponential exactly', () => {
-    const t = makeTableLookup({ name: 'exp', rows: axis('depth', [0, 10, 20]), columns: axis('fieldSide', [5, 10]),
-      values: Float64Array.from([1, 1, Math.exp(-0.5), Math.exp(-0.5), Math.exp(-1), Math.exp(-1)]), interpolation: 'log-linear-rows' });
+    const t = makeTableLookup({
+      name: 'exp',
+      rows: axis('depth', [0, 10, 20]),
+      columns: axis('fieldSide', [5, 10]),
+      values: Float64Array.from([1, 1, Math.exp(-0.5), Math.exp(-0.5), Math.exp(-1), Math.exp(-1)]),
+      interpolation: 'log-linear-rows',
+    });
     expect(t.at(3, 7, [])).toBeCloseTo(Math.exp(-0.15), 12);
   });
   it('a one-point axis answers only at its point', () => {
@@ -51,8 +62,14 @@ describe('table interpolation', () => {
     expect(t.at(10.1, 0, log)).toBeNaN();
   });
   it('a row taken once answers exactly as the full lookup, with the same refusals and clamps', () => {
-    const exp = makeTableLookup({ name: 'exp', rows: axis('depth', [0, 10, 20]), columns: axis('fieldSide', [5, 10, 20]),
-      values: Float64Array.from([1, 1, 1, 0.6, 0.62, 0.65, 0.35, 0.38, 0.41]), interpolation: 'log-linear-rows', clamp: { columnsAbove: 2, rowsBelow: 0.5 } });
+    const exp = makeTableLookup({
+      name: 'exp',
+      rows: axis('depth', [0, 10, 20]),
+      columns: axis('fieldSide', [5, 10, 20]),
+      values: Float64Array.from([1, 1, 1, 0.6, 0.62, 0.65, 0.35, 0.38, 0.41]),
+      interpolation: 'log-linear-rows',
+      clamp: { columnsAbove: 2, rowsBelow: 0.5 },
+    });
     for (const t of [plane({ columnsAbove: 1 }), exp]) {
       for (const depth of [0, 3.3, 10, 17.25, 20, -0.3]) {
         const fromRow: LookupLog = [];

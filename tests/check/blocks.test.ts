@@ -12,14 +12,25 @@ type BlockSpec = { type: 'APERTURE' | 'SHIELDING'; outline: readonly (readonly [
 const plan = (name: string, block?: BlockSpec, ssd = 900): Plan => {
   const point: [number, number, number] = ssd === 1000 ? [0, 100, 0] : iso;
   return planFromSpec({
-    file: `${name}.dcm`, patientId: 'BLK-1', patientName: 'Block^Test', label: name, name, description: 'test',
+    file: `${name}.dcm`,
+    patientId: 'BLK-1',
+    patientName: 'Block^Test',
+    label: name,
+    name,
+    description: 'test',
     doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
     fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
     beams: [staticBeam(1, 'AP', 6, 0, ssd, iso, { ...(block ? { block } : {}), first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
   }).plan;
 };
 const dose = (p: Plan) => beams(check(p, demo))[0]!;
-const square = (lo: number, hi: number) => [[lo, lo], [hi, lo], [hi, hi], [lo, hi]] as const;
+const square = (lo: number, hi: number) =>
+  [
+    [lo, lo],
+    [hi, lo],
+    [hi, hi],
+    [lo, hi],
+  ] as const;
 
 describe('blocked photon fields', () => {
   const open = dose(plan('open'));
@@ -36,7 +47,9 @@ describe('blocked photon fields', () => {
     const d = blocked.calculation!.independentDoseCGy / 0.97;
     expect(d).toBeLessThan(open.calculation!.independentDoseCGy);
     expect(d).toBeGreaterThan(0.97 * open.calculation!.independentDoseCGy);
-    expect(blocked.calculation!.approximations).toContainEqual(expect.objectContaining({ code: 'clarkson-irregular', values: expect.objectContaining({ blocks: 1, sectors: 72 }) }));
+    expect(blocked.calculation!.approximations).toContainEqual(
+      expect.objectContaining({ code: 'clarkson-irregular', values: expect.objectContaining({ blocks: 1, sectors: 72 }) }),
+    );
   });
   it('a blocked field at SSD 100 is calculated in the TPR form at the point, and says so', () => {
     const b = dose(plan('ssd', { type: 'SHIELDING', outline: square(40, 100), trayId: 'BLOCK_TRAY', transmission: 0 }, 1000));
@@ -46,13 +59,28 @@ describe('blocked photon fields', () => {
   });
   it('a point 1 cm from a block edge is flagged, though far from the jaws, and a blocked field is irregular', () => {
     // Shielding block from x = 10 mm outwards, the point (the isocenter) 10 mm from its edge, 90 mm from the jaws.
-    const b = dose(plan('near-block', { type: 'SHIELDING', outline: [[10, -100], [100, -100], [100, 100], [10, 100]], trayId: 'BLOCK_TRAY', transmission: 0 }));
+    const b = dose(
+      plan('near-block', {
+        type: 'SHIELDING',
+        outline: [
+          [10, -100],
+          [100, -100],
+          [100, 100],
+          [10, 100],
+        ],
+        trayId: 'BLOCK_TRAY',
+        transmission: 0,
+      }),
+    );
     expect(b.fitness!.edgeDistanceCm).toBeCloseTo(1, 1);
     expect(b.fitness!.flags.map((f) => f.code)).toContain('near-field-edge');
     expect(b.category).toBe('irregular-or-small');
   });
   it('refuses a point under the block and a tray the beam data do not know', () => {
-    expect(dose(plan('under', { type: 'SHIELDING', outline: square(-20, 20), trayId: 'BLOCK_TRAY', transmission: 0 })).reason).toEqual({ code: 'point-blocked', values: {} });
+    expect(dose(plan('under', { type: 'SHIELDING', outline: square(-20, 20), trayId: 'BLOCK_TRAY', transmission: 0 })).reason).toEqual({
+      code: 'point-blocked',
+      values: {},
+    });
     const r = check(plan('tray', { type: 'SHIELDING', outline: square(40, 100), trayId: 'TRAY-9', transmission: 0 }), demo);
     expect(r.issues[0]!.message).toMatch(/no tray "TRAY-9"/);
   });

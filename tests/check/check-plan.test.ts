@@ -56,7 +56,9 @@ describe('checking the demo clinic', () => {
   it('integrates the MLC-shaped field by Clarkson sectors (SAD setup) and puts it in the irregular category', () => {
     const b = beams(check(importOrThrow(clinic('lung-mlc.dcm')), demo))[0]!;
     expect(b.calculation!.factors.map((f) => f.key)).toEqual(['D0', 'Sc', 'SpTPR', 'ISF', 'OAR']);
-    expect(b.calculation!.approximations).toContainEqual(expect.objectContaining({ code: 'clarkson-irregular', values: expect.objectContaining({ mlc: 1, sectors: 72 }) }));
+    expect(b.calculation!.approximations).toContainEqual(
+      expect.objectContaining({ code: 'clarkson-irregular', values: expect.objectContaining({ mlc: 1, sectors: 72 }) }),
+    );
     expect(b.category).toBe('irregular-or-small');
   });
 });

@@ -11,15 +11,38 @@ import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
-const plan = (name: string, depthMm: number, extra: { applicator?: string; cutout?: readonly (readonly [number, number])[]; depthData?: { depthMm: number; equivalentDepthMm: number; ssdMm: number } } = {}): PlanCheck => {
+const plan = (
+  name: string,
+  depthMm: number,
+  extra: {
+    applicator?: string;
+    cutout?: readonly (readonly [number, number])[];
+    depthData?: { depthMm: number; equivalentDepthMm: number; ssdMm: number };
+  } = {},
+): PlanCheck => {
   const point: [number, number, number] = [0, depthMm, 0];
-  return check(planFromSpec({
-    file: `${name}.dcm`, patientId: 'E-1', patientName: 'Electron^Test', label: name, name, description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-    beams: [staticBeam(1, 'E9', 9, 0, 1000, iso, { radiation: 'ELECTRON', applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' },
-      ...(extra.cutout ? { cutout: extra.cutout } : {}), ...(extra.depthData ? { depthData: extra.depthData } : {}), first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
-  }).plan, demo);
+  return check(
+    planFromSpec({
+      file: `${name}.dcm`,
+      patientId: 'E-1',
+      patientName: 'Electron^Test',
+      label: name,
+      name,
+      description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
+      beams: [
+        staticBeam(1, 'E9', 9, 0, 1000, iso, {
+          radiation: 'ELECTRON',
+          applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' },
+          ...(extra.cutout ? { cutout: extra.cutout } : {}),
+          ...(extra.depthData ? { depthData: extra.depthData } : {}),
+          first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
+        }),
+      ],
+    }).plan,
+    demo,
+  );
 };
 const beam = (r: PlanCheck): BeamCheck => beams(r)[0]!;
 
@@ -32,7 +55,7 @@ describe('electron beams in the check', () => {
     expect(t.ssdDifferenceMm).toBeCloseTo(1, 9);
     expect(t.equivalentDepthDifferenceMm).toBeUndefined(); // no CT: no radiological depth of ours
   });
-  it('at the open applicator\'s dmax (2.0 cm for 9 MeV, A10): PDD 100 %, Se 1, no flag', () => {
+  it("at the open applicator's dmax (2.0 cm for 9 MeV, A10): PDD 100 %, Se 1, no flag", () => {
     const b = beam(plan('e-dmax', 20));
     expect(b.calculation!.depthCm).toBeCloseTo(2, 9);
     expect(b.calculation!.electron!.pddPercent).toBeCloseTo(100, 6);
@@ -43,9 +66,22 @@ describe('electron beams in the check', () => {
     expect(beam(plan('e-shallow', 5)).fitness!.flags.map((f) => f.code)).toEqual(['electron-build-up']);
     expect(beam(plan('e-deep', 40)).fitness!.flags.map((f) => f.code)).toEqual(['steep-fall-off']);
   });
-  it('a rectangular cutout uses the square-root rule (its Se is the geometric mean of the squares\')', () => {
-    const rect = beam(plan('e-rect', 20, { cutout: [[-30, -40], [30, -40], [30, 40], [-30, 40]] }));
-    const se = (side: number) => demo.electronBeams.find((e) => e.id === '9E')!.applicators.find((a) => a.id === 'A10')!.outputFactor.at(side, 0, []);
+  it("a rectangular cutout uses the square-root rule (its Se is the geometric mean of the squares')", () => {
+    const rect = beam(
+      plan('e-rect', 20, {
+        cutout: [
+          [-30, -40],
+          [30, -40],
+          [30, 40],
+          [-30, 40],
+        ],
+      }),
+    );
+    const se = (side: number) =>
+      demo.electronBeams
+        .find((e) => e.id === '9E')!
+        .applicators.find((a) => a.id === 'A10')!
+        .outputFactor.at(side, 0, []);
     expect(rect.calculation!.factors.find((f) => f.key === 'Se')!.value).toBeCloseTo(Math.sqrt(se(6) * se(8)), 12);
     expect(rect.calculation!.electron!.cutout).toBe('rectangle');
   });

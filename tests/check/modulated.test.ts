@@ -14,7 +14,15 @@ import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
 import { loadDensityTable } from '../../src/beamdata/index.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
 import { readCtSeries } from '../../src/dicom/index.js';
-import { type BeamSpec, type ControlPointSpec, coordinatesDoseReference, ellipseLeaves, MLC_PAIRS, type PlanSpec, staticBeam } from '../../scripts/fixtures/plan-parts.js';
+import {
+  type BeamSpec,
+  type ControlPointSpec,
+  coordinatesDoseReference,
+  ellipseLeaves,
+  MLC_PAIRS,
+  type PlanSpec,
+  staticBeam,
+} from '../../scripts/fixtures/plan-parts.js';
 import type { BeamCheck } from '../../src/model/index.js';
 import { beams, check, importOrThrow, planFromSpec } from '../helpers/check-run.js';
 import { demoPlan } from '../helpers/fixtures.js';
@@ -23,7 +31,12 @@ import { DEMO_MANIFEST, beam as dataBeam, machine, manifestPath } from '../helpe
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
 const spec = (name: string, b: BeamSpec): PlanSpec => ({
-  file: `${name}.dcm`, patientId: 'MOD-1', patientName: 'Modulated^Test', label: name, name, description: 'test',
+  file: `${name}.dcm`,
+  patientId: 'MOD-1',
+  patientName: 'Modulated^Test',
+  label: name,
+  name,
+  description: 'test',
   doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
   fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
   beams: [b],
@@ -33,8 +46,14 @@ const run = (name: string, b: BeamSpec): BeamCheck => beams(check(planFromSpec(s
 /** The same first control point, repeated n times with the meterset spread evenly (the gantry never moves). */
 function asArc(b: BeamSpec, n: number, perControlPoint: (j: number) => Partial<ControlPointSpec> = () => ({})): BeamSpec {
   const first = b.controlPoints[0]!;
-  const cps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({ ...(j === 0 ? first : { gantryDeg: first.gantryDeg, jawsXMm: first.jawsXMm, jawsYMm: first.jawsYMm, ...(first.leaves ? { leaves: first.leaves } : {}) }),
-    weight: j / (n - 1), doseCoefficient: j / (n - 1), ...perControlPoint(j) }));
+  const cps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({
+    ...(j === 0
+      ? first
+      : { gantryDeg: first.gantryDeg, jawsXMm: first.jawsXMm, jawsYMm: first.jawsYMm, ...(first.leaves ? { leaves: first.leaves } : {}) }),
+    weight: j / (n - 1),
+    doseCoefficient: j / (n - 1),
+    ...perControlPoint(j),
+  }));
   return { ...b, dynamic: true, controlPoints: cps };
 }
 
@@ -51,7 +70,10 @@ describe('modulated beams (modified Clarkson integration)', () => {
   });
 
   it('the same holds for an MLC-shaped field (Clarkson in both) and for an off-axis point', () => {
-    const field = staticBeam(1, 'AP', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-60, 60], jawsYMm: [-50, 50], leaves: ellipseLeaves(55, 45, 5) } });
+    const field = staticBeam(1, 'AP', 6, 0, 900, iso, {
+      mlc: true,
+      first: { jawsXMm: [-60, 60], jawsYMm: [-50, 50], leaves: ellipseLeaves(55, 45, 5) },
+    });
     for (const point of [undefined, [15, 0, -10] as [number, number, number]]) {
       const stat = beams(check(planFromSpec(spec('static-mlc', field)).plan, demo, point ? { point } : {}))[0]!;
       const arc = beams(check(planFromSpec(spec('arc-mlc', asArc(field, 5))).plan, demo, point ? { point } : {}))[0]!;
@@ -61,12 +83,18 @@ describe('modulated beams (modified Clarkson integration)', () => {
   });
 
   it('a segment with every leaf closed adds the leaf transmission times the open field: linear in the fluence', () => {
-    const open = staticBeam(1, 'AP', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50], leaves: [...Array(MLC_PAIRS).fill(-100), ...Array(MLC_PAIRS).fill(100)] } });
+    const open = staticBeam(1, 'AP', 6, 0, 900, iso, {
+      mlc: true,
+      first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50], leaves: [...Array(MLC_PAIRS).fill(-100), ...Array(MLC_PAIRS).fill(100)] },
+    });
     const stat = run('open-leaves', open);
     const closed = Array(2 * MLC_PAIRS).fill(0);
     // Half the MU through the open field, half with the leaves shut (a sliding window that never opens).
     const b = asArc(open, 4, (j) => (j >= 2 ? { leaves: closed } : {}));
-    const r = run('half-closed', { ...b, controlPoints: b.controlPoints.map((c, j) => ({ ...c, weight: [0, 0.5, 0.5, 1][j]!, doseCoefficient: [0, 0.5, 0.5, 1][j]! })) });
+    const r = run('half-closed', {
+      ...b,
+      controlPoints: b.controlPoints.map((c, j) => ({ ...c, weight: [0, 0.5, 0.5, 1][j]!, doseCoefficient: [0, 0.5, 0.5, 1][j]! })),
+    });
     const t = dataBeam(demo, '6X').mlcTransmission!;
     // The closed segment's Clarkson integral is t × the open field's by Clarkson, which agrees with the equivalent square within 0.5 % (BJR 52:398).
     const expected = 0.5 * stat.calculation!.dosePerMuCGy * (1 + t);
@@ -74,13 +102,19 @@ describe('modulated beams (modified Clarkson integration)', () => {
     expect(r.calculation!.modulated!.pointCoveredMuPercent).toBeCloseTo(50, 9);
   });
 
-  it('an arc round a water cylinder centred on the isocenter gives the static dose at the cylinder\'s depth', () => {
+  it("an arc round a water cylinder centred on the isocenter gives the static dose at the cylinder's depth", () => {
     // Radius 100 mm: at every gantry angle the SSD is 900 mm and the isocenter 10 cm deep.
     const field = staticBeam(1, 'ARC', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
     const stat = run('cylinder-static', field);
     const n = 91;
-    const arcCps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({ ...(j === 0 ? field.controlPoints[0]! : {}), gantryDeg: (181 + 2 * j) % 360, gantryDirection: j === n - 1 ? 'NONE' : 'CW',
-      ssdMm: 900, weight: j / (n - 1), doseCoefficient: j / (n - 1) }));
+    const arcCps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({
+      ...(j === 0 ? field.controlPoints[0]! : {}),
+      gantryDeg: (181 + 2 * j) % 360,
+      gantryDirection: j === n - 1 ? 'NONE' : 'CW',
+      ssdMm: 900,
+      weight: j / (n - 1),
+      doseCoefficient: j / (n - 1),
+    }));
     const arc = run('cylinder-arc', { ...field, dynamic: true, controlPoints: arcCps });
     expect(arc.calculation!.modulated!.depthRangeCm[0]).toBeCloseTo(10, 9);
     expect(arc.calculation!.modulated!.depthRangeCm[1]).toBeCloseTo(10, 9);
@@ -91,19 +125,40 @@ describe('modulated beams (modified Clarkson integration)', () => {
     const field = staticBeam(1, 'ARC', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
     const stat = run('cylinder-static-ct', field);
     const n = 37;
-    const cps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({ ...(j === 0 ? { ...field.controlPoints[0]!, ssdMm: undefined } : {}), gantryDeg: (181 + 10 * j) % 360,
-      gantryDirection: j === n - 1 ? 'NONE' : 'CW', weight: j / (n - 1), doseCoefficient: j / (n - 1) }));
+    const cps: ControlPointSpec[] = Array.from({ length: n }, (_, j) => ({
+      ...(j === 0 ? { ...field.controlPoints[0]!, ssdMm: undefined } : {}),
+      gantryDeg: (181 + 10 * j) % 360,
+      gantryDirection: j === n - 1 ? 'NONE' : 'CW',
+      weight: j / (n - 1),
+      doseCoefficient: j / (n - 1),
+    }));
     const { plan } = planFromSpec(spec('cylinder-arc-ct', { ...field, dynamic: true, controlPoints: cps }));
     const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-cyl-')), 'ct');
     mkdirSync(dir);
     // Voxel centres at odd millimetres, so the cylinder's surface falls between them within 1 mm.
-    const files = writeCtPhantom(dir, { name: 'cyl', columns: 128, rows: 128, slices: 40, spacingMm: [2, 2, 2], originMm: [-127, -127, -39], frameOfReferenceUid: plan.frameOfReferenceUid!,
-      hu: (x, y) => (x * x + y * y <= 100 * 100 ? 0 : -1000) });
+    const files = writeCtPhantom(dir, {
+      name: 'cyl',
+      columns: 128,
+      rows: 128,
+      slices: 40,
+      spacingMm: [2, 2, 2],
+      originMm: [-127, -127, -39],
+      frameOfReferenceUid: plan.frameOfReferenceUid!,
+      hu: (x, y) => (x * x + y * y <= 100 * 100 ? 0 : -1000),
+    });
     const volume = readCtSeries(files);
     const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
     if (!volume.ok || !table.ok) throw new Error('phantom');
-    const ct: PatientCt = { volume: volume.value, density: table.value.density, densityTable: 'demo', bodyThresholdHu: -400, bodySource: 'HU >= -400' };
-    const r = beams(checkPlan(plan, { path: 'arc.dcm', sha256: '' }, { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }))[0]!;
+    const ct: PatientCt = {
+      volume: volume.value,
+      density: table.value.density,
+      densityTable: 'demo',
+      bodyThresholdHu: -400,
+      bodySource: 'HU >= -400',
+    };
+    const r = beams(
+      checkPlan(plan, { path: 'arc.dcm', sha256: '' }, { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }),
+    )[0]!;
     expect(r.status).toBe('checked');
     const m = r.calculation!.modulated!;
     expect(m.depthSource).toBe('ct');
@@ -115,7 +170,11 @@ describe('modulated beams (modified Clarkson integration)', () => {
   it('an arc without an SSD at its control points and without the CT is not checked, naming the control points', () => {
     const field = staticBeam(1, 'ARC', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
     const cps: ControlPointSpec[] = [field.controlPoints[0]!, { gantryDeg: 10, weight: 0.5 }, { gantryDeg: 20, weight: 1 }];
-    const r = run('arc-no-ssd', { ...field, dynamic: true, controlPoints: cps.map((c, j) => ({ ...c, ...(j ? { gantryDirection: 'CW' as const } : {}) })) });
+    const r = run('arc-no-ssd', {
+      ...field,
+      dynamic: true,
+      controlPoints: cps.map((c, j) => ({ ...c, ...(j ? { gantryDirection: 'CW' as const } : {}) })),
+    });
     expect(r.status).toBe('not checked');
     expect(r.reason).toEqual({ code: 'segment-no-ssd', values: { controlPoint: 1 } });
   });

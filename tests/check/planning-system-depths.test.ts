@@ -23,7 +23,11 @@ const elsewhere: [number, number, number] = [iso[0] + 40, iso[1], iso[2]];
 function withTwoReferences(entryChanges: Record<string, unknown>): Plan {
   const ap = plan.beams[0]!;
   const first = ap.doseVerification[0]!;
-  const second = { ...first, doseReferenceNumber: 2, points: first.points.map((p) => ({ ...p, pointDepthMm: 55, equivalentDepthMm: 54, ssdMm: 945 })) };
+  const second = {
+    ...first,
+    doseReferenceNumber: 2,
+    points: first.points.map((p) => ({ ...p, pointDepthMm: 55, equivalentDepthMm: 54, ssdMm: 945 })),
+  };
   const group = plan.fractionGroups[0]!;
   return {
     ...plan,
@@ -61,10 +65,20 @@ describe("the planning system's depths", () => {
     // written as the demo plans write them (values invented for this test).
     const at: [number, number, number] = [0, 0, 0];
     const { plan: p } = planFromSpec({
-      file: 'depths.dcm', patientId: 'T-DEPTH', patientName: 'Test^Depths', label: 'DEPTHS', name: 'depths', description: 'test plan',
+      file: 'depths.dcm',
+      patientId: 'T-DEPTH',
+      patientName: 'Test^Depths',
+      label: 'DEPTHS',
+      name: 'depths',
+      description: 'test plan',
       doseReferences: [coordinatesDoseReference(1, 'isocenter', at, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: at }] }],
-      beams: [staticBeam(1, 'AP', 15, 0, 900, at, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] }, depthData: { depthMm: 98, equivalentDepthMm: 99, ssdMm: 903 } })],
+      beams: [
+        staticBeam(1, 'AP', 15, 0, 900, at, {
+          first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] },
+          depthData: { depthMm: 98, equivalentDepthMm: 99, ssdMm: 903 },
+        }),
+      ],
     });
     const ap = beams(check(p, machine(DEMO_MANIFEST)))[0]!;
     expect(ap.status).toBe('checked');
@@ -74,7 +88,9 @@ describe("the planning system's depths", () => {
     expect(t.depthDifferenceMm).toBeCloseTo(2, 6);
     expect(t.ssdDifferenceMm).toBeCloseTo(-3, 6);
     // The terminal report says so in the beam's notes.
-    expect(planCheckText(check(p, machine(DEMO_MANIFEST))).join('\n')).toMatch(/beam 1 AP: the planning system's own depth 98\.0 mm \(ours \+2\.0 mm\), equivalent depth 99\.0 mm, SSD 903\.0 mm \(ours -3\.0 mm\)/);
+    expect(planCheckText(check(p, machine(DEMO_MANIFEST))).join('\n')).toMatch(
+      /beam 1 AP: the planning system's own depth 98\.0 mm \(ours \+2\.0 mm\), equivalent depth 99\.0 mm, SSD 903\.0 mm \(ours -3\.0 mm\)/,
+    );
     const moved = beams(check(p, machine(DEMO_MANIFEST), { point: [30, 0, 0] }))[0]!;
     expect(moved.status).toBe('checked');
     expect(moved.calculation!.planningSystemDepths).toBeUndefined();

@@ -21,23 +21,32 @@ const demo = machine(DEMO_MANIFEST);
 
 /** The demo machine with its 6X TMR table reporting a clamp for any lookup shallower than `belowCm`. */
 function withShallowClamp(m: MachineModel, belowCm: number): MachineModel {
-  return { ...m, beams: m.beams.map((b) => {
-    if (b.id !== '6X' || !b.tpr) return b;
-    const t = b.tpr;
-    const at = (row: number, column: number, log: LookupLog) => {
-      if (row < belowCm) log.push({ table: 'TMR (test)', axis: 'depth', requested: row, used: belowCm, kind: 'clamped', range: [belowCm, 30], unit: 'cm' });
-      return t.at(row, column, log);
-    };
-    const tpr = { ...t, at, atRow: (row: number, log: LookupLog) => (column: number, l: LookupLog) => at(row, column, l ?? log) };
-    return { ...b, tpr };
-  }) };
+  return {
+    ...m,
+    beams: m.beams.map((b) => {
+      if (b.id !== '6X' || !b.tpr) return b;
+      const t = b.tpr;
+      const at = (row: number, column: number, log: LookupLog) => {
+        if (row < belowCm)
+          log.push({ table: 'TMR (test)', axis: 'depth', requested: row, used: belowCm, kind: 'clamped', range: [belowCm, 30], unit: 'cm' });
+        return t.at(row, column, log);
+      };
+      const tpr = { ...t, at, atRow: (row: number, log: LookupLog) => (column: number, l: LookupLog) => at(row, column, l ?? log) };
+      return { ...b, tpr };
+    }),
+  };
 }
 
 describe('a static photon beam through the CT', () => {
   it('reports a clamped lookup at the radiological depth, which only the heterogeneity correction reads', () => {
     const iso: [number, number, number] = [0, 0, 0];
     const { plan } = planFromSpec({
-      file: 'half-density.dcm', patientId: 'CT-1', patientName: 'Static^Ct', label: 'HALF', name: 'half density', description: 'test',
+      file: 'half-density.dcm',
+      patientId: 'CT-1',
+      patientName: 'Static^Ct',
+      label: 'HALF',
+      name: 'half density',
+      description: 'test',
       doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
       beams: [staticBeam(1, 'AP', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } })],
@@ -45,16 +54,38 @@ describe('a static photon beam through the CT', () => {
     const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-half-')), 'ct');
     mkdirSync(dir);
     // A box of density about 0.5 from 100 mm above the isocenter down: geometric depth 10 cm, radiological about 5 cm.
-    const files = writeCtPhantom(dir, { name: 'half', columns: 64, rows: 64, slices: 20, spacingMm: [4, 4, 4], originMm: [-126, -126, -38], frameOfReferenceUid: plan.frameOfReferenceUid!,
-      hu: (_x, y) => (y >= -100 && y <= 100 ? -500 : -1000) });
+    const files = writeCtPhantom(dir, {
+      name: 'half',
+      columns: 64,
+      rows: 64,
+      slices: 20,
+      spacingMm: [4, 4, 4],
+      originMm: [-126, -126, -38],
+      frameOfReferenceUid: plan.frameOfReferenceUid!,
+      hu: (_x, y) => (y >= -100 && y <= 100 ? -500 : -1000),
+    });
     const volume = readCtSeries(files);
     const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
     if (!volume.ok || !table.ok) throw new Error('phantom');
-    const ct: PatientCt = { volume: volume.value, density: table.value.density, densityTable: 'demo', bodyThresholdHu: -600, bodySource: 'HU >= -600' };
-    const b = beams(checkPlan(plan, { path: 'half.dcm', sha256: '' }, { machine: withShallowClamp(demo, 8), policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }))[0]!;
+    const ct: PatientCt = {
+      volume: volume.value,
+      density: table.value.density,
+      densityTable: 'demo',
+      bodyThresholdHu: -600,
+      bodySource: 'HU >= -600',
+    };
+    const b = beams(
+      checkPlan(
+        plan,
+        { path: 'half.dcm', sha256: '' },
+        { machine: withShallowClamp(demo, 8), policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct },
+      ),
+    )[0]!;
     if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
     expect(b.calculation.ct!.geometricDepthMm).toBeCloseTo(100, 0);
     expect(b.calculation.ct!.radiologicalDepthMm).toBeLessThan(80);
-    expect(b.calculation.clamps).toContainEqual(expect.objectContaining({ table: 'TMR (test)', axis: 'depth', requested: b.calculation.ct!.radiologicalDepthMm / 10 }));
+    expect(b.calculation.clamps).toContainEqual(
+      expect.objectContaining({ table: 'TMR (test)', axis: 'depth', requested: b.calculation.ct!.radiologicalDepthMm / 10 }),
+    );
   });
 });

@@ -14,13 +14,27 @@ import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
 const run = (name: string, b: BeamSpec, point: [number, number, number] = iso): BeamCheck =>
-  beams(check(planFromSpec({
-    file: `${name}.dcm`, patientId: 'W-1', patientName: 'Wedge^Test', label: name, name, description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-    beams: [b],
-  }).plan, demo))[0]!;
-const w30 = (orientation: number) => staticBeam(1, 'AP W30', 6, 0, 900, iso, { wedge: { id: 'W30', angle: 30, factor: 0.68, orientation }, first: { wedgeIn: true, jawsXMm: [-75, 75], jawsYMm: [-75, 75] } });
+  beams(
+    check(
+      planFromSpec({
+        file: `${name}.dcm`,
+        patientId: 'W-1',
+        patientName: 'Wedge^Test',
+        label: name,
+        name,
+        description: 'test',
+        doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
+        beams: [b],
+      }).plan,
+      demo,
+    ),
+  )[0]!;
+const w30 = (orientation: number) =>
+  staticBeam(1, 'AP W30', 6, 0, 900, iso, {
+    wedge: { id: 'W30', angle: 30, factor: 0.68, orientation },
+    first: { wedgeIn: true, jawsXMm: [-75, 75], jawsYMm: [-75, 75] },
+  });
 const factor = (b: BeamCheck, key: string) => b.calculation!.factors.find((f) => f.key === key);
 
 describe('physical wedge profiles', () => {
@@ -38,7 +52,7 @@ describe('physical wedge profiles', () => {
     expect(at180.value).toBeLessThan(1);
     expect(at0.value).toBeCloseTo(profile.at(10, -4, []), 12);
   });
-  it('at orientation 90 the wedge lies along X (heel at +X): a point 4 cm to the patient\'s left is 4 cm toward the heel', () => {
+  it("at orientation 90 the wedge lies along X (heel at +X): a point 4 cm to the patient's left is 4 cm toward the heel", () => {
     // HFS, gantry 0: the BEAM LIMITING DEVICE's +X is the patient's left, +x in LPS.
     const left = factor(run('w-90', w30(90), [40, 0, 0]), 'WP')!;
     expect(left.args[1]).toBeCloseTo(4, 9);
@@ -49,12 +63,23 @@ describe('physical wedge profiles', () => {
 describe('jaw-swept (dynamic) wedges', () => {
   const table = dataBeam(demo, '6X').sweptWedge!;
   const swept = (jawsY: readonly [number, number], moving = false): BeamSpec => {
-    const b = staticBeam(1, 'AP SW30', 6, 0, 900, iso, { wedge: { id: 'SW30', angle: 30, factor: 0.75, orientation: 0, type: 'DYNAMIC' }, first: { wedgeIn: true, jawsXMm: [-60, 60], jawsYMm: jawsY } });
+    const b = staticBeam(1, 'AP SW30', 6, 0, 900, iso, {
+      wedge: { id: 'SW30', angle: 30, factor: 0.75, orientation: 0, type: 'DYNAMIC' },
+      first: { wedgeIn: true, jawsXMm: [-60, 60], jawsYMm: jawsY },
+    });
     if (!moving) return b;
     // The Y1 jaw sweeps from the closed position to its final place during delivery.
-    return { ...b, dynamic: true, controlPoints: [{ ...b.controlPoints[0]!, jawsYMm: [jawsY[1] - 5, jawsY[1]] }, { weight: 0.5, jawsYMm: [(jawsY[0] + jawsY[1]) / 2, jawsY[1]] }, { weight: 1, jawsYMm: jawsY, doseCoefficient: 1 }] };
+    return {
+      ...b,
+      dynamic: true,
+      controlPoints: [
+        { ...b.controlPoints[0]!, jawsYMm: [jawsY[1] - 5, jawsY[1]] },
+        { weight: 0.5, jawsYMm: [(jawsY[0] + jawsY[1]) / 2, jawsY[1]] },
+        { weight: 1, jawsYMm: jawsY, doseCoefficient: 1 },
+      ],
+    };
   };
-  it('the factor is the table\'s at the wedge angle and the field length along the sweep (Y at orientation 0)', () => {
+  it("the factor is the table's at the wedge angle and the field length along the sweep (Y at orientation 0)", () => {
     const b = run('sw', swept([-50, 50]));
     expect(b.status).toBe('checked');
     const wf = factor(b, 'WF')!;
@@ -62,7 +87,7 @@ describe('jaw-swept (dynamic) wedges', () => {
     expect(wf.value).toBeCloseTo(table.at(30, 10, []), 12);
     expect(b.category).toBe('off-axis-or-wedged');
   });
-  it('with the jaw moving in the control points, the field is the jaws\' envelope: the same dose as the static description', () => {
+  it("with the jaw moving in the control points, the field is the jaws' envelope: the same dose as the static description", () => {
     const a = run('sw-static', swept([-50, 50]));
     const m = run('sw-moving', swept([-50, 50], true));
     expect(m.status).toBe('checked');

@@ -19,12 +19,15 @@ function faulty(file: string, edit: (text: string) => string): string {
 }
 /** Replaces the cell in the row starting with `rowKey` at column index `col` (0 = the row axis). */
 const setCell = (rowKey: string, col: number, value: string) => (text: string) =>
-  text.split('\n').map((l) => {
-    if (!l.startsWith(`${rowKey},`)) return l;
-    const cells = l.split(',');
-    cells[col] = value;
-    return cells.join(',');
-  }).join('\n');
+  text
+    .split('\n')
+    .map((l) => {
+      if (!l.startsWith(`${rowKey},`)) return l;
+      const cells = l.split(',');
+      cells[col] = value;
+      return cells.join(',');
+    })
+    .join('\n');
 
 const lines = (out: { stdout: readonly string[] }) => out.stdout.join('\n');
 
@@ -40,7 +43,9 @@ describe('plumbline beams validate', () => {
     const r = runBeamsValidate(faulty('6x/pdd.csv', setCell('10', 7, '69.50')));
     const text = lines(r);
     expect(text).toMatch(/6x\/pdd\.csv:17:\d+: 6X pdd: the value breaks the smooth run.*\[rough-table\]/);
-    expect(text).toMatch(/6x\/pdd\.csv:17:\d+: beam 6X: PDD at 10 cm for 10 cm converted to TMR differs from the TMR table by 3\.\d+ %.*\[tables-disagree\]/);
+    expect(text).toMatch(
+      /6x\/pdd\.csv:17:\d+: beam 6X: PDD at 10 cm for 10 cm converted to TMR differs from the TMR table by 3\.\d+ %.*\[tables-disagree\]/,
+    );
     expect(r.exitCode).toBe(2);
   });
 
@@ -52,8 +57,24 @@ describe('plumbline beams validate', () => {
 
   it('an electron PDD column not normalized to 100 % at its own dmax, at the cell of its maximum', () => {
     // Every value of the 3 cm cutout column (cell 1) of 9 MeV scaled by 0.97.
-    const r = runBeamsValidate(faulty('9e/pdd.csv', (t) => t.split('\n').map((l) => (/^\d/.test(l) ? l.split(',').map((c, k) => (k === 1 ? (0.97 * Number(c)).toFixed(2) : c)).join(',') : l)).join('\n')));
-    expect(lines(r)).toMatch(/9e\/pdd\.csv:\d+:\d+: 9E electron PDD: the column's maximum is not 100 % \(each column is normalized at its own dmax\); expected 100 ± 0\.5 %, found 97/);
+    const r = runBeamsValidate(
+      faulty('9e/pdd.csv', (t) =>
+        t
+          .split('\n')
+          .map((l) =>
+            /^\d/.test(l)
+              ? l
+                  .split(',')
+                  .map((c, k) => (k === 1 ? (0.97 * Number(c)).toFixed(2) : c))
+                  .join(',')
+              : l,
+          )
+          .join('\n'),
+      ),
+    );
+    expect(lines(r)).toMatch(
+      /9e\/pdd\.csv:\d+:\d+: 9E electron PDD: the column's maximum is not 100 % \(each column is normalized at its own dmax\); expected 100 ± 0\.5 %, found 97/,
+    );
     expect(r.exitCode).toBe(2);
   });
 
@@ -65,7 +86,9 @@ describe('plumbline beams validate', () => {
 
   it('Sc of the reference field that is not 1', () => {
     const r = runBeamsValidate(faulty('6x/sc.csv', setCell('10', 1, '1.0200')));
-    expect(lines(r)).toMatch(/beam 6X: Sc of the reference field \(10\.00 cm, as defined at the surface\) is not 1; expected 1\.000 ± 0\.005, found 1\.0200/);
+    expect(lines(r)).toMatch(
+      /beam 6X: Sc of the reference field \(10\.00 cm, as defined at the surface\) is not 1; expected 1\.000 ± 0\.005, found 1\.0200/,
+    );
   });
 
   it('a TMR that is not 1 at its normalization depth', () => {
@@ -74,11 +97,13 @@ describe('plumbline beams validate', () => {
   });
 
   it('a wedge that one energy lacks is a warning (exit 1)', () => {
-    const r = runBeamsValidate(faulty('manifest.json', (t) => {
-      const m = JSON.parse(t);
-      m.beams[1].wedges = m.beams[1].wedges.filter((w: { id: string }) => w.id !== 'W45');
-      return JSON.stringify(m);
-    }));
+    const r = runBeamsValidate(
+      faulty('manifest.json', (t) => {
+        const m = JSON.parse(t);
+        m.beams[1].wedges = m.beams[1].wedges.filter((w: { id: string }) => w.id !== 'W45');
+        return JSON.stringify(m);
+      }),
+    );
     expect(lines(r)).toMatch(/wedge W45 has data for some beams but not for 10X/);
     expect(r.exitCode).toBe(1);
   });

@@ -10,9 +10,26 @@ const calc = (...args: string[]) =>
 
 describe('plumbline calc on the demo machine', () => {
   it('prints each factor on its own line, the result, the invented-data warning and the caution', () => {
-    const r = calc('--energy', '6', '--setup', 'SAD', '--field', '10x12', '--depth', '8.5', '--dose', '200', '--off-axis', '3', '--wedge', 'W30', '--tray');
+    const r = calc(
+      '--energy',
+      '6',
+      '--setup',
+      'SAD',
+      '--field',
+      '10x12',
+      '--depth',
+      '8.5',
+      '--dose',
+      '200',
+      '--off-axis',
+      '3',
+      '--wedge',
+      'W30',
+      '--tray',
+    );
     expect(r.status).toBe(0);
-    for (const label of ["D'0", 'Sc(', 'Sp(', 'TMR(8.5 cm', 'OAR(8.5 cm, 3 cm)', 'WF W30(', 'TF BLOCK_TRAY', 'dose per MU']) expect(r.stdout).toContain(label);
+    for (const label of ["D'0", 'Sc(', 'Sp(', 'TMR(8.5 cm', 'OAR(8.5 cm, 3 cm)', 'WF W30(', 'TF BLOCK_TRAY', 'dose per MU'])
+      expect(r.stdout).toContain(label);
     expect(r.stdout).toMatch(/MU = 200 cGy \/ \d\.\d{4} cGy\/MU = \d+\.\d MU/);
     expect(r.stdout).toMatch(/SSD 91\.5 cm \(SAD − depth: the point at the isocenter, none given\)/);
     expect(r.stdout).toMatch(/INVENTED DEMO DATA, never for a patient/);
@@ -44,7 +61,11 @@ describe('plumbline calc on the demo machine', () => {
 
 describe('plumbline calc for electrons', () => {
   const run = (...args: string[]) =>
-    spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'calc', '--beam-data', 'tests/reference/electron-course-examples/manifest.json', ...args], { cwd: ROOT, encoding: 'utf8' });
+    spawnSync(
+      process.execPath,
+      ['--import', 'tsx', 'src/cli/bin.ts', 'calc', '--beam-data', 'tests/reference/electron-course-examples/manifest.json', ...args],
+      { cwd: ROOT, encoding: 'utf8' },
+    );
   it('prescribed to the 90 % isodose: the published worked example 2.2 (9 MeV, 10x10 cone, 8x10 cutout, 200 cGy → 220 MU)', () => {
     const r = run('--energy', '9', '--applicator', 'A10', '--cutout', '8x10', '--isodose', '90', '--dose', '200');
     expect(r.status).toBe(0);

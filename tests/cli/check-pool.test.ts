@@ -11,7 +11,8 @@ import { describe, expect, it } from 'vitest';
 import { CheckDocument } from '../../src/report/check-json.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const run = (...args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
+const run = (...args: string[]) =>
+  spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 });
 const SOURCES = ['brain-laterals.dcm', 'lung-mlc.dcm', 'prostate-vmat.dcm'].map((f) => join(ROOT, 'fixtures/demo/clinic', f));
 
 describe('a large check batch', () => {

@@ -12,7 +12,8 @@ import { staticBeam, coordinatesDoseReference } from '../../scripts/fixtures/pla
 import { planFromSpec } from '../helpers/check-run.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const run = (...args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+const run = (...args: string[]) =>
+  spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
 const CT = ['--ct', 'fixtures/demo/clinic-ct', '--density', 'demo'];
 
 describe('plumbline depth', () => {
@@ -33,10 +34,25 @@ describe('plumbline depth', () => {
     const iso: [number, number, number] = [0, 10, -80];
     const field = staticBeam(1, 'ARC', 15, 0, 900, iso, { first: { jawsXMm: [-75, 75], jawsYMm: [-90, 90] } });
     const { file } = planFromSpec({
-      file: 'pelvis-arc.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS ARC', name: 'half arc', description: 'test',
+      file: 'pelvis-arc.dcm',
+      patientId: 'NG-1001',
+      patientName: 'Demo^Quill',
+      label: 'PELVIS ARC',
+      name: 'half arc',
+      description: 'test',
       doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-      beams: [{ ...field, dynamic: true, controlPoints: [{ ...field.controlPoints[0]!, gantryDirection: 'CW' }, { gantryDeg: 90, ssdMm: 830, weight: 0.5 }, { gantryDeg: 180, ssdMm: 880, weight: 1, gantryDirection: 'NONE' }] }],
+      beams: [
+        {
+          ...field,
+          dynamic: true,
+          controlPoints: [
+            { ...field.controlPoints[0]!, gantryDirection: 'CW' },
+            { gantryDeg: 90, ssdMm: 830, weight: 0.5 },
+            { gantryDeg: 180, ssdMm: 880, weight: 1, gantryDirection: 'NONE' },
+          ],
+        },
+      ],
     });
     const doc = DepthDocument.parse(JSON.parse(run('depth', file, ...CT, '--json').stdout));
     expect(doc.beams.map((b) => b.controlPointIndex)).toEqual([0, 1, 2]);
@@ -64,18 +80,27 @@ describe('plumbline check --ct', () => {
   });
 
   it("--heterogeneity batho: the PA beam through the bone by Batho's power law, named in the result; water beams still 1", () => {
-    const doc = CheckDocument.parse(JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'batho', '--json').stdout));
+    const doc = CheckDocument.parse(
+      JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'batho', '--json').stdout),
+    );
     const beams = doc.plans[0]!.fractionGroups[0]!.beams;
     expect(beams[1]!.calculation!.ct!.method).toBe('batho');
     expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
     for (const b of beams.filter((x) => x.beamNumber !== 2)) expect(b.calculation!.ct!.correctionFactor).toBeCloseTo(1, 9);
-    expect(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'modified').stderr).toMatch(/--heterogeneity must be tpr-ratio or batho/);
+    expect(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'modified').stderr).toMatch(
+      /--heterogeneity must be tpr-ratio or batho/,
+    );
   });
 
   it('reports an SSD that differs from the CT by more than 5 mm as a finding', () => {
     const iso: [number, number, number] = [0, 10, -80];
     const { file } = planFromSpec({
-      file: 'pelvis-wrong-ssd.dcm', patientId: 'NG-1001', patientName: 'Demo^Quill', label: 'PELVIS AP', name: 'AP with a wrong SSD', description: 'test',
+      file: 'pelvis-wrong-ssd.dcm',
+      patientId: 'NG-1001',
+      patientName: 'Demo^Quill',
+      label: 'PELVIS AP',
+      name: 'AP with a wrong SSD',
+      description: 'test',
       doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
       beams: [staticBeam(1, 'AP', 15, 0, 910, iso, { first: { jawsXMm: [-75, 75], jawsYMm: [-90, 90] } })],
@@ -83,18 +108,23 @@ describe('plumbline check --ct', () => {
     const doc = CheckDocument.parse(JSON.parse(run('check', file, '--beam-data', 'demo', ...CT, '--json').stdout));
     const b = doc.plans[0]!.fractionGroups[0]!.beams[0]!;
     expect(b.calculation!.ct!.ssdDifferenceMm).toBeCloseTo(-10, 1);
-    expect(b.verdictReasons).toContainEqual({ code: 'ct-ssd-differs', values: { ctSsdMm: expect.closeTo(900, 1), planSsdMm: 910, differenceMm: expect.closeTo(-10, 1), toleranceMm: 5 } });
-    expect(run('check', file, '--beam-data', 'demo', ...CT).stdout).toMatch(/the SSD from the CT \(90\.0 cm\) differs from the plan's \(91\.0 cm\) by -10\.0 mm/);
+    expect(b.verdictReasons).toContainEqual({
+      code: 'ct-ssd-differs',
+      values: { ctSsdMm: expect.closeTo(900, 1), planSsdMm: 910, differenceMm: expect.closeTo(-10, 1), toleranceMm: 5 },
+    });
+    expect(run('check', file, '--beam-data', 'demo', ...CT).stdout).toMatch(
+      /the SSD from the CT \(90\.0 cm\) differs from the plan's \(91\.0 cm\) by -10\.0 mm/,
+    );
     expect(b.verdict).not.toBe('within tolerance');
   });
 
-  it("refuses one plan with one CT of another frame of reference, naming both", () => {
+  it('refuses one plan with one CT of another frame of reference, naming both', () => {
     const r = run('check', 'fixtures/demo/clinic/brain-laterals.dcm', '--beam-data', 'demo', ...CT);
     expect(r.status).toBe(2);
     expect(r.stdout).toMatch(/the CT and the plan are in different frames of reference.*expected the plan's 2\.25\.\d+, found the CT's 2\.25\.\d+/);
   });
 
-  it("in a batch, plans without their own CT are checked without it and say so", () => {
+  it('in a batch, plans without their own CT are checked without it and say so', () => {
     const r = run('check', 'fixtures/demo/clinic', '--beam-data', 'demo', ...CT);
     expect(r.status).toBe(1);
     expect(r.stdout.match(/no CT series in this plan's frame of reference among --ct: checked without CT/g)).toHaveLength(6);
@@ -109,12 +139,28 @@ describe('plumbline check --dose', () => {
     const { tmpdir } = await import('node:os');
     const { join } = await import('node:path');
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-dose-'));
-    const common = { planSopInstanceUid: fixtureUid('plan:brain-laterals.dcm'), frameOfReferenceUid: fixtureUid('for:NG-1002'),
-      columns: 21, rows: 21, frames: 21, spacingMm: 5, originMm: [-50, -50, 70] as const };
+    const common = {
+      planSopInstanceUid: fixtureUid('plan:brain-laterals.dcm'),
+      frameOfReferenceUid: fixtureUid('for:NG-1002'),
+      columns: 21,
+      rows: 21,
+      frames: 21,
+      spacingMm: 5,
+      originMm: [-50, -50, 70] as const,
+    };
     // A dose falling linearly along x: at the isocenter (0, 0, 120) it is exactly the stated value.
     writeRtDose(join(dir, 'plan.dcm'), { ...common, name: 'plan', summation: 'PLAN', doseGy: (x) => 60.3 + 0.01 * x });
     writeRtDose(join(dir, 'fraction.dcm'), { ...common, name: 'fraction', summation: 'FRACTION', doseGy: (x) => 2.01 + 0.001 * x });
-    const r = run('check', 'fixtures/demo/clinic/brain-laterals.dcm', '--beam-data', 'demo', '--dose', join(dir, 'plan.dcm'), join(dir, 'fraction.dcm'), '--json');
+    const r = run(
+      'check',
+      'fixtures/demo/clinic/brain-laterals.dcm',
+      '--beam-data',
+      'demo',
+      '--dose',
+      join(dir, 'plan.dcm'),
+      join(dir, 'fraction.dcm'),
+      '--json',
+    );
     const doc = CheckDocument.parse(JSON.parse(r.stdout));
     const plan = doc.plans[0]!;
     expect(plan.courseTotals[0]!.doseGridSummation).toBe('PLAN');

@@ -17,8 +17,17 @@ describe('plumbline history and the service configuration', () => {
   it('refuses a configuration naming the attribute that is wrong (exit 2)', () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-cfg-'));
     const file = join(dir, 'bad.json');
-    writeFileSync(file, JSON.stringify({ format: 'plumbline.service', formatVersion: 1, receiver: { allowedCallingAeTitles: ['THIS TITLE IS FAR TOO LONG'] },
-      folders: { inbox: 'i', archive: 'a', refused: 'r' }, history: { database: 'h.sqlite' }, beamData: ['demo'] }));
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        receiver: { allowedCallingAeTitles: ['THIS TITLE IS FAR TOO LONG'] },
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { database: 'h.sqlite' },
+        beamData: ['demo'],
+      }),
+    );
     const r = run('history', '--config', file);
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/receiver\.allowedCallingAeTitles\.0.*1 to 16 printable ASCII characters/);
@@ -27,7 +36,16 @@ describe('plumbline history and the service configuration', () => {
   it('lists the recorded checks, filtered by verdict, as text and as a versioned JSON document', () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-hist-cli-'));
     const file = join(dir, 'service.json');
-    writeFileSync(file, JSON.stringify({ format: 'plumbline.service', formatVersion: 1, folders: { inbox: 'i', archive: 'a', refused: 'r' }, history: { database: 'h.sqlite' }, beamData: ['demo'] }));
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { database: 'h.sqlite' },
+        beamData: ['demo'],
+      }),
+    );
     const store = new HistoryStore(join(dir, 'h.sqlite'));
     for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm']) {
       const result = check(importOrThrow(manifestPath(`fixtures/demo/clinic/${f}`)), machine(DEMO_MANIFEST));

@@ -60,13 +60,23 @@ describe('missing and unreadable attributes', () => {
   it('no nominal energy at control point 0 names beam, control point and attribute', () => {
     const f = writeVariant('four-field-box.dcm', (ds) => delete ds.BeamSequence[1].ControlPointSequence[0].NominalBeamEnergy);
     const i = only(refused(f));
-    expect(i).toMatchObject({ code: 'missing-attribute', beamNumber: 2, beamName: 'PA', controlPointIndex: 0, tag: '(300A,0114)',
-      path: 'BeamSequence[1].ControlPointSequence[0].NominalBeamEnergy' });
+    expect(i).toMatchObject({
+      code: 'missing-attribute',
+      beamNumber: 2,
+      beamName: 'PA',
+      controlPointIndex: 0,
+      tag: '(300A,0114)',
+      path: 'BeamSequence[1].ControlPointSequence[0].NominalBeamEnergy',
+    });
     expect(i.expected).toMatch(/energy/);
   });
   it('no Beam Meterset for a treatment beam', () => {
     const f = writeVariant('wedged-pair.dcm', (ds) => delete ds.FractionGroupSequence[0].ReferencedBeamSequence[1].BeamMeterset);
-    expect(only(refused(f))).toMatchObject({ code: 'missing-attribute', beamNumber: 2, path: 'FractionGroupSequence[0].ReferencedBeamSequence[1].BeamMeterset' });
+    expect(only(refused(f))).toMatchObject({
+      code: 'missing-attribute',
+      beamNumber: 2,
+      path: 'FractionGroupSequence[0].ReferencedBeamSequence[1].BeamMeterset',
+    });
   });
   it('a Beam Meterset that is not a number', () => {
     const f = writeVariant('wedged-pair.dcm', (ds) => (ds.FractionGroupSequence[0].ReferencedBeamSequence[0].BeamMeterset = '18x.3'));
@@ -102,7 +112,10 @@ describe('values that contradict each other', () => {
     expect(only(refused(f))).toMatchObject({ code: 'meterset-weight-decreasing', beamNumber: 2, controlPointIndex: 50 });
   });
   it('crossed jaws', () => {
-    const f = writeVariant('four-field-box.dcm', (ds) => (ds.BeamSequence[2].ControlPointSequence[0].BeamLimitingDevicePositionSequence[1].LeafJawPositions = ['60', '-60']));
+    const f = writeVariant(
+      'four-field-box.dcm',
+      (ds) => (ds.BeamSequence[2].ControlPointSequence[0].BeamLimitingDevicePositionSequence[1].LeafJawPositions = ['60', '-60']),
+    );
     expect(only(refused(f))).toMatchObject({ code: 'jaws-crossed', beamNumber: 3, controlPointIndex: 0 });
   });
   it('crossed leaves', () => {
@@ -114,7 +127,9 @@ describe('values that contradict each other', () => {
     expect(only(refused(f))).toMatchObject({ code: 'leaves-crossed', found: '20 > 10' });
   });
   it('the wrong number of leaf positions', () => {
-    const f = writeVariant('mlc-conformal.dcm', (ds) => ds.BeamSequence[0].ControlPointSequence[0].BeamLimitingDevicePositionSequence[2].LeafJawPositions.pop());
+    const f = writeVariant('mlc-conformal.dcm', (ds) =>
+      ds.BeamSequence[0].ControlPointSequence[0].BeamLimitingDevicePositionSequence[2].LeafJawPositions.pop(),
+    );
     expect(only(refused(f))).toMatchObject({ code: 'wrong-multiplicity', expected: '120 values', found: '119' });
   });
   it('a final cumulative meterset weight that the last control point does not reach', () => {
@@ -122,7 +137,10 @@ describe('values that contradict each other', () => {
     expect(only(refused(f))).toMatchObject({ code: 'inconsistent', beamNumber: 1 });
   });
   it('a wedge position naming a wedge the beam does not have', () => {
-    const f = writeVariant('wedged-pair.dcm', (ds) => (ds.BeamSequence[1].ControlPointSequence[0].WedgePositionSequence[0].ReferencedWedgeNumber = '3'));
+    const f = writeVariant(
+      'wedged-pair.dcm',
+      (ds) => (ds.BeamSequence[1].ControlPointSequence[0].WedgePositionSequence[0].ReferencedWedgeNumber = '3'),
+    );
     expect(only(refused(f))).toMatchObject({ code: 'unknown-reference', beamNumber: 2, controlPointIndex: 0 });
   });
   it('an unknown patient position', () => {

@@ -4,8 +4,26 @@ import { parseNumberList } from '../../src/dicom/decimal-string.js';
 /** The reference for every valid value is ECMAScript's own Number(string) conversion. */
 describe('DS and IS parsing', () => {
   it('accepts what PS3.5 6.2 allows and equals Number() exactly', () => {
-    const valid = ['0', '-0', '+1', '1.', '.5', '-.5', '239.531250000000', '-741.87000000000', '9.9902680e-1', '1E3', '1e+21',
-      '1.2345678901234567e-7', '  12.5 ', '0.1', '1234567890123456789', '4.9e-324', '1.7976931348623157e308', '-100.00000000000'];
+    const valid = [
+      '0',
+      '-0',
+      '+1',
+      '1.',
+      '.5',
+      '-.5',
+      '239.531250000000',
+      '-741.87000000000',
+      '9.9902680e-1',
+      '1E3',
+      '1e+21',
+      '1.2345678901234567e-7',
+      '  12.5 ',
+      '0.1',
+      '1234567890123456789',
+      '4.9e-324',
+      '1.7976931348623157e308',
+      '-100.00000000000',
+    ];
     for (const v of valid) {
       const r = parseNumberList(v, false);
       expect(r.ok, v).toBe(true);
@@ -15,7 +33,7 @@ describe('DS and IS parsing', () => {
 
   it('agrees with Number() on 20 000 random decimal strings', () => {
     let seed = 12345;
-    const rnd = () => ((seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff);
+    const rnd = () => (seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
     for (let k = 0; k < 20000; k++) {
       const intPart = String(Math.floor(rnd() * 10 ** Math.floor(rnd() * 12)));
       const frac = rnd() < 0.7 ? `.${String(Math.floor(rnd() * 10 ** Math.floor(rnd() * 10))).padStart(Math.floor(rnd() * 6), '0')}` : '';

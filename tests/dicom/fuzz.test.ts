@@ -35,7 +35,10 @@ function load(name: string): Source {
   const walk = (ds: dicomParser.DataSet) => {
     for (const el of Object.values(ds.elements)) {
       // explicit VR LE: 8-byte header for short VRs, 12 for OB/SQ/UN/UT…
-      headers.push({ at: el.dataOffset - (el.vr === 'SQ' || el.vr === 'OB' || el.vr === 'UN' || el.vr === 'UT' ? 12 : 8), dataOffset: el.dataOffset });
+      headers.push({
+        at: el.dataOffset - (el.vr === 'SQ' || el.vr === 'OB' || el.vr === 'UN' || el.vr === 'UT' ? 12 : 8),
+        dataOffset: el.dataOffset,
+      });
       for (const it of el.items ?? []) if (it.dataSet) walk(it.dataSet);
     }
   };
@@ -43,10 +46,30 @@ function load(name: string): Source {
   return { name, bytes, headers: headers.filter((h) => h.at >= 132) };
 }
 
-const SOURCES = ['four-field-box.dcm', 'mlc-conformal.dcm', 'wedged-pair.dcm', 'electron-applicator.dcm', 'two-phase.dcm', 'two-arc-vmat.dcm'].map(load);
-const KNOWN_CODES = new Set(['not-dicom', 'not-rt-plan', 'unsupported-transfer-syntax', 'truncated', 'length-past-end', 'too-large',
-  'missing-attribute', 'empty-attribute', 'invalid-number', 'invalid-value', 'wrong-multiplicity', 'unknown-reference', 'duplicate',
-  'negative-meterset', 'meterset-weight-decreasing', 'jaws-crossed', 'leaves-crossed', 'inconsistent', 'unreadable']);
+const SOURCES = ['four-field-box.dcm', 'mlc-conformal.dcm', 'wedged-pair.dcm', 'electron-applicator.dcm', 'two-phase.dcm', 'two-arc-vmat.dcm'].map(
+  load,
+);
+const KNOWN_CODES = new Set([
+  'not-dicom',
+  'not-rt-plan',
+  'unsupported-transfer-syntax',
+  'truncated',
+  'length-past-end',
+  'too-large',
+  'missing-attribute',
+  'empty-attribute',
+  'invalid-number',
+  'invalid-value',
+  'wrong-multiplicity',
+  'unknown-reference',
+  'duplicate',
+  'negative-meterset',
+  'meterset-weight-decreasing',
+  'jaws-crossed',
+  'leaves-crossed',
+  'inconsistent',
+  'unreadable',
+]);
 
 type Mutation = 'bit-flips' | 'truncation' | 'length' | 'vr';
 const MUTATIONS: readonly Mutation[] = ['bit-flips', 'truncation', 'length', 'vr'];

@@ -72,7 +72,9 @@ describe('reading ranges with a helper thread', () => {
     const helper = startReadHelper();
     try {
       const bad = files.map((file, i) => ({ file: i % 2 ? short : file, position: HEADER, at: i * SLICE, length: SLICE }));
-      expect(() => readRanges(new Uint8Array(new SharedArrayBuffer(FILES * SLICE)), bad, helper)).toThrow(expect.objectContaining({ code: 'truncated', file: short }));
+      expect(() => readRanges(new Uint8Array(new SharedArrayBuffer(FILES * SLICE)), bad, helper)).toThrow(
+        expect.objectContaining({ code: 'truncated', file: short }),
+      );
     } finally {
       stopReadHelper(helper);
     }

@@ -4,16 +4,43 @@ import { equivalentSquareCm } from '../../src/physics/index.js';
 import type { Beam, ControlPoint } from '../../src/model/index.js';
 
 const beam = (mlc?: { pairs: number; width: number }): Beam => ({
-  number: 1, radiationType: 'PHOTON', beamType: 'STATIC', wedges: [], compensators: [], bolusRoiNumbers: [], blocks: [], applicators: [],
-  doseVerification: [], controlPoints: [],
+  number: 1,
+  radiationType: 'PHOTON',
+  beamType: 'STATIC',
+  wedges: [],
+  compensators: [],
+  bolusRoiNumbers: [],
+  blocks: [],
+  applicators: [],
+  doseVerification: [],
+  controlPoints: [],
   limitingDevices: [
-    { type: 'ASYMX', numberOfPairs: 1 }, { type: 'ASYMY', numberOfPairs: 1 },
-    ...(mlc ? [{ type: 'MLCX' as const, numberOfPairs: mlc.pairs, leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width) }] : []),
+    { type: 'ASYMX', numberOfPairs: 1 },
+    { type: 'ASYMY', numberOfPairs: 1 },
+    ...(mlc
+      ? [
+          {
+            type: 'MLCX' as const,
+            numberOfPairs: mlc.pairs,
+            leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width),
+          },
+        ]
+      : []),
   ],
 });
 const cp = (x: [number, number], y: [number, number], leaves?: number[]): ControlPoint => ({
-  index: 0, gantryAngleDeg: 0, collimatorAngleDeg: 0, couchAngleDeg: 0, cumulativeMetersetWeight: 0, wedgePositions: [], doseReferenceCoefficients: [],
-  devices: [{ type: 'ASYMX', positionsMm: x }, { type: 'ASYMY', positionsMm: y }, ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : [])],
+  index: 0,
+  gantryAngleDeg: 0,
+  collimatorAngleDeg: 0,
+  couchAngleDeg: 0,
+  cumulativeMetersetWeight: 0,
+  wedgePositions: [],
+  doseReferenceCoefficients: [],
+  devices: [
+    { type: 'ASYMX', positionsMm: x },
+    { type: 'ASYMY', positionsMm: y },
+    ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : []),
+  ],
 });
 
 describe('aperture of jaws and leaves', () => {
@@ -54,7 +81,10 @@ describe('aperture of jaws and leaves', () => {
 
 describe('an MLC without X jaws', () => {
   it('takes the collimating extent along X from the leaves', () => {
-    const b: Beam = { ...beam({ pairs: 4, width: 10 }), limitingDevices: beam({ pairs: 4, width: 10 }).limitingDevices.filter((d) => d.type !== 'ASYMX') };
+    const b: Beam = {
+      ...beam({ pairs: 4, width: 10 }),
+      limitingDevices: beam({ pairs: 4, width: 10 }).limitingDevices.filter((d) => d.type !== 'ASYMX'),
+    };
     const c: ControlPoint = { ...cp([-1, 1], [-20, 20], [-30, -40, -30, 0, 30, 10, 30, 0]) };
     const a = apertureAt(b, { ...c, devices: c.devices.filter((d) => d.type !== 'ASYMX') })!;
     expect(a.hasJaws).toEqual({ x: false, y: true });
@@ -80,7 +110,7 @@ describe('sector crossings for Clarkson integration', () => {
 describe('the outline length of a jaw-and-leaf opening', () => {
   it('equals the count of cell edges between open and closed cells of a 0.5 mm raster (leaf and jaw positions on that grid)', () => {
     let seed = 99;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     const step = 0.5;
     for (let trial = 0; trial < 20; trial++) {
       const pairs = 10;
@@ -92,10 +122,11 @@ describe('the outline length of a jaw-and-leaf opening', () => {
       const n = Math.round(200 / step);
       const inside = (i: number, j: number) => i >= 0 && j >= 0 && i < n && j < n && a.isOpen(-100 + (i + 0.5) * step, -100 + (j + 0.5) * step);
       let edges = 0;
-      for (let i = -1; i < n; i++) for (let j = -1; j < n; j++) {
-        if (inside(i, j) !== inside(i + 1, j)) edges++;
-        if (inside(i, j) !== inside(i, j + 1)) edges++;
-      }
+      for (let i = -1; i < n; i++)
+        for (let j = -1; j < n; j++) {
+          if (inside(i, j) !== inside(i + 1, j)) edges++;
+          if (inside(i, j) !== inside(i, j + 1)) edges++;
+        }
       expect(a.perimeterMm).toBeCloseTo(edges * step, 9);
     }
   });
@@ -104,7 +135,7 @@ describe('the outline length of a jaw-and-leaf opening', () => {
 describe('the distance from a point to the outline of a jaw-and-leaf opening', () => {
   it('equals the distance to the nearest 0.5 mm raster cell on the other side, within a cell (random leaf patterns)', () => {
     let seed = 2024;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     const step = 0.5;
     for (let trial = 0; trial < 12; trial++) {
       const pairs = 10;
@@ -113,11 +144,12 @@ describe('the distance from a point to the outline of a jaw-and-leaf opening', (
       const a = apertureAt(beam({ pairs, width: 10 }), cp([-60, 55], [-42.5, 37.5], [...bank1, ...bank2]))!;
       const n = Math.round(160 / step);
       const centres: [number, number, boolean][] = [];
-      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-        const x = -80 + (i + 0.5) * step;
-        const y = -80 + (j + 0.5) * step;
-        centres.push([x, y, a.isOpen(x, y)]);
-      }
+      for (let i = 0; i < n; i++)
+        for (let j = 0; j < n; j++) {
+          const x = -80 + (i + 0.5) * step;
+          const y = -80 + (j + 0.5) * step;
+          centres.push([x, y, a.isOpen(x, y)]);
+        }
       for (let k = 0; k < 5; k++) {
         const px = rand() * 120 - 60;
         const py = rand() * 80 - 40;

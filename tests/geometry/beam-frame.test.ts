@@ -10,8 +10,15 @@ import { beamFrame, flatDepth, patientToBld, bldToPatient } from '../../src/geom
 import type { ControlPoint, PatientPosition } from '../../src/model/index.js';
 
 const cp = (gantry: number, collimator = 0, couch = 0, iso: [number, number, number] = [0, 0, 0]): ControlPoint => ({
-  index: 0, gantryAngleDeg: gantry, collimatorAngleDeg: collimator, couchAngleDeg: couch, cumulativeMetersetWeight: 0,
-  isocenterPatientMm: iso, devices: [], wedgePositions: [], doseReferenceCoefficients: [],
+  index: 0,
+  gantryAngleDeg: gantry,
+  collimatorAngleDeg: collimator,
+  couchAngleDeg: couch,
+  cumulativeMetersetWeight: 0,
+  isocenterPatientMm: iso,
+  devices: [],
+  wedgePositions: [],
+  doseReferenceCoefficients: [],
 });
 const source = (pos: PatientPosition, g: number, c = 0, t = 0) => {
   const f = beamFrame(cp(g, c, t), pos, 1000);
@@ -27,7 +34,8 @@ describe('source position in patient coordinates', () => {
   it('HFP, gantry 0: the source above a prone patient is posterior', () => expect(source('HFP', 0)).toEqual([0, 1000, 0]));
   it("FFS, gantry 90: feet first flips the sides: the patient's right", () => expect(source('FFS', 90)).toEqual([-1000, 0, 0]));
   it("FFP, gantry 90: prone and feet first: the patient's left", () => expect(source('FFP', 90)).toEqual([1000, 0, 0]));
-  it('HFS, gantry 90, couch 90: the couch foot swings towards the source, which is then inferior', () => expect(source('HFS', 90, 0, 90)).toEqual([0, 0, -1000]));
+  it('HFS, gantry 90, couch 90: the couch foot swings towards the source, which is then inferior', () =>
+    expect(source('HFS', 90, 0, 90)).toEqual([0, 0, -1000]));
   it('decubitus positions are refused, not guessed', () => expect(beamFrame(cp(0), 'HFDL', 1000)).toBeUndefined());
 });
 

@@ -17,14 +17,27 @@ import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
 const work = mkdtempSync(join(tmpdir(), 'plumbline-ct-'));
 const tableFile = join(work, 'hu-density.csv');
 writeFileSync(tableFile, '# test data\nhu,rho\n-1000,0\n0,1\n1000,1.5\n3000,2.5\n');
-const table = (() => { const t = loadDensityTable(tableFile); if (!t.ok) throw new Error('table'); return t.value; })();
+const table = (() => {
+  const t = loadDensityTable(tableFile);
+  if (!t.ok) throw new Error('table');
+  return t.value;
+})();
 const opts = { bodyThresholdHu: -500, density: table.density };
 
 /** 64³ voxels of 4 mm centred on the origin: faces at multiples of 4 mm, so ±100 mm lies on a boundary. */
 function phantom(name: string, hu: (x: number, y: number, z: number) => number): CtVolume {
   const dir = join(work, name);
   mkdirSync(dir);
-  const files = writeCtPhantom(dir, { name, columns: 64, rows: 64, slices: 64, spacingMm: [4, 4, 4], originMm: [-126, -126, -126], frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.1', hu });
+  const files = writeCtPhantom(dir, {
+    name,
+    columns: 64,
+    rows: 64,
+    slices: 64,
+    spacingMm: [4, 4, 4],
+    originMm: [-126, -126, -126],
+    frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.1',
+    hu,
+  });
   const r = readCtSeries(files);
   if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
   return r.value;
@@ -36,8 +49,17 @@ const bone = phantom('bone', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > 20 && y
 /** A water cylinder of radius 100 mm along z: on the axes its surface lies on voxel faces, elsewhere it is a staircase. */
 const cylinder = phantom('cylinder', (x, y, z) => (x * x + y * y < 100 * 100 && Math.abs(z) < 100 ? 0 : -1000));
 
-const cp = (gantry: number, collimator = 0, couch = 0): ControlPoint => ({ index: 0, gantryAngleDeg: gantry, collimatorAngleDeg: collimator, couchAngleDeg: couch,
-  cumulativeMetersetWeight: 0, isocenterPatientMm: [0, 0, 0], devices: [], wedgePositions: [], doseReferenceCoefficients: [] });
+const cp = (gantry: number, collimator = 0, couch = 0): ControlPoint => ({
+  index: 0,
+  gantryAngleDeg: gantry,
+  collimatorAngleDeg: collimator,
+  couchAngleDeg: couch,
+  cumulativeMetersetWeight: 0,
+  isocenterPatientMm: [0, 0, 0],
+  devices: [],
+  wedgePositions: [],
+  doseReferenceCoefficients: [],
+});
 const depth = (v: CtVolume, pos: PatientPosition, c: ControlPoint, point: Vec3) => {
   const f = beamFrame(c, pos, 1000)!;
   const r = ctDepth(v, f.sourcePatientMm, point, opts);
@@ -48,10 +70,15 @@ const depth = (v: CtVolume, pos: PatientPosition, c: ControlPoint, point: Vec3) 
 describe('the ray tracer', () => {
   it('the pieces of a ray through the volume add up to its length inside, each in the voxel it crosses', () => {
     let sum = 0;
-    traceRay(water, [-300, 1, 2], [300, 1, 2], (voxel, _start, length) => { sum += length; expect(voxel).toBeGreaterThanOrEqual(0); });
+    traceRay(water, [-300, 1, 2], [300, 1, 2], (voxel, _start, length) => {
+      sum += length;
+      expect(voxel).toBeGreaterThanOrEqual(0);
+    });
     expect(sum).toBeCloseTo(256, 9); // 64 voxels of 4 mm
     let diagonal = 0;
-    traceRay(water, [-128, -128, -128], [128, 128, 128], (_v, _s, l) => { diagonal += l; });
+    traceRay(water, [-128, -128, -128], [128, 128, 128], (_v, _s, l) => {
+      diagonal += l;
+    });
     expect(diagonal).toBeCloseTo(256 * Math.sqrt(3), 9);
   });
 });
@@ -103,7 +130,11 @@ describe('heterogeneous phantoms', () => {
   });
   it('lists the media met with the distance from each upper face to the point: water 150, lung 90, water 50 mm', () => {
     const d = depth(lung, 'HFS', cp(0), [0, 50, 0]);
-    expect(d.layers.map((l) => [Number(l.distanceToPointMm.toFixed(1)), l.density])).toEqual([[150, 1], [90, 0.25], [50, 1]]);
+    expect(d.layers.map((l) => [Number(l.distanceToPointMm.toFixed(1)), l.density])).toEqual([
+      [150, 1],
+      [90, 0.25],
+      [50, 1],
+    ]);
   });
   it('Batho: the generalized product gives the two-layer form TPR(5)^(1−ρ2) / TPR(9)^(1−ρ2) below the lung slab, and 1 in water', async () => {
     // The two-layer form (point in water below a slab of density ρ2): Khan, from memory; variables read in a secondary source.
@@ -115,7 +146,13 @@ describe('heterogeneous phantoms', () => {
     const expected = (tprAt(b6, 5, 10, []) / tprAt(b6, 9, 10, [])) ** 0.75;
     expect(bathoCorrection(b6, layers, 10).value).toBeCloseTo(expected, 9);
     const w = depth(water, 'HFS', cp(0), [0, 50, 0]);
-    expect(bathoCorrection(b6, w.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density })), 10).value).toBe(1);
+    expect(
+      bathoCorrection(
+        b6,
+        w.layers.map((l) => ({ distanceToPointCm: l.distanceToPointMm / 10, density: l.density })),
+        10,
+      ).value,
+    ).toBe(1);
   });
   it('refuses HU outside the density table rather than extrapolating', () => {
     const narrow = join(work, 'narrow.csv');
@@ -155,9 +192,10 @@ describe('a water cylinder (radius 100 mm)', () => {
     for (const g of [0, 90, 180, 270]) expect(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm).toBeCloseTo(100, 1);
   });
   it('oblique gantry angles, body by the HU threshold: depth 100 mm within half a voxel diagonal (the surface is a 4 mm staircase there; drawn as an EXTERNAL contour it is exact, below)', () => {
-    for (const g of [30, 45, 135, 300]) expect(Math.abs(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm - 100)).toBeLessThan(2 * Math.SQRT2);
+    for (const g of [30, 45, 135, 300])
+      expect(Math.abs(depth(cylinder, 'HFS', cp(g), [0, 0, 0]).geometricDepthMm - 100)).toBeLessThan(2 * Math.SQRT2);
   });
-  it('an off-centre point 50 mm left (x = +50) from gantry 90 (entering from the patient\'s left): depth 50 mm', () => {
+  it("an off-centre point 50 mm left (x = +50) from gantry 90 (entering from the patient's left): depth 50 mm", () => {
     expect(depth(cylinder, 'HFS', cp(90), [50, 0, 0]).geometricDepthMm).toBeCloseTo(50, 1);
   });
 });
@@ -170,7 +208,16 @@ describe('reading a CT series', () => {
   it('refuses a series with a missing slice, naming the slices around the gap', () => {
     const dir = join(work, 'gap');
     mkdirSync(dir);
-    const files = writeCtPhantom(dir, { name: 'gap', columns: 8, rows: 8, slices: 6, spacingMm: [4, 4, 4], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.3', hu: () => 0 });
+    const files = writeCtPhantom(dir, {
+      name: 'gap',
+      columns: 8,
+      rows: 8,
+      slices: 6,
+      spacingMm: [4, 4, 4],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.3',
+      hu: () => 0,
+    });
     rmSync(files[3]!);
     const r = readCtSeries(files.filter((_, i) => i !== 3));
     expect(!r.ok && r.issues[0]!.message).toMatch(/not evenly spaced: 8\.000 mm between .*gap-0003\.dcm and .*gap-0001\.dcm/);
@@ -198,7 +245,12 @@ describe('the body from an EXTERNAL contour', () => {
   };
 
   it('overrides the HU threshold: a body drawn 20 mm inside the anterior face gives SSD 920 mm', async () => {
-    const body = await external('box-body', water, (z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]]);
+    const body = await external('box-body', water, (z) => [
+      [-100, -80, z],
+      [100, -80, z],
+      [100, 100, z],
+      [-100, 100, z],
+    ]);
     const d = withBody(water, body, cp(0), [0, 50, 0]);
     expect(d.ssdMm).toBeCloseTo(920, 6);
     expect(d.geometricDepthMm).toBeCloseTo(130, 6);
@@ -209,7 +261,8 @@ describe('the body from an EXTERNAL contour', () => {
   });
 
   // The cylinder of radius 100 mm drawn as a 720-gon: its sides lie within 100·(1 − cos 0.25°) = 0.001 mm of the circle.
-  const circle = (z: number) => Array.from({ length: 720 }, (_, i) => [100 * Math.cos((i * Math.PI) / 360), 100 * Math.sin((i * Math.PI) / 360), z] as const);
+  const circle = (z: number) =>
+    Array.from({ length: 720 }, (_, i) => [100 * Math.cos((i * Math.PI) / 360), 100 * Math.sin((i * Math.PI) / 360), z] as const);
 
   it('a water cylinder drawn by its contour: depth 100 mm to its centre within 0.1 mm from every gantry angle, the voxels notwithstanding', async () => {
     const body = await external('cylinder-body', cylinder, circle);
@@ -240,14 +293,24 @@ describe('the body from an EXTERNAL contour', () => {
 
   it('a body drawn beyond the CT along the ray is refused: there are no densities there', async () => {
     // The CT spans y from −128 to 128 mm; this body starts at y = −140.
-    const body = await external('wide-body', water, (z) => [[-100, -140, z], [100, -140, z], [100, 100, z], [-100, 100, z]]);
+    const body = await external('wide-body', water, (z) => [
+      [-100, -140, z],
+      [100, -140, z],
+      [100, 100, z],
+      [-100, 100, z],
+    ]);
     const f = beamFrame(cp(0), 'HFS', 1000)!;
     const r = ctDepth(water, f.sourcePatientMm, [0, 50, 0], { ...opts, body });
     expect(!r.ok && r.message).toMatch(/enters the EXTERNAL contour 12\.0 mm before it enters the CT/);
   });
 
   it('a point outside the drawn body is refused, naming why', async () => {
-    const body = await external('box-body-2', water, (z) => [[-100, -80, z], [100, -80, z], [100, 100, z], [-100, 100, z]]);
+    const body = await external('box-body-2', water, (z) => [
+      [-100, -80, z],
+      [100, -80, z],
+      [100, 100, z],
+      [-100, 100, z],
+    ]);
     const f = beamFrame(cp(0), 'HFS', 1000)!;
     const r = ctDepth(water, f.sourcePatientMm, [0, -90, 0], { ...opts, body });
     expect(!r.ok && r.message).toMatch(/never enters the EXTERNAL contour/);
@@ -255,26 +318,37 @@ describe('the body from an EXTERNAL contour', () => {
 });
 
 describe('a CT series re-encoded by dcmtk dcmconv', () => {
-  it.each([['implicit VR little endian', ['+ti']], ['explicit VR big endian', ['+tb']], ['deflated explicit VR little endian', ['+td']]])(
-    '%s gives the same HU voxel for voxel', async (_name, args) => {
-      const { spawnSync } = await import('node:child_process');
-      const dir = join(work, `reencoded-${args[0]!.slice(1)}`);
-      mkdirSync(dir);
-      const src = join(work, 'small');
-      mkdirSync(src, { recursive: true });
-      const files = writeCtPhantom(src, { name: `small${args[0]}`, columns: 16, rows: 12, slices: 5, spacingMm: [2, 3, 4], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.3',
-        hu: (x, y, z) => Math.round(x * 7 - y * 3 + z * 11 - 500) });
-      const original = readCtSeries(files);
-      const converted = files.map((f, i) => {
-        const out = join(dir, `${i}.dcm`);
-        const r = spawnSync('dcmconv', [...args, f, out], { encoding: 'utf8' });
-        if (r.status !== 0) throw new Error(r.stderr);
-        return out;
-      });
-      const again = readCtSeries(converted);
-      expect(original.ok && again.ok).toBe(true);
-      if (original.ok && again.ok) expect(Array.from(again.value.hu)).toEqual(Array.from(original.value.hu));
+  it.each([
+    ['implicit VR little endian', ['+ti']],
+    ['explicit VR big endian', ['+tb']],
+    ['deflated explicit VR little endian', ['+td']],
+  ])('%s gives the same HU voxel for voxel', async (_name, args) => {
+    const { spawnSync } = await import('node:child_process');
+    const dir = join(work, `reencoded-${args[0]!.slice(1)}`);
+    mkdirSync(dir);
+    const src = join(work, 'small');
+    mkdirSync(src, { recursive: true });
+    const files = writeCtPhantom(src, {
+      name: `small${args[0]}`,
+      columns: 16,
+      rows: 12,
+      slices: 5,
+      spacingMm: [2, 3, 4],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.3',
+      hu: (x, y, z) => Math.round(x * 7 - y * 3 + z * 11 - 500),
     });
+    const original = readCtSeries(files);
+    const converted = files.map((f, i) => {
+      const out = join(dir, `${i}.dcm`);
+      const r = spawnSync('dcmconv', [...args, f, out], { encoding: 'utf8' });
+      if (r.status !== 0) throw new Error(r.stderr);
+      return out;
+    });
+    const again = readCtSeries(converted);
+    expect(original.ok && again.ok).toBe(true);
+    if (original.ok && again.ok) expect(Array.from(again.value.hu)).toEqual(Array.from(original.value.hu));
+  });
 });
 
 describe('a folder of several series', () => {
@@ -283,7 +357,16 @@ describe('a folder of several series', () => {
     const { readFileSync } = await import('node:fs');
     const dir = join(work, 'damaged');
     mkdirSync(dir);
-    const files = writeCtPhantom(dir, { name: 'dmg', columns: 8, rows: 8, slices: 4, spacingMm: [4, 4, 4], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.3', hu: () => 0 });
+    const files = writeCtPhantom(dir, {
+      name: 'dmg',
+      columns: 8,
+      rows: 8,
+      slices: 4,
+      spacingMm: [4, 4, 4],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.3',
+      hu: () => 0,
+    });
     writeFileSync(join(dir, 'notes.txt'), 'not DICOM');
     expect(readCtVolumes([...files, join(dir, 'notes.txt')]).volumes).toHaveLength(1);
     writeFileSync(files[2]!, readFileSync(files[2]!).subarray(0, 400));

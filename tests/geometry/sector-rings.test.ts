@@ -10,16 +10,47 @@ import type { Beam, ControlPoint } from '../../src/model/index.js';
 
 type Mlc = { type: 'MLCX' | 'MLCY'; pairs: number; width: number };
 const beam = (mlc?: Mlc, jaws = { x: true, y: true }): Beam => ({
-  number: 1, radiationType: 'PHOTON', beamType: 'STATIC', wedges: [], compensators: [], bolusRoiNumbers: [], blocks: [], applicators: [],
-  doseVerification: [], controlPoints: [],
+  number: 1,
+  radiationType: 'PHOTON',
+  beamType: 'STATIC',
+  wedges: [],
+  compensators: [],
+  bolusRoiNumbers: [],
+  blocks: [],
+  applicators: [],
+  doseVerification: [],
+  controlPoints: [],
   limitingDevices: [
-    ...(jaws.x ? [{ type: 'ASYMX' as const, numberOfPairs: 1 }] : []), ...(jaws.y ? [{ type: 'ASYMY' as const, numberOfPairs: 1 }] : []),
-    ...(mlc ? [{ type: mlc.type, numberOfPairs: mlc.pairs, leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width) }] : []),
+    ...(jaws.x ? [{ type: 'ASYMX' as const, numberOfPairs: 1 }] : []),
+    ...(jaws.y ? [{ type: 'ASYMY' as const, numberOfPairs: 1 }] : []),
+    ...(mlc
+      ? [
+          {
+            type: mlc.type,
+            numberOfPairs: mlc.pairs,
+            leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width),
+          },
+        ]
+      : []),
   ],
 });
-const cp = (x: [number, number] | undefined, y: [number, number] | undefined, leaves?: { type: 'MLCX' | 'MLCY'; positionsMm: number[] }): ControlPoint => ({
-  index: 0, gantryAngleDeg: 0, collimatorAngleDeg: 0, couchAngleDeg: 0, cumulativeMetersetWeight: 0, wedgePositions: [], doseReferenceCoefficients: [],
-  devices: [...(x ? [{ type: 'ASYMX' as const, positionsMm: x }] : []), ...(y ? [{ type: 'ASYMY' as const, positionsMm: y }] : []), ...(leaves ? [leaves] : [])],
+const cp = (
+  x: [number, number] | undefined,
+  y: [number, number] | undefined,
+  leaves?: { type: 'MLCX' | 'MLCY'; positionsMm: number[] },
+): ControlPoint => ({
+  index: 0,
+  gantryAngleDeg: 0,
+  collimatorAngleDeg: 0,
+  couchAngleDeg: 0,
+  cumulativeMetersetWeight: 0,
+  wedgePositions: [],
+  doseReferenceCoefficients: [],
+  devices: [
+    ...(x ? [{ type: 'ASYMX' as const, positionsMm: x }] : []),
+    ...(y ? [{ type: 'ASYMY' as const, positionsMm: y }] : []),
+    ...(leaves ? [leaves] : []),
+  ],
 });
 const T = 0.015;
 const close = (rings: readonly Ring[], expected: [number, number][]) => {
@@ -30,17 +61,31 @@ const close = (rings: readonly Ring[], expected: [number, number][]) => {
 describe('Clarkson rings by the leaf-band walk', () => {
   it('a sector leaving a C-shaped opening and entering it again, then under no leaves to the jaw', () => {
     // Three 10 mm pairs: the lower and upper open from −50 to 50, the middle only from −50 to −20.
-    const a = apertureAt(beam({ type: 'MLCX', pairs: 3, width: 10 }), cp([-100, 100], [-100, 100], { type: 'MLCX', positionsMm: [-50, -50, -50, 50, -20, 50] }))!;
+    const a = apertureAt(
+      beam({ type: 'MLCX', pairs: 3, width: 10 }),
+      cp([-100, 100], [-100, 100], { type: 'MLCX', positionsMm: [-50, -50, -50, 50, -20, 50] }),
+    )!;
     // From (30, −10) straight up: open to y = −5, under the middle pair's leaf to 5, open to 15, then
     // within the jaws but past the leaf bank (counted as under the leaves) to the jaw at y = 100.
-    close(ringsOf(a.sectorRingsMm(30, -10, 2, T))[0]!, [[5, 1], [15, T], [25, 1], [110, T]]);
+    close(ringsOf(a.sectorRingsMm(30, -10, 2, T))[0]!, [
+      [5, 1],
+      [15, T],
+      [25, 1],
+      [110, T],
+    ]);
   });
 
   it('a point outside the jaws: nothing until the ray enters the opening', () => {
     const a = apertureAt(beam(), cp([-50, 50], [-50, 50]))!;
     // One sector, pointing at 180°: from x = 80 the jaw edge at x = 50 is 30 mm away, the far one 130 mm.
-    close(ringsOf(a.sectorRingsMm(80, 0, 1, T))[0]!, [[30, 0], [130, 1]]);
-    close(ringsOf(crossingRings(a, [], 80, 0, 1, T))[0]!, [[30, 0], [130, 1]]);
+    close(ringsOf(a.sectorRingsMm(80, 0, 1, T))[0]!, [
+      [30, 0],
+      [130, 1],
+    ]);
+    close(ringsOf(crossingRings(a, [], 80, 0, 1, T))[0]!, [
+      [30, 0],
+      [130, 1],
+    ]);
   });
 
   it('leaves along X (MLCX) and along Y (MLCY) give the rings of the general form', () => {
@@ -50,13 +95,18 @@ describe('Clarkson rings by the leaf-band walk', () => {
     for (const a of [x, y]) {
       const fast = ringsOf(a.sectorRingsMm(12, -7, 36, T));
       const slow = ringsOf(crossingRings(a, [], 12, -7, 36, T));
-      fast.forEach((rings, i) => close(rings, slow[i]!.map((r) => [r.outerMm, r.weight])));
+      fast.forEach((rings, i) =>
+        close(
+          rings,
+          slow[i]!.map((r) => [r.outerMm, r.weight]),
+        ),
+      );
     }
   });
 
   it('agrees with the general edge-crossing form on random leaf patterns, points inside and outside the field', () => {
     let seed = 12345;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     let checked = 0;
     for (let trial = 0; trial < 200; trial++) {
       const type = trial % 2 ? 'MLCY' : 'MLCX';
@@ -67,7 +117,10 @@ describe('Clarkson rings by the leaf-band walk', () => {
       const bank2 = bank1.map((l) => (rand() < 0.15 ? l : Math.round((l + rand() * 120 - 10) * 10) / 10)); // some closed, some crossing
       positions.push(...bank1, ...bank2);
       const withJaws = { x: trial % 5 !== 0, y: trial % 7 !== 0 };
-      const a = apertureAt(beam({ type, pairs, width }, withJaws), cp(withJaws.x ? [-60, 70] : undefined, withJaws.y ? [-45, 55] : undefined, { type, positionsMm: positions }));
+      const a = apertureAt(
+        beam({ type, pairs, width }, withJaws),
+        cp(withJaws.x ? [-60, 70] : undefined, withJaws.y ? [-45, 55] : undefined, { type, positionsMm: positions }),
+      );
       if (!a || a.areaMm2 === 0) continue;
       checked++;
       const px = rand() * 200 - 100;
@@ -75,7 +128,10 @@ describe('Clarkson rings by the leaf-band walk', () => {
       const fast = ringsOf(a.sectorRingsMm(px, py, 72, T));
       const slow = ringsOf(crossingRings(a, [], px, py, 72, T));
       fast.forEach((rings, i) => {
-        expect(rings.map((r) => r.weight), `trial ${trial} sector ${i}`).toEqual(slow[i]!.map((r) => r.weight));
+        expect(
+          rings.map((r) => r.weight),
+          `trial ${trial} sector ${i}`,
+        ).toEqual(slow[i]!.map((r) => r.weight));
         rings.forEach((r, k) => expect(Math.abs(r.outerMm - slow[i]![k]!.outerMm), `trial ${trial} sector ${i} ring ${k}`).toBeLessThan(1e-7));
       });
     }

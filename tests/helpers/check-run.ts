@@ -24,11 +24,22 @@ export function importOrThrow(file: string): Plan {
   return r.value.plan;
 }
 
-export function check(plan: Plan, machine: MachineModel, options: { aliases?: Record<string, string>; point?: [number, number, number]; suggest?: boolean } = {}): PlanCheck {
-  return checkPlan(plan, { path: 'test.dcm', sha256: '0' }, {
-    machine, policy: DEFAULT_POLICY, aliases: new Map(Object.entries(options.aliases ?? {})),
-    ...(options.point ? { pointPatientMm: options.point } : {}), suggestPoint: options.suggest ?? false,
-  });
+export function check(
+  plan: Plan,
+  machine: MachineModel,
+  options: { aliases?: Record<string, string>; point?: [number, number, number]; suggest?: boolean } = {},
+): PlanCheck {
+  return checkPlan(
+    plan,
+    { path: 'test.dcm', sha256: '0' },
+    {
+      machine,
+      policy: DEFAULT_POLICY,
+      aliases: new Map(Object.entries(options.aliases ?? {})),
+      ...(options.point ? { pointPatientMm: options.point } : {}),
+      suggestPoint: options.suggest ?? false,
+    },
+  );
 }
 
 export const beams = (r: PlanCheck) => r.fractionGroups.flatMap((g) => g.beams);

@@ -98,18 +98,31 @@ const BEAM: Spec = {
   WedgeSequence: {
     items: (b) => b.wedges,
     fields: {
-      WedgeNumber: (w) => w.number, WedgeType: (w) => w.type, WedgeID: (w) => w.id, WedgeAngle: (w) => w.angleDeg,
-      WedgeFactor: (w) => w.factor, WedgeOrientation: (w) => w.orientationDeg,
-      SourceToWedgeTrayDistance: (w) => w.sourceToWedgeTrayDistanceMm, EffectiveWedgeAngle: (w) => w.effectiveAngleDeg,
+      WedgeNumber: (w) => w.number,
+      WedgeType: (w) => w.type,
+      WedgeID: (w) => w.id,
+      WedgeAngle: (w) => w.angleDeg,
+      WedgeFactor: (w) => w.factor,
+      WedgeOrientation: (w) => w.orientationDeg,
+      SourceToWedgeTrayDistance: (w) => w.sourceToWedgeTrayDistanceMm,
+      EffectiveWedgeAngle: (w) => w.effectiveAngleDeg,
     },
   },
   BlockSequence: {
     items: (b) => b.blocks,
     fields: {
-      BlockNumber: (k) => k.number, BlockName: (k) => k.name, BlockTrayID: (k) => k.trayId,
-      SourceToBlockTrayDistance: (k) => k.sourceToTrayDistanceMm, BlockType: (k) => k.type, BlockDivergence: (k) => k.divergence,
-      BlockMountingPosition: (k) => k.mountingPosition, MaterialID: (k) => k.materialId, BlockThickness: (k) => k.thicknessMm,
-      BlockTransmission: (k) => k.transmission, BlockNumberOfPoints: (k) => k.outlineMm.length, BlockData: (k) => k.outlineMm.flat(),
+      BlockNumber: (k) => k.number,
+      BlockName: (k) => k.name,
+      BlockTrayID: (k) => k.trayId,
+      SourceToBlockTrayDistance: (k) => k.sourceToTrayDistanceMm,
+      BlockType: (k) => k.type,
+      BlockDivergence: (k) => k.divergence,
+      BlockMountingPosition: (k) => k.mountingPosition,
+      MaterialID: (k) => k.materialId,
+      BlockThickness: (k) => k.thicknessMm,
+      BlockTransmission: (k) => k.transmission,
+      BlockNumberOfPoints: (k) => k.outlineMm.length,
+      BlockData: (k) => k.outlineMm.flat(),
     },
   },
   ApplicatorSequence: {
@@ -120,8 +133,13 @@ const BEAM: Spec = {
   CompensatorSequence: {
     items: (b) => b.compensators,
     fields: {
-      CompensatorNumber: (c) => c.number, CompensatorType: (c) => c.type, CompensatorID: (c) => c.id, MaterialID: (c) => c.materialId,
-      CompensatorRows: (c) => c.rows, CompensatorColumns: (c) => c.columns, SourceToCompensatorTrayDistance: (c) => c.sourceToTrayDistanceMm,
+      CompensatorNumber: (c) => c.number,
+      CompensatorType: (c) => c.type,
+      CompensatorID: (c) => c.id,
+      MaterialID: (c) => c.materialId,
+      CompensatorRows: (c) => c.rows,
+      CompensatorColumns: (c) => c.columns,
+      SourceToCompensatorTrayDistance: (c) => c.sourceToTrayDistanceMm,
     },
   },
   ReferencedDoseReferenceSequence: {
@@ -132,9 +150,12 @@ const BEAM: Spec = {
       BeamDoseVerificationControlPointSequence: {
         items: (v) => v.points,
         fields: {
-          CumulativeMetersetWeight: (p) => p.cumulativeMetersetWeight, ReferencedControlPointIndex: (p) => p.controlPointIndex,
-          BeamDosePointDepth: (p) => p.pointDepthMm, BeamDosePointEquivalentDepth: (p) => p.equivalentDepthMm,
-          BeamDosePointSSD: (p) => p.ssdMm, BeamDosePointSourceToExternalContourDistance: (p) => p.sourceToExternalContourMm,
+          CumulativeMetersetWeight: (p) => p.cumulativeMetersetWeight,
+          ReferencedControlPointIndex: (p) => p.controlPointIndex,
+          BeamDosePointDepth: (p) => p.pointDepthMm,
+          BeamDosePointEquivalentDepth: (p) => p.equivalentDepthMm,
+          BeamDosePointSSD: (p) => p.ssdMm,
+          BeamDosePointSourceToExternalContourDistance: (p) => p.sourceToExternalContourMm,
         },
       },
     },
@@ -171,31 +192,45 @@ export const PLAN_SPEC: Spec = {
   RTPlanGeometry: (p) => p.geometry,
   PlanIntent: (p) => p.intent,
   ApprovalStatus: (p) => p.approvalStatus,
-  ReferencedStructureSetSequence: { items: (p) => p.referencedStructureSetUids.map((u: string) => ({ u })), fields: { ReferencedSOPInstanceUID: (x) => x.u } },
+  ReferencedStructureSetSequence: {
+    items: (p) => p.referencedStructureSetUids.map((u: string) => ({ u })),
+    fields: { ReferencedSOPInstanceUID: (x) => x.u },
+  },
   ReferencedDoseSequence: { items: (p) => p.referencedDoseUids.map((u: string) => ({ u })), fields: { ReferencedSOPInstanceUID: (x) => x.u } },
   PatientSetupSequence: {
     items: (p) => p.patientSetups,
     fields: {
-      PatientSetupNumber: (s) => s.number, PatientPosition: (s) => s.position,
-      PatientAdditionalPosition: (s) => s.additionalPosition, SetupTechnique: (s) => s.setupTechnique,
+      PatientSetupNumber: (s) => s.number,
+      PatientPosition: (s) => s.position,
+      PatientAdditionalPosition: (s) => s.additionalPosition,
+      SetupTechnique: (s) => s.setupTechnique,
     },
   },
   DoseReferenceSequence: {
     items: (p) => p.doseReferences,
     fields: {
-      DoseReferenceNumber: (d) => d.number, DoseReferenceUID: (d) => d.uid, DoseReferenceStructureType: (d) => d.structureType,
-      DoseReferenceDescription: (d) => d.description, ReferencedROINumber: (d) => d.roiNumber,
-      DoseReferencePointCoordinates: (d) => d.pointPatientMm, DoseReferenceType: (d) => d.type,
-      TargetPrescriptionDose: (d) => d.targetPrescriptionDoseGy, TargetMinimumDose: (d) => d.targetMinimumDoseGy,
-      TargetMaximumDose: (d) => d.targetMaximumDoseGy, DeliveryWarningDose: (d) => d.deliveryWarningDoseGy,
-      DeliveryMaximumDose: (d) => d.deliveryMaximumDoseGy, OrganAtRiskMaximumDose: (d) => d.organAtRiskMaximumDoseGy,
+      DoseReferenceNumber: (d) => d.number,
+      DoseReferenceUID: (d) => d.uid,
+      DoseReferenceStructureType: (d) => d.structureType,
+      DoseReferenceDescription: (d) => d.description,
+      ReferencedROINumber: (d) => d.roiNumber,
+      DoseReferencePointCoordinates: (d) => d.pointPatientMm,
+      DoseReferenceType: (d) => d.type,
+      TargetPrescriptionDose: (d) => d.targetPrescriptionDoseGy,
+      TargetMinimumDose: (d) => d.targetMinimumDoseGy,
+      TargetMaximumDose: (d) => d.targetMaximumDoseGy,
+      DeliveryWarningDose: (d) => d.deliveryWarningDoseGy,
+      DeliveryMaximumDose: (d) => d.deliveryMaximumDoseGy,
+      OrganAtRiskMaximumDose: (d) => d.organAtRiskMaximumDoseGy,
     },
   },
   FractionGroupSequence: {
     items: (p) => p.fractionGroups,
     fields: {
-      FractionGroupNumber: (g) => g.number, FractionGroupDescription: (g) => g.description,
-      NumberOfFractionsPlanned: (g) => g.fractionsPlanned, BeamDoseMeaning: (g) => g.beamDoseMeaning,
+      FractionGroupNumber: (g) => g.number,
+      FractionGroupDescription: (g) => g.description,
+      NumberOfFractionsPlanned: (g) => g.fractionsPlanned,
+      BeamDoseMeaning: (g) => g.beamDoseMeaning,
       NumberOfBeams: (g) => g.beams.length,
       ReferencedDoseReferenceSequence: {
         items: (g) => g.doseReferences,
@@ -204,11 +239,17 @@ export const PLAN_SPEC: Spec = {
       ReferencedBeamSequence: {
         items: (g) => g.beams,
         fields: {
-          ReferencedBeamNumber: (b) => b.beamNumber, BeamMeterset: (b) => b.beamMeterset, BeamDose: (b) => b.beamDoseGy,
-          BeamDoseSpecificationPoint: (b) => b.beamDoseSpecificationPointPatientMm, BeamDoseType: (b) => b.beamDoseType,
-          AlternateBeamDose: (b) => b.alternateBeamDoseGy, AlternateBeamDoseType: (b) => b.alternateBeamDoseType,
-          ReferencedDoseReferenceUID: (b) => b.doseReferenceUid, BeamDosePointDepth: (b) => b.pointDepthMm,
-          BeamDosePointEquivalentDepth: (b) => b.equivalentDepthMm, BeamDosePointSSD: (b) => b.pointSsdMm,
+          ReferencedBeamNumber: (b) => b.beamNumber,
+          BeamMeterset: (b) => b.beamMeterset,
+          BeamDose: (b) => b.beamDoseGy,
+          BeamDoseSpecificationPoint: (b) => b.beamDoseSpecificationPointPatientMm,
+          BeamDoseType: (b) => b.beamDoseType,
+          AlternateBeamDose: (b) => b.alternateBeamDoseGy,
+          AlternateBeamDoseType: (b) => b.alternateBeamDoseType,
+          ReferencedDoseReferenceUID: (b) => b.doseReferenceUid,
+          BeamDosePointDepth: (b) => b.pointDepthMm,
+          BeamDosePointEquivalentDepth: (b) => b.equivalentDepthMm,
+          BeamDosePointSSD: (b) => b.pointSsdMm,
         },
       },
     },
@@ -259,7 +300,10 @@ export function comparePlanWithReference(plan: Plan, ref: RefNode): Comparison {
         checked++;
         if (want === undefined) {
           if (carry && prev !== undefined && !NOT_CARRIED.has(kw)) {
-            if (!isDeepStrictEqual(got, s(prev))) mismatches.push(`${at}: absent here, so the value in force should be carried forward (${JSON.stringify(s(prev))}), model has ${JSON.stringify(got)}`);
+            if (!isDeepStrictEqual(got, s(prev)))
+              mismatches.push(
+                `${at}: absent here, so the value in force should be carried forward (${JSON.stringify(s(prev))}), model has ${JSON.stringify(got)}`,
+              );
           } else if (got !== undefined && !(Array.isArray(got) && got.length === 0)) {
             mismatches.push(`${at}: reference has no value, model has ${JSON.stringify(got)}`);
           }

@@ -18,14 +18,24 @@ const rectangleRadii = (x: number, y: number, n: number) =>
   });
 
 describe('Clarkson integration', () => {
-  it.each([[5, 5], [10, 10], [15, 15], [20, 20], [8, 12], [12, 15]])('%d x %d cm at 10 cm depth: within 0.5 % of Sp·TPR of the 4A/P square', (x, y) => {
+  it.each([
+    [5, 5],
+    [10, 10],
+    [15, 15],
+    [20, 20],
+    [8, 12],
+    [12, 15],
+  ])('%d x %d cm at 10 cm depth: within 0.5 % of Sp·TPR of the 4A/P square', (x, y) => {
     const side = equivalentSquareCm(x, y);
     const square = spAt(b10, side, []) * tprAt(b10, 10, side, []);
     const c = clarksonSpTpr(b10, 10, rectangleRadii(x, y, 72), []);
     expect(Math.abs(c.spTpr / square - 1)).toBeLessThan(0.005);
   });
 
-  it.each([[5, 20], [10, 20]])('elongated %d x %d cm: Clarkson gives a little less scatter than 4A/P (within 1 %)', (x, y) => {
+  it.each([
+    [5, 20],
+    [10, 20],
+  ])('elongated %d x %d cm: Clarkson gives a little less scatter than 4A/P (within 1 %)', (x, y) => {
     // Equivalent-square tables give smaller sides than 4A/P for elongated fields (from memory), as Clarkson does here.
     const side = equivalentSquareCm(x, y);
     const ratio = clarksonSpTpr(b10, 10, rectangleRadii(x, y, 72), []).spTpr / (spAt(b10, side, []) * tprAt(b10, 10, side, []));
@@ -50,7 +60,12 @@ describe('Clarkson integration', () => {
     };
     const blocked = clarksonSpTpr(b10, 10, rings, []);
     const open = clarksonSpTpr(b10, 10, radii, []);
-    const block = clarksonSpTpr(b10, 10, radii.map(() => 2), []);
+    const block = clarksonSpTpr(
+      b10,
+      10,
+      radii.map(() => 2),
+      [],
+    );
     expect(blocked.meanSpr).toBeCloseTo(open.meanSpr - block.meanSpr, 12);
     expect(blocked.meanSpr).toBeLessThan(open.meanSpr);
   });

@@ -5,7 +5,14 @@ describe('equivalent square', () => {
   // Area-to-perimeter rule 4A/P = 2XY/(X + Y) (Sterling; read in several sources); the sides below are
   // that formula's arithmetic as listed in the project's reference values (section 3.2).
   it.each([
-    [10, 20, 13.33], [5, 20, 8.0], [12, 15, 13.33], [5, 10, 6.67], [8, 12, 9.6], [10, 15, 12.0], [12, 20, 15.0], [15, 25, 18.75],
+    [10, 20, 13.33],
+    [5, 20, 8.0],
+    [12, 15, 13.33],
+    [5, 10, 6.67],
+    [8, 12, 9.6],
+    [10, 15, 12.0],
+    [12, 20, 15.0],
+    [15, 25, 18.75],
   ])('%d x %d cm -> %d cm by 4A/P', (x, y, side) => {
     expect(equivalentSquareCm(x, y)).toBeCloseTo(side, 2);
     expect(equivalentSquareCm(y, x)).toBeCloseTo(side, 2);

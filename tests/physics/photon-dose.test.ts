@@ -27,13 +27,18 @@ describe('TG-71 photon point dose', () => {
     for (const side of [4, 10, 25]) expect(tprAt({ ...b6, tpr: undefined } as PhotonBeamModel, b6.calibration.d0Cm, side, [])).toBeCloseTo(1, 12);
   });
 
-  it('the reference condition gives D\'0: 10 x 10 at SSD0, depth d0 (identity)', () => {
+  it("the reference condition gives D'0: 10 x 10 at SSD0, depth d0 (identity)", () => {
     const r = dose(b6, { setup: 'SSD', collimatorFieldCm: { x: 10, y: 10 }, depthCm: b6.calibration.d0Cm, ssdCm: 100 });
     expect(r.dosePerMuCGy).toBeCloseTo(b6.calibration.doseCGyPerMu, 3);
   });
 
   it('SSD and SAD formalisms give the same dose at the same point (exact with consistent tables)', () => {
-    for (const [x, y, d, ssd] of [[10, 10, 10, 100], [8, 15, 5, 92], [20, 20, 15, 85], [5, 5, 3, 97]] as const) {
+    for (const [x, y, d, ssd] of [
+      [10, 10, 10, 100],
+      [8, 15, 5, 92],
+      [20, 20, 15, 85],
+      [5, 5, 3, 97],
+    ] as const) {
       const input = { collimatorFieldCm: { x, y }, depthCm: d, ssdCm: ssd };
       const ssdDose = dose(derivedPdd, { setup: 'SSD', ...input }).dosePerMuCGy;
       const sadDose = dose(derivedPdd, { setup: 'SAD', ...input }).dosePerMuCGy;
@@ -52,7 +57,15 @@ describe('TG-71 photon point dose', () => {
   });
 
   it('MU for a dose inverts dose per MU exactly, and the factors multiply to the dose per MU', () => {
-    const r = dose(b6, { setup: 'SAD', collimatorFieldCm: { x: 12, y: 8 }, depthCm: 8.5, ssdCm: 91.5, offAxisCm: 3, wedgeId: 'W30', trayId: 'BLOCK_TRAY' });
+    const r = dose(b6, {
+      setup: 'SAD',
+      collimatorFieldCm: { x: 12, y: 8 },
+      depthCm: 8.5,
+      ssdCm: 91.5,
+      offAxisCm: 3,
+      wedgeId: 'W30',
+      trayId: 'BLOCK_TRAY',
+    });
     expect(muForDose(r, 200) * r.dosePerMuCGy).toBeCloseTo(200, 10);
     expect(r.factors.reduce((p, f) => p * f.value, 1)).toBeCloseTo(r.dosePerMuCGy, 14);
     expect(r.factors.map((f) => f.key)).toEqual(['D0', 'Sc', 'Sp', 'TPR', 'ISF', 'OAR', 'WF', 'TF']);
@@ -85,8 +98,12 @@ describe('Sp from Scp', () => {
   it('a beam with Scp instead of Sp uses Sp = Scp / Sc, and gives the same dose as the beam with that Sp', async () => {
     const { makeTableLookup } = await import('../../src/beamdata/index.js');
     const sides = b6.sp!.rows.values;
-    const scp = makeTableLookup({ name: '6X scp', rows: b6.sp!.rows, interpolation: 'bilinear',
-      values: Float64Array.from(sides, (s) => b6.sp!.at(s, 0, []) * b6.sc.at(s, 0, [])) });
+    const scp = makeTableLookup({
+      name: '6X scp',
+      rows: b6.sp!.rows,
+      interpolation: 'bilinear',
+      values: Float64Array.from(sides, (s) => b6.sp!.at(s, 0, []) * b6.sc.at(s, 0, [])),
+    });
     const { sp: _sp, ...rest } = b6;
     const withScp: PhotonBeamModel = { ...rest, scp };
     // The point at the isocenter: Sp is looked up at 10 cm, a table node, where Scp/Sc is exactly Sp.

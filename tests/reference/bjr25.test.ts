@@ -11,7 +11,12 @@ const m = machine(BJR25_MANIFEST);
 
 describe('BJR Supplement 25 depth doses as beam data', () => {
   it.each([
-    ['4X', 6, 10, 59.7], ['4X', 10, 20, 34.1], ['5X', 7, 10, 62.9], ['6X', 10, 10, 67.5], ['6X', 6, 20, 36.4], ['8X', 10, 20, 43.4],
+    ['4X', 6, 10, 59.7],
+    ['4X', 10, 20, 34.1],
+    ['5X', 7, 10, 62.9],
+    ['6X', 10, 10, 67.5],
+    ['6X', 6, 20, 36.4],
+    ['8X', 10, 20, 43.4],
   ] as const)('%s, %d cm field, %d cm depth: %d % read back from the table', (id, side, depth, pdd) => {
     expect(pddAt(beam(m, id), depth, side, 100, [])).toBeCloseTo(pdd, 10);
   });
@@ -25,7 +30,7 @@ describe('BJR Supplement 25 depth doses as beam data', () => {
     expect(tpr2010FromPddRatio(pddAt(b, 20, 10, 100, []), pddAt(b, 10, 10, 100, []))).toBeCloseTo(0.678, 3);
   });
 
-  it('6 MV 10 x 10 at SSD 100, 10 cm deep: 100 MU give 67.5 cGy at 1 cGy/MU (D = MU · D\'0 · PDD/100)', () => {
+  it("6 MV 10 x 10 at SSD 100, 10 cm deep: 100 MU give 67.5 cGy at 1 cGy/MU (D = MU · D'0 · PDD/100)", () => {
     const r = photonDosePerMu(beam(m, '6X'), 100, { setup: 'SSD', collimatorFieldCm: { x: 10, y: 10 }, depthCm: 10, ssdCm: 100 });
     expect(r.ok && 100 * r.value.dosePerMuCGy).toBeCloseTo(67.5, 10);
   });
@@ -33,7 +38,8 @@ describe('BJR Supplement 25 depth doses as beam data', () => {
   it('refuses a field whose output factors the source does not give, naming the table and its range', () => {
     const r = photonDosePerMu(beam(m, '6X'), 100, { setup: 'SSD', collimatorFieldCm: { x: 7, y: 7 }, depthCm: 10, ssdCm: 100 });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues[0]!.message).toMatch(/6X sc \(reference-field\.csv\): fieldSide 7\.00 cm is outside the table \(10\.00 to 10\.00 cm\)/);
+    if (!r.ok)
+      expect(r.issues[0]!.message).toMatch(/6X sc \(reference-field\.csv\): fieldSide 7\.00 cm is outside the table \(10\.00 to 10\.00 cm\)/);
   });
 
   it('plumbline calc and beams validate work on it (validate: only the missing dmax rows, exit 1)', () => {

@@ -15,7 +15,12 @@ function ssdPlan(file: string, energy: number, fieldMm: number, depthMm: number,
   const point: [number, number, number] = [0, depthMm, 0]; // gantry 0, HFS: the beam travels towards +y (posterior)
   const half = fieldMm / 2;
   return planFromSpec({
-    file, patientId: 'REF-1', patientName: 'Reference^Case', label: 'REF', name: 'reference case', description: 'built from published inputs',
+    file,
+    patientId: 'REF-1',
+    patientName: 'Reference^Case',
+    label: 'REF',
+    name: 'reference case',
+    description: 'built from published inputs',
     doseReferences: [coordinatesDoseReference(1, 'point', point, doseGy)],
     fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: doseGy, beams: [{ number: 1, mu, doseGy, specPoint: point }] }],
     beams: [staticBeam(1, 'REF', energy, 0, 1000, iso, { first: { jawsXMm: [-half, half], jawsYMm: [-half, half] } })],

@@ -33,7 +33,12 @@ describe('electron MU: the published worked examples', () => {
   });
   it('2.3: 6 MeV, 6x6 cone, 5 cm circle, 200 cGy at 1.88 cm (PDD 90 %) → 233 MU', () => {
     // The circle by its equal-area square, 5·√π/2 = 4.43 cm.
-    const r = mu('6E', { applicatorId: 'A06', field: { kind: 'equivalent-square', sideCm: (5 * Math.sqrt(Math.PI)) / 2, method: 'equal area' }, depthCm: 1.88, ssdCm: 100 });
+    const r = mu('6E', {
+      applicatorId: 'A06',
+      field: { kind: 'equivalent-square', sideCm: (5 * Math.sqrt(Math.PI)) / 2, method: 'equal area' },
+      depthCm: 1.88,
+      ssdCm: 100,
+    });
     expect(Math.round(r)).toBe(233);
   });
   it('2.4: 9 MeV, 15x15 cone, 9x15 cutout, SSD 105 (VSD 91.1 cm, dmax 2.2 cm) → 221 MU', () => {
@@ -46,12 +51,29 @@ describe('electron MU: the published worked examples', () => {
     // An AP field on a head-first supine patient (gantry 0 enters anteriorly, from −y): the point at dmax on the central axis.
     const iso: [number, number, number] = [0, 0, 0];
     const point: [number, number, number] = [0, 50 + 22, 0]; // the source at y = −1000 mm, so the surface (SSD 1050) at y = +50 mm; dmax 22 mm below it
-    const cutout = [[-45, -75], [45, -75], [45, 75], [-45, 75]] as const; // 9 × 15 cm at the isocenter plane (= the nominal SSD)
+    const cutout = [
+      [-45, -75],
+      [45, -75],
+      [45, 75],
+      [-45, 75],
+    ] as const; // 9 × 15 cm at the isocenter plane (= the nominal SSD)
     const plan = planFromSpec({
-      file: 'e-example-2-4.dcm', patientId: 'E-2.4', patientName: 'Electron^Example', label: 'E 2.4', name: 'E 2.4', description: 'worked example 2.4',
+      file: 'e-example-2-4.dcm',
+      patientId: 'E-2.4',
+      patientName: 'Electron^Example',
+      label: 'E 2.4',
+      name: 'E 2.4',
+      description: 'worked example 2.4',
       doseReferences: [coordinatesDoseReference(1, 'dmax', point, 2)],
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 221, doseGy: 2, specPoint: point }] }],
-      beams: [staticBeam(1, 'E9', 9, 0, 1050, iso, { radiation: 'ELECTRON', applicator: { id: 'A15', type: 'ELECTRON_SQUARE', description: '15 x 15 cone' }, cutout, first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] } })],
+      beams: [
+        staticBeam(1, 'E9', 9, 0, 1050, iso, {
+          radiation: 'ELECTRON',
+          applicator: { id: 'A15', type: 'ELECTRON_SQUARE', description: '15 x 15 cone' },
+          cutout,
+          first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
+        }),
+      ],
     }).plan;
     const b = beams(check(plan, m, { aliases: { NG_LINAC1: m.name } }))[0]!;
     expect(b.reason).toBeUndefined();

@@ -34,7 +34,10 @@ const importOrThrow = (file: string) => {
 describe('demo plans against dicom3tools dciodvfy', () => {
   it.each(DEMO_PLANS.map((f) => [basename(f), f]))('%s has no errors and only explained warnings', (_name, file) => {
     const r = spawnSync('dciodvfy', [file], { encoding: 'utf8' });
-    const lines = `${r.stdout}\n${r.stderr}`.split('\n').map((l) => l.trim()).filter(Boolean);
+    const lines = `${r.stdout}\n${r.stderr}`
+      .split('\n')
+      .map((l) => l.trim())
+      .filter(Boolean);
     // dciodvfy names the IOD it checked against on a line of its own.
     expect(lines).toContain('RTPlan');
     const unexplained = lines.filter((l) => l !== 'RTPlan' && !EXPLAINED_WARNINGS.some((re) => re.test(l)));

@@ -25,8 +25,29 @@ describe("Khan's SSD example", () => {
   });
 
   it('gives the same through `plumbline calc --json`, the interface for checking the engine from outside', () => {
-    const out = spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'calc', '--beam-data', KHAN_MANIFEST, '--energy', '4',
-      '--setup', 'SSD', '--field', '15x15', '--depth', '10', '--dose', '200', '--json'], { encoding: 'utf8' });
+    const out = spawnSync(
+      process.execPath,
+      [
+        '--import',
+        'tsx',
+        'src/cli/bin.ts',
+        'calc',
+        '--beam-data',
+        KHAN_MANIFEST,
+        '--energy',
+        '4',
+        '--setup',
+        'SSD',
+        '--field',
+        '15x15',
+        '--depth',
+        '10',
+        '--dose',
+        '200',
+        '--json',
+      ],
+      { encoding: 'utf8' },
+    );
     expect(out.status).toBe(0);
     const doc = CalcDocument.parse(JSON.parse(out.stdout));
     expect(doc.mu).toBeCloseTo(298.2, 1);

@@ -11,7 +11,9 @@ const file = join(samples, 'rtdose.dcm');
 describe('rtdose.dcm', () => {
   // pydicom's reading: the grid in Gy, voxel-centre positions, and the mean of a 2 x 2 x 2 block of
   // voxels, which is what trilinear interpolation must give at the block's centre.
-  const ref = JSON.parse(runPython(`
+  const ref = JSON.parse(
+    runPython(
+      `
 import json, sys, pydicom, numpy as np
 d = pydicom.dcmread(sys.argv[1])
 g = d.pixel_array.astype(float) * float(d.DoseGridScaling)
@@ -22,7 +24,10 @@ for (k, j, i) in [(0, 0, 0), (5, 4, 3), (13, 8, 8)]:
     blocks.append({"point": [(a + b) / 2 for a, b in zip(pos(k, j, i), pos(k + 1, j + 1, i + 1))], "mean": g[k:k+2, j:j+2, i:i+2].mean()})
 print(json.dumps({"max": g.max(), "shape": list(g.shape), "summation": d.DoseSummationType, "units": d.DoseUnits,
   "voxel": {"point": pos(7, 5, 2), "dose": g[7, 5, 2]}, "blocks": blocks}))
-`, [file]));
+`,
+      [file],
+    ),
+  );
 
   it('reads the grid as pydicom does: shape, maximum, summation type and units', () => {
     const r = readRtDose(file);

@@ -11,17 +11,24 @@ describe('coded notes in words', () => {
     }
   });
   it('writes the numbers with their units and the precision a physicist reads', () => {
-    expect(noteText(note('near-field-edge', { edgeDistanceCm: 1.234, marginCm: 1.5 }))).toBe('the point is 1.2 cm from the field edge (margin 1.5 cm)');
+    expect(noteText(note('near-field-edge', { edgeDistanceCm: 1.234, marginCm: 1.5 }))).toBe(
+      'the point is 1.2 cm from the field edge (margin 1.5 cm)',
+    );
     expect(noteText(note('sad-differs', { sadMm: 800, machineSadCm: 100 }))).toBe("the beam's SAD (800 mm) is not the machine's (100 cm)");
     expect(noteText(note('segment-no-ssd', { controlPoint: 4 }))).toMatch(/^control points 4–5: the plan gives no SSD there/);
     expect(noteText(note('ct-trace', { message: 'the ray leaves the CT', controlPoint: 2 }))).toBe('CT, control points 2–3: the ray leaves the CT');
     expect(noteText(note('ct-trace', { message: 'the ray leaves the CT' }))).toBe('CT: the ray leaves the CT');
-    expect(noteText(note('patient-position', { position: 'HFDR', supported: 'HFS, HFP, FFS, FFP' }))).toBe('patient position HFDR: the beam geometry supports HFS, HFP, FFS and FFP so far');
-    expect(noteText(note('clarkson-irregular', { mlc: 0, blocks: 2, sectors: 72, leafTransmission: 0.015, blockTransmissions: [0, 0.05] })))
-      .toBe('irregular field (2 block(s)) by Clarkson integration over 72 sectors; leaf transmission 0.015, block transmission as the plan states (0, 0.05)');
+    expect(noteText(note('patient-position', { position: 'HFDR', supported: 'HFS, HFP, FFS, FFP' }))).toBe(
+      'patient position HFDR: the beam geometry supports HFS, HFP, FFS and FFP so far',
+    );
+    expect(noteText(note('clarkson-irregular', { mlc: 0, blocks: 2, sectors: 72, leafTransmission: 0.015, blockTransmissions: [0, 0.05] }))).toBe(
+      'irregular field (2 block(s)) by Clarkson integration over 72 sectors; leaf transmission 0.015, block transmission as the plan states (0, 0.05)',
+    );
   });
   it('names the point by what chose it, and a clamp by its table, axis and values', () => {
-    expect(pointText({ source: 'dose-reference', doseReferenceVia: 'referenced-uid', doseReferenceNumber: 3 })).toBe("dose reference 3 named by the beam's Referenced Dose Reference UID");
+    expect(pointText({ source: 'dose-reference', doseReferenceVia: 'referenced-uid', doseReferenceNumber: 3 })).toBe(
+      "dose reference 3 named by the beam's Referenced Dose Reference UID",
+    );
     expect(clampText({ table: '6X sp', axis: 'side', requested: 41.234, used: 40, unit: 'cm' })).toBe('6X sp: side 41.23 cm clamped to 40 cm');
   });
 });

@@ -15,12 +15,13 @@ import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts
 import { HistoryStore } from '../../src/service/history/store.js';
 
 const BIN = fileURLToPath(new URL('../../dist/plumbline.mjs', import.meta.url));
-const freePort = () => new Promise<number>((done) => {
-  const s = net.createServer().listen(0, '127.0.0.1', () => {
-    const p = (s.address() as net.AddressInfo).port;
-    s.close(() => done(p));
+const freePort = () =>
+  new Promise<number>((done) => {
+    const s = net.createServer().listen(0, '127.0.0.1', () => {
+      const p = (s.address() as net.AddressInfo).port;
+      s.close(() => done(p));
+    });
   });
-});
 const waitFor = async (test: () => boolean, ms: number) => {
   const end = Date.now() + ms;
   while (!test() && Date.now() < end) await new Promise((r) => setTimeout(r, 20));
@@ -32,30 +33,48 @@ describe('a receiver killed during a burst', () => {
     const root = mkdtempSync(join(tmpdir(), 'plumbline-crash-'));
     const port = await freePort();
     const config = join(root, 'service.json');
-    writeFileSync(config, JSON.stringify({
-      format: 'plumbline.service', formatVersion: 1,
-      receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-      folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' }, history: { database: 'history.sqlite' }, beamData: ['demo'], settleSeconds: 0,
-    }));
+    writeFileSync(
+      config,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+        folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
+        history: { database: 'history.sqlite' },
+        beamData: ['demo'],
+        settleSeconds: 0,
+      }),
+    );
     const dir = join(root, 'plans');
     mkdirSync(dir);
     const iso: [number, number, number] = [0, 0, 0];
     const labels = new Map<string, string>();
     const files = Array.from({ length: 300 }, (_, i) => {
       const file = join(dir, `burst-${i}.dcm`);
-      writeDataset(file, planDataset({
-        file: `burst-${i}.dcm`, patientId: `B-${i}`, patientName: 'Burst^Test', label: `BURST ${i}`, name: 'burst', description: 'test',
-        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-      }), RT_PLAN_STORAGE);
+      writeDataset(
+        file,
+        planDataset({
+          file: `burst-${i}.dcm`,
+          patientId: `B-${i}`,
+          patientName: 'Burst^Test',
+          label: `BURST ${i}`,
+          name: 'burst',
+          description: 'test',
+          doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
+          fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+          beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
+        }),
+        RT_PLAN_STORAGE,
+      );
       labels.set(file, `BURST ${i}`);
       return file;
     });
     const start = () => {
       const c = spawn(process.execPath, [BIN, 'receive', '--config', config], { stdio: ['ignore', 'ignore', 'pipe'] });
       let err = '';
-      c.stderr!.on('data', (d) => { err += d; });
+      c.stderr!.on('data', (d) => {
+        err += d;
+      });
       return { c, log: () => err };
     };
     const inbox = join(root, 'inbox');
@@ -65,8 +84,12 @@ describe('a receiver killed during a burst', () => {
     // storescu -v names each file before sending it and reports each response.
     const sender = spawn('storescu', ['-v', '-aet', 'NG_TPS', '-aec', 'PLUMBLINE', '127.0.0.1', String(port), ...files]);
     let out = '';
-    sender.stdout.on('data', (d) => { out += d; });
-    sender.stderr.on('data', (d) => { out += d; });
+    sender.stdout.on('data', (d) => {
+      out += d;
+    });
+    sender.stderr.on('data', (d) => {
+      out += d;
+    });
     const done = new Promise<void>((r) => sender.on('exit', () => r()));
     const acknowledgedSoFar = () => (out.match(/Received Store Response \(Success\)/g) ?? []).length;
     expect(await waitFor(() => acknowledgedSoFar() >= 60, 30_000)).toBe(true);
@@ -94,7 +117,12 @@ describe('a receiver killed during a burst', () => {
         h.close();
       }
     };
-    expect(await waitFor(() => readdirSync(inbox).filter((f) => !f.startsWith('.')).length === 0 && acknowledged.every((f) => checkedLabels().has(labels.get(f)!)), 60_000)).toBe(true);
+    expect(
+      await waitFor(
+        () => readdirSync(inbox).filter((f) => !f.startsWith('.')).length === 0 && acknowledged.every((f) => checkedLabels().has(labels.get(f)!)),
+        60_000,
+      ),
+    ).toBe(true);
     const h = new HistoryStore(historyFile);
     const checks = h.listChecks();
     h.close();

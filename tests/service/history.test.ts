@@ -13,7 +13,14 @@ const result = check(importOrThrow(manifestPath('fixtures/demo/clinic/brain-late
 describe('the history store', () => {
   const file = join(mkdtempSync(join(tmpdir(), 'plumbline-hist-')), 'h.sqlite');
   const store = new HistoryStore(file);
-  const id = store.recordCheck({ recordedAt: '2026-12-01T10:00:00.000Z', result, planSha256: 'a'.repeat(64), toolVersion: 'test', inputs: [{ kind: 'plan', sopInstanceUid: result.sopInstanceUid, sha256: 'a'.repeat(64) }], html: '<p>report</p>' });
+  const id = store.recordCheck({
+    recordedAt: '2026-12-01T10:00:00.000Z',
+    result,
+    planSha256: 'a'.repeat(64),
+    toolVersion: 'test',
+    inputs: [{ kind: 'plan', sopInstanceUid: result.sopInstanceUid, sha256: 'a'.repeat(64) }],
+    html: '<p>report</p>',
+  });
 
   it('keeps every check with its inputs and full result, and finds a duplicate by SOP instance and content', () => {
     expect(store.schemaVersion()).toBe(1);
@@ -36,7 +43,10 @@ describe('the history store', () => {
   it('a review is a new record; a second review does not replace the first', () => {
     store.addReview({ checkId: id, reviewer: 'Physicist A', reviewedAt: '2026-12-02T09:00:00.000Z', accepted: false, comment: 'check the point' });
     store.addReview({ checkId: id, reviewer: 'Physicist B', reviewedAt: '2026-12-02T10:00:00.000Z', accepted: true, comment: '' });
-    expect(store.reviews(id).map((r) => [r.reviewer, r.accepted])).toEqual([['Physicist A', false], ['Physicist B', true]]);
+    expect(store.reviews(id).map((r) => [r.reviewer, r.accepted])).toEqual([
+      ['Physicist A', false],
+      ['Physicist B', true],
+    ]);
     const raw = new Database(file);
     expect(() => raw.prepare('UPDATE reviews SET accepted = 1').run()).toThrow(/append-only/);
     raw.close();

@@ -18,10 +18,13 @@ import { DEMO_MANIFEST } from '../helpers/machines.js';
 
 const root = mkdtempSync(join(tmpdir(), 'plumbline-rx-'));
 const config = ServiceConfig.parse({
-  format: 'plumbline.service', formatVersion: 1,
+  format: 'plumbline.service',
+  formatVersion: 1,
   receiver: { host: '127.0.0.1', port: 0, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'], maxObjectBytes: 64 * 1024 * 1024 },
   folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
-  history: { database: join(root, 'history.sqlite') }, beamData: [DEMO_MANIFEST], settleSeconds: 0,
+  history: { database: join(root, 'history.sqlite') },
+  beamData: [DEMO_MANIFEST],
+  settleSeconds: 0,
 });
 let service: RunningService;
 let port = 0;
@@ -39,14 +42,19 @@ afterAll(async () => {
 });
 
 // The receiver runs in this process: the clients must run without blocking its event loop.
-const run = (cmd: string, args: string[]) => new Promise<{ status: number | null; stdout: string; stderr: string }>((done) => {
-  const c = spawn(cmd, args);
-  let stdout = '';
-  let stderr = '';
-  c.stdout.on('data', (d) => { stdout += d; });
-  c.stderr.on('data', (d) => { stderr += d; });
-  c.on('exit', (status) => done({ status, stdout, stderr }));
-});
+const run = (cmd: string, args: string[]) =>
+  new Promise<{ status: number | null; stdout: string; stderr: string }>((done) => {
+    const c = spawn(cmd, args);
+    let stdout = '';
+    let stderr = '';
+    c.stdout.on('data', (d) => {
+      stdout += d;
+    });
+    c.stderr.on('data', (d) => {
+      stderr += d;
+    });
+    c.on('exit', (status) => done({ status, stdout, stderr }));
+  });
 const store = (files: string[], aet = 'NG_TPS') => run('storescu', ['-aet', aet, '-aec', 'PLUMBLINE', '127.0.0.1', String(port), ...files]);
 const waitFor = async (test: () => boolean, ms: number) => {
   const end = Date.now() + ms;
@@ -60,12 +68,21 @@ function plans(dir: string, prefix: string, n: number): string[] {
   const iso: [number, number, number] = [0, 0, 0];
   return Array.from({ length: n }, (_, i) => {
     const file = join(dir, `${prefix}-${i}.dcm`);
-    writeDataset(file, planDataset({
-      file: `${prefix}-${i}.dcm`, patientId: `${prefix}-${i}`, patientName: 'Load^Test', label: `${prefix} ${i}`, name: 'load', description: 'test',
-      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-      beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-    }), RT_PLAN_STORAGE);
+    writeDataset(
+      file,
+      planDataset({
+        file: `${prefix}-${i}.dcm`,
+        patientId: `${prefix}-${i}`,
+        patientName: 'Load^Test',
+        label: `${prefix} ${i}`,
+        name: 'load',
+        description: 'test',
+        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
+        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
+        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
+      }),
+      RT_PLAN_STORAGE,
+    );
     return file;
   });
 }
@@ -79,7 +96,7 @@ describe('the DICOM receiver', () => {
     expect((await run('echoscu', ['-aet', 'NG_TPS', '-aec', 'SOMEONE', '127.0.0.1', String(port)])).stderr).toMatch(/Called AE Title Not Recognized/);
   });
 
-  it('refuses an SOP class the check does not use (pydicom\'s MR sample): nothing reaches the inbox', async () => {
+  it("refuses an SOP class the check does not use (pydicom's MR sample): nothing reaches the inbox", async () => {
     const mr = runPython('import pydicom, os; print(os.path.join(os.path.dirname(pydicom.__file__), "data", "test_files", "MR_small.dcm"))').trim();
     const before = readdirSync(config.folders.inbox).length;
     const r = await store([mr]);
@@ -92,7 +109,11 @@ describe('the DICOM receiver', () => {
     const batches = Array.from({ length: 20 }, (_, a) => plans(join(root, 'load', String(a)), `L${a}`, 50));
     const results = await Promise.all(batches.map((b) => store(b)));
     expect(results.every((r) => r.status === 0)).toBe(true);
-    const opened = () => { const o = openService(config); if (!o.ok) throw new Error('open'); return o.value.history; };
+    const opened = () => {
+      const o = openService(config);
+      if (!o.ok) throw new Error('open');
+      return o.value.history;
+    };
     const history = opened();
     expect(await waitFor(() => history.listChecks().length >= 1000, 60_000)).toBe(true);
     const checks = history.listChecks();
@@ -123,14 +144,34 @@ describe('the DICOM receiver', () => {
     const dir = join(root, 'big');
     mkdirSync(dir);
     // One CT slice of 5 000 × 5 000 voxels (50 MB): long enough on the wire to be interrupted.
-    const [big] = writeCtPhantom(dir, { name: 'big', columns: 5000, rows: 5000, slices: 1, spacingMm: [0.1, 0.1, 1], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.9', hu: () => 0 });
-    const sender = spawn('storescu', ['-aet', 'NG_TPS', '-aec', 'PLUMBLINE', '--max-pdu', '4096', '127.0.0.1', String(port), big!], { stdio: 'ignore' });
+    const [big] = writeCtPhantom(dir, {
+      name: 'big',
+      columns: 5000,
+      rows: 5000,
+      slices: 1,
+      spacingMm: [0.1, 0.1, 1],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.9',
+      hu: () => 0,
+    });
+    const sender = spawn('storescu', ['-aet', 'NG_TPS', '-aec', 'PLUMBLINE', '--max-pdu', '4096', '127.0.0.1', String(port), big!], {
+      stdio: 'ignore',
+    });
     expect(await waitFor(() => incoming().length > 0, 10_000)).toBe(true);
     sender.kill('SIGKILL');
     expect(await waitFor(() => incoming().length === 0, 10_000)).toBe(true);
     expect(readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.'))).toEqual([]);
     // Over the limit (64 MiB here): a 70 MB slice is answered with a failure and not kept.
-    const [huge] = writeCtPhantom(dir, { name: 'huge', columns: 6000, rows: 6000, slices: 1, spacingMm: [0.1, 0.1, 1], originMm: [0, 0, 0], frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.9', hu: () => 0 });
+    const [huge] = writeCtPhantom(dir, {
+      name: 'huge',
+      columns: 6000,
+      rows: 6000,
+      slices: 1,
+      spacingMm: [0.1, 0.1, 1],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.826.0.1.3680043.2.1125.9',
+      hu: () => 0,
+    });
     const r = await store([huge!]);
     // storescu exits with the status's high byte (0xA7: refused, out of resources).
     expect(r.status).toBe(0xa7);

@@ -19,8 +19,12 @@ import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
 
 const root = mkdtempSync(join(tmpdir(), 'plumbline-web-'));
 const config = ServiceConfig.parse({
-  format: 'plumbline.service', formatVersion: 1, folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
-  history: { database: join(root, 'history.sqlite') }, beamData: [DEMO_MANIFEST], settleSeconds: 0,
+  format: 'plumbline.service',
+  formatVersion: 1,
+  folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
+  history: { database: join(root, 'history.sqlite') },
+  beamData: [DEMO_MANIFEST],
+  settleSeconds: 0,
 });
 let history: HistoryStore;
 let browser: Browser;
@@ -32,7 +36,8 @@ beforeAll(async () => {
   if (!m.ok) throw new Error('demo');
   history = new HistoryStore(config.history.database);
   mkdirSync(config.folders.inbox, { recursive: true });
-  for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm', 'spine-ssd.dcm', 'lung-mlc.dcm']) copyFileSync(manifestPath(`fixtures/demo/clinic/${f}`), join(config.folders.inbox, f));
+  for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm', 'spine-ssd.dcm', 'lung-mlc.dcm'])
+    copyFileSync(manifestPath(`fixtures/demo/clinic/${f}`), join(config.folders.inbox, f));
   processInbox({ config, machines: [m.value], policy: DEFAULT_POLICY, history, log: () => {}, now: () => Date.now() + 1000 });
   const web = await startWebServer({ host: '127.0.0.1', port: 0, history, log: () => {} });
   base = `http://127.0.0.1:${web.port}`;
@@ -67,7 +72,10 @@ describe('the chart-round page', () => {
     expect(await six.locator('circle.point').count()).toBe(6); // 2 laterals + 2 tangents + 1 spine + 1 MLC field
     expect(await six.locator('line.limit').count()).toBe(4); // 0 %, mean, +3σ, −3σ
     // The caption's limits are those of the beams' deviations (sample standard deviation).
-    const devs = history.listChecks().flatMap((c) => history.result(c.id)!.fractionGroups.flatMap((g) => g.beams)).map((b) => b.calculation!.doseDeviationPercent!);
+    const devs = history
+      .listChecks()
+      .flatMap((c) => history.result(c.id)!.fractionGroups.flatMap((g) => g.beams))
+      .map((b) => b.calculation!.doseDeviationPercent!);
     const lim = controlLimits(devs)!;
     expect(await six.locator('figcaption').textContent()).toContain(`limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`);
     await page.close();
@@ -84,7 +92,9 @@ describe('the chart-round page', () => {
     await page.check('input[name="accepted"][value="no"]');
     await page.fill('input[name="comment"]', 'lateral MU mistyped: replan');
     await page.click('#review button[type="submit"]');
-    await expect.poll(async () => (await page.locator('#reviews').textContent()) ?? '').toMatch(/Physicist Demo: not accepted — lateral MU mistyped: replan/);
+    await expect
+      .poll(async () => (await page.locator('#reviews').textContent()) ?? '')
+      .toMatch(/Physicist Demo: not accepted — lateral MU mistyped: replan/);
     const id = Number(/\/check\/(\d+)/.exec(page.url())![1]);
     expect(history.reviews(id)).toHaveLength(1);
     await page.goto(`${base}/`);
@@ -94,9 +104,17 @@ describe('the chart-round page', () => {
 
   it('refuses a review posted from another origin, and a review without a reviewer', async () => {
     const id = history.listChecks()[0]!.id;
-    const foreign = await fetch(`${base}/check/${id}/review`, { method: 'POST', headers: { origin: 'http://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' }, body: 'reviewer=x&accepted=yes' });
+    const foreign = await fetch(`${base}/check/${id}/review`, {
+      method: 'POST',
+      headers: { origin: 'http://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
+      body: 'reviewer=x&accepted=yes',
+    });
     expect(foreign.status).toBe(403);
-    const empty = await fetch(`${base}/check/${id}/review`, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'reviewer=&accepted=yes' });
+    const empty = await fetch(`${base}/check/${id}/review`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: 'reviewer=&accepted=yes',
+    });
     expect(empty.status).toBe(400);
     expect(history.reviews(id)).toHaveLength(0);
   });

@@ -16,7 +16,9 @@ export default function setup(): void {
   if (!findPythonWithPydicom()) missing.push('python3-pydicom');
   if (!has('chromium', ['--version'])) missing.push('chromium');
   if (missing.length) {
-    throw new Error(`the tests need Debian packages that are not installed: ${missing.join(' ')}\n` +
-      `install them with: sudo apt-get install ${missing.join(' ')}   (.ci/run does this)`);
+    throw new Error(
+      `the tests need Debian packages that are not installed: ${missing.join(' ')}\n` +
+        `install them with: sudo apt-get install ${missing.join(' ')}   (.ci/run does this)`,
+    );
   }
 }

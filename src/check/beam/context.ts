@@ -1,6 +1,19 @@
 import type { HeterogeneityMethod } from '../../physics/index.js';
-import { type Beam, type CalculatedBeam, type CalculationPoint, cGyFromGy, type Issue, type MachineModel, note, type NotCheckedBeam, type NoteCode,
-  type NoteValue, type PatientPosition, type PlanningSystemDepths, type ReferencedBeam } from '../../model/index.js';
+import {
+  type Beam,
+  type CalculatedBeam,
+  type CalculationPoint,
+  cGyFromGy,
+  type Issue,
+  type MachineModel,
+  note,
+  type NotCheckedBeam,
+  type NoteCode,
+  type NoteValue,
+  type PatientPosition,
+  type PlanningSystemDepths,
+  type ReferencedBeam,
+} from '../../model/index.js';
 import type { PatientCt } from '../patient-ct.js';
 import type { Policy } from '../policy.js';
 
@@ -47,7 +60,13 @@ export function beamIdentity(beam: Beam, entry: ReferencedBeam): Omit<NotChecked
 }
 
 /** A beam not checked, with the reason as a coded note (and its point, when one was chosen). */
-export function notCheckedBeam(beam: Beam, entry: ReferencedBeam, reason: NoteCode, values: Readonly<Record<string, NoteValue | undefined>> = {}, point?: CalculationPoint): NotCheckedBeam {
+export function notCheckedBeam(
+  beam: Beam,
+  entry: ReferencedBeam,
+  reason: NoteCode,
+  values: Readonly<Record<string, NoteValue | undefined>> = {},
+  point?: CalculationPoint,
+): NotCheckedBeam {
   return { ...beamIdentity(beam, entry), status: 'not checked', reason: note(reason, values), ...(point ? { point } : {}) };
 }
 

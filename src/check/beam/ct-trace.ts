@@ -11,23 +11,43 @@ export interface Traced {
 }
 
 /** Traces the beam's ray to its point through the CT; a ray the CT cannot answer ends the check (not checked, with the geometry's reason). */
-export function traceToPoint(ctx: BeamCheckContext & { ct: PatientCt }, frame: BeamFrame, sadMm: number, pointMm: Vec3 = ctx.point.patientMm, controlPoint?: number): Traced | Stopped {
+export function traceToPoint(
+  ctx: BeamCheckContext & { ct: PatientCt },
+  frame: BeamFrame,
+  sadMm: number,
+  pointMm: Vec3 = ctx.point.patientMm,
+  controlPoint?: number,
+): Traced | Stopped {
   const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, pointMm, ctDepthOptions(ctx.ct));
   if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { message: t.message, controlPoint });
   return { depth: t.value, axisSsdMm: ctAxisSsdMm(ctx.ct, frame, sadMm) };
 }
 
 /** What the result says of the CT geometry and the correction, beside the plan's SSD. */
-export function ctSummary(ct: PatientCt, traced: Traced, planSsdMm: number | undefined, method: NonNullable<Calculation['ct']>['method'],
-  correctionFactor: number, homogeneousDoseCGy: number): NonNullable<Calculation['ct']> {
+export function ctSummary(
+  ct: PatientCt,
+  traced: Traced,
+  planSsdMm: number | undefined,
+  method: NonNullable<Calculation['ct']>['method'],
+  correctionFactor: number,
+  homogeneousDoseCGy: number,
+): NonNullable<Calculation['ct']> {
   const t = traced.depth;
   const axis = traced.axisSsdMm;
   return {
     ...(axis !== undefined ? { ssdAlongAxisMm: axis } : {}),
     ...(axis !== undefined && planSsdMm !== undefined ? { ssdDifferenceMm: axis - planSsdMm } : {}),
-    ...(planSsdMm !== undefined ? { planSsdMm } : {}), ssdAlongRayMm: t.ssdMm, geometricDepthMm: t.geometricDepthMm, radiologicalDepthMm: t.radiologicalDepthMm,
-    entryPatientMm: [...t.entryPatientMm] as [number, number, number], densityRange: [...t.densityRange] as [number, number],
+    ...(planSsdMm !== undefined ? { planSsdMm } : {}),
+    ssdAlongRayMm: t.ssdMm,
+    geometricDepthMm: t.geometricDepthMm,
+    radiologicalDepthMm: t.radiologicalDepthMm,
+    entryPatientMm: [...t.entryPatientMm] as [number, number, number],
+    densityRange: [...t.densityRange] as [number, number],
     ...(t.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: t.nearestInterfaceMm } : {}),
-    correctionFactor, homogeneousDoseCGy, bodyThresholdHu: ct.bodyThresholdHu, body: ct.bodySource, method,
+    correctionFactor,
+    homogeneousDoseCGy,
+    bodyThresholdHu: ct.bodyThresholdHu,
+    body: ct.bodySource,
+    method,
   };
 }

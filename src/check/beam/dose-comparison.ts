@@ -5,8 +5,15 @@ import { percentDeviation } from '../deviation.js';
  * Our dose for the planned MU and the MU for the planning system's dose, and the deviation of each:
  * (independent − planning system) / planning system.
  */
-export function compareDose(plannedMu: number, dosePerMuCGy: number, planningSystemDoseCGy: number | undefined): {
-  independentDoseCGy: number; independentMu?: number; doseDeviationPercent?: number; muDeviationPercent?: number;
+export function compareDose(
+  plannedMu: number,
+  dosePerMuCGy: number,
+  planningSystemDoseCGy: number | undefined,
+): {
+  independentDoseCGy: number;
+  independentMu?: number;
+  doseDeviationPercent?: number;
+  muDeviationPercent?: number;
 } {
   const independentDoseCGy = plannedMu * dosePerMuCGy;
   const tps = planningSystemDoseCGy;
@@ -15,7 +22,8 @@ export function compareDose(plannedMu: number, dosePerMuCGy: number, planningSys
   const muDeviationPercent = percentDeviation(independentMu, plannedMu);
   const doseDeviationPercent = percentDeviation(independentDoseCGy, tps);
   return {
-    independentDoseCGy, independentMu,
+    independentDoseCGy,
+    independentMu,
     ...(muDeviationPercent !== undefined ? { muDeviationPercent } : {}),
     ...(doseDeviationPercent !== undefined ? { doseDeviationPercent } : {}),
   };

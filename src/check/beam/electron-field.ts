@@ -27,8 +27,13 @@ export function electronField(ctx: BeamCheckContext, data: ElectronBeamModel, sa
   if (applicatorId === undefined) return stopNotChecked(ctx, 'electron-no-applicator');
   const applicator = data.applicators.find((a) => a.id === applicatorId);
   if (!applicator) {
-    return stopRefused(ctx, { severity: 'error', code: 'missing-table', message: `the beam data of ${machine.name} ${data.id} have no applicator "${applicatorId}"`,
-      expected: data.applicators.map((a) => a.id).join(', '), found: applicatorId });
+    return stopRefused(ctx, {
+      severity: 'error',
+      code: 'missing-table',
+      message: `the beam data of ${machine.name} ${data.id} have no applicator "${applicatorId}"`,
+      expected: data.applicators.map((a) => a.id).join(', '),
+      found: applicatorId,
+    });
   }
   const cutouts = beam.blocks.filter((b) => b.type === 'APERTURE');
   if (beam.blocks.length > cutouts.length || cutouts.length > 1) return stopNotChecked(ctx, 'electron-blocks');
@@ -38,8 +43,11 @@ export function electronField(ctx: BeamCheckContext, data: ElectronBeamModel, sa
   const nominalSsdMm = data.calibration.ssd0Cm * MM_PER_CM;
   const base = { applicator, toNominal, nominalSsdMm, rectangular: false };
   if (!outline) {
-    return { ...base, field: { kind: 'equivalent-square', sideCm: applicator.sideCm, method: 'the open applicator' },
-      cutout: note('electron-cutout', { cutout: 'none', applicatorId, applicatorSideCm: applicator.sideCm }) };
+    return {
+      ...base,
+      field: { kind: 'equivalent-square', sideCm: applicator.sideCm, method: 'the open applicator' },
+      cutout: note('electron-cutout', { cutout: 'none', applicatorId, applicatorSideCm: applicator.sideCm }),
+    };
   }
   const xs = outline.map((p) => p[0]);
   const ys = outline.map((p) => p[1]);
@@ -49,8 +57,9 @@ export function electronField(ctx: BeamCheckContext, data: ElectronBeamModel, sa
     ? { kind: 'rectangle', xCm: rectangle.x / MM_PER_CM, yCm: rectangle.y / MM_PER_CM }
     : { kind: 'equivalent-square', sideCm: Math.sqrt(polygonArea(outline)) / MM_PER_CM, method: 'equal area' };
   if (spanCm > applicator.sideCm + 0.5) return stopNotChecked(ctx, 'cutout-too-large', { spanCm, applicatorId, applicatorSideCm: applicator.sideCm });
-  const cutout = field.kind === 'rectangle'
-    ? note('electron-cutout', { cutout: 'rectangle', xCm: field.xCm, yCm: field.yCm })
-    : note('electron-cutout', { cutout: 'shaped', vertices: outline.length, sideCm: field.sideCm });
+  const cutout =
+    field.kind === 'rectangle'
+      ? note('electron-cutout', { cutout: 'rectangle', xCm: field.xCm, yCm: field.yCm })
+      : note('electron-cutout', { cutout: 'shaped', vertices: outline.length, sideCm: field.sideCm });
   return { ...base, outline, rectangular: !!rectangle, field, cutout };
 }

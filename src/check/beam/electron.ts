@@ -33,7 +33,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
   const traced = ctx.ct ? traceToPoint({ ...ctx, ct: ctx.ct }, frame, sadMm) : undefined;
   if (traced && isStopped(traced)) return traced.stopped;
   const depthCm = (traced ? traced.depth.geometricDepthMm : at.depthMm) / MM_PER_CM;
-  const ssdCm = (traced ? traced.depth.ssdMm : cp0.ssdMm ?? 0) / MM_PER_CM;
+  const ssdCm = (traced ? traced.depth.ssdMm : (cp0.ssdMm ?? 0)) / MM_PER_CM;
   const lookupDepthCm = traced ? traced.depth.radiologicalDepthMm / MM_PER_CM : depthCm;
   if (depthCm < 0) return stopNotChecked(ctx, 'point-above-surface', { heightCm: -depthCm }).stopped;
   const input = { applicatorId: ef.applicator.id, field: ef.field, depthCm: lookupDepthCm, ssdCm };
@@ -54,24 +54,59 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
   ];
   const { edgeDistanceCm, openFraction } = cutoutEdge(ef, at);
   const dmaxCm = electronDmaxCm(data, ef.field) ?? 0;
-  const depthFlags = lookupDepthCm < dmaxCm - 0.05 ? [note('electron-build-up', { depthCm: lookupDepthCm, dmaxCm })]
-    : pddPercent < FALL_OFF_PERCENT ? [note('steep-fall-off', { pddPercent, thresholdPercent: FALL_OFF_PERCENT })] : [];
-  const category = categorize(policy, { wedged: false, offAxisCm, irradiatedSquareCm: r.value.fieldSideCm, openFraction, ssdCm,
-    shaped: !!ef.outline && !ef.rectangular, heterogeneous: isHeterogeneous(policy, ct?.densityRange) });
-  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, depthCm * MM_PER_CM, ct ? lookupDepthCm * MM_PER_CM : undefined, ssdCm * MM_PER_CM);
+  const depthFlags =
+    lookupDepthCm < dmaxCm - 0.05
+      ? [note('electron-build-up', { depthCm: lookupDepthCm, dmaxCm })]
+      : pddPercent < FALL_OFF_PERCENT
+        ? [note('steep-fall-off', { pddPercent, thresholdPercent: FALL_OFF_PERCENT })]
+        : [];
+  const category = categorize(policy, {
+    wedged: false,
+    offAxisCm,
+    irradiatedSquareCm: r.value.fieldSideCm,
+    openFraction,
+    ssdCm,
+    shaped: !!ef.outline && !ef.rectangular,
+    heterogeneous: isHeterogeneous(policy, ct?.densityRange),
+  });
+  const planningSystemDepths = besideOurs(
+    ctx.planningSystemDepths,
+    depthCm * MM_PER_CM,
+    ct ? lookupDepthCm * MM_PER_CM : undefined,
+    ssdCm * MM_PER_CM,
+  );
   const side = ef.applicator.sideCm;
   return {
     ok: true,
     value: {
-      ...identity, status: 'checked', point: ctx.point,
+      ...identity,
+      status: 'checked',
+      point: ctx.point,
       calculation: {
-        machineBeam: `${machine.name} ${data.id}`, setup: 'SSD',
+        machineBeam: `${machine.name} ${data.id}`,
+        setup: 'SSD',
         setupBasis: note('electron-applicator', { applicatorId: ef.applicator.id, ssdCm, nominalSsdCm: data.calibration.ssd0Cm }),
-        ssdCm, depthCm, offAxisCm, collimatorFieldCm: { x: side, y: side }, collimatorSquareCm: side, irradiatedSquareCm: r.value.fieldSideCm,
-        approximations, factors: factorRows(r.value.factors), dosePerMuCGy, ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
-        clamps: clampRows(r.value.clamps), ...(ct ? { ct } : {}), ...(planningSystemDepths ? { planningSystemDepths } : {}),
-        electron: { applicatorId: ef.applicator.id, cutout: ef.outline ? (ef.rectangular ? 'rectangle' : 'shaped') : 'none', fieldSideCm: r.value.fieldSideCm,
-          effectiveSsdCm: r.value.effectiveSsdCm, airGapCm: r.value.airGapCm, pddPercent },
+        ssdCm,
+        depthCm,
+        offAxisCm,
+        collimatorFieldCm: { x: side, y: side },
+        collimatorSquareCm: side,
+        irradiatedSquareCm: r.value.fieldSideCm,
+        approximations,
+        factors: factorRows(r.value.factors),
+        dosePerMuCGy,
+        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
+        clamps: clampRows(r.value.clamps),
+        ...(ct ? { ct } : {}),
+        ...(planningSystemDepths ? { planningSystemDepths } : {}),
+        electron: {
+          applicatorId: ef.applicator.id,
+          cutout: ef.outline ? (ef.rectangular ? 'rectangle' : 'shaped') : 'none',
+          fieldSideCm: r.value.fieldSideCm,
+          effectiveSsdCm: r.value.effectiveSsdCm,
+          airGapCm: r.value.airGapCm,
+          pddPercent,
+        },
       },
       ...levelsOf(policy, category),
       fitness: { edgeDistanceCm, flags: [...edgeFlags(edgeDistanceCm, policy), ...depthFlags] },
@@ -80,19 +115,37 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
 }
 
 /** With the CT: the PDD at the radiological depth against the homogeneous dose at the geometric depth. */
-function electronCt(ctx: BeamCheckContext, data: ElectronBeamModel, input: Parameters<typeof electronDosePerMu>[1], traced: Traced, dosePerMuCGy: number, mu: number) {
+function electronCt(
+  ctx: BeamCheckContext,
+  data: ElectronBeamModel,
+  input: Parameters<typeof electronDosePerMu>[1],
+  traced: Traced,
+  dosePerMuCGy: number,
+  mu: number,
+) {
   const homogeneous = electronDosePerMu(data, { ...input, depthCm: traced.depth.geometricDepthMm / MM_PER_CM });
   if (!homogeneous.ok) return stopNotChecked(ctx, 'homogeneous-refused', { message: homogeneous.issues.map((i) => i.message).join('; ') });
   const planSsdMm = ctx.beam.controlPoints[0]!.ssdMm;
-  const ct: NonNullable<Calculation['ct']> = ctSummary(ctx.ct!, traced, planSsdMm, 'electron-radiological-depth', dosePerMuCGy / homogeneous.value.dosePerMuCGy,
-    mu * homogeneous.value.dosePerMuCGy);
+  const ct: NonNullable<Calculation['ct']> = ctSummary(
+    ctx.ct!,
+    traced,
+    planSsdMm,
+    'electron-radiological-depth',
+    dosePerMuCGy / homogeneous.value.dosePerMuCGy,
+    mu * homogeneous.value.dosePerMuCGy,
+  );
   return ct;
 }
 
 /** The point's distance to the cutout's edge (or the applicator's) at its depth, and the open share of the applicator. */
 function cutoutEdge(ef: ElectronField, at: ReturnType<typeof flatDepth>): { edgeDistanceCm: number; openFraction: number } {
   const half = (ef.applicator.sideCm * MM_PER_CM) / 2;
-  const square: Polygon = [[-half, -half], [half, -half], [half, half], [-half, half]];
+  const square: Polygon = [
+    [-half, -half],
+    [half, -half],
+    [half, half],
+    [-half, half],
+  ];
   const edge = ef.outline ?? square;
   const [px, py] = [at.atIsocenterPlaneMm[0] * ef.toNominal, at.atIsocenterPlaneMm[1] * ef.toNominal];
   const toDepth = at.sourceToPointAxialMm / ef.nominalSsdMm;

@@ -21,8 +21,14 @@ export function beamModifiers(ctx: BeamCheckContext, data: PhotonBeamModel): Mod
   const { beam, machine } = ctx;
   const cp0 = beam.controlPoints[0]!;
   const wedgeIn = beam.wedges.find((w) => cp0.wedgePositions.some((p) => p.wedgeNumber === w.number && p.position === 'IN'));
-  const missing = (what: string, expected: string, found: string) => stopRefused(ctx, { severity: 'error', code: 'missing-table',
-    message: `the beam data of ${machine.name} ${data.id} have no ${what}`, expected, found });
+  const missing = (what: string, expected: string, found: string) =>
+    stopRefused(ctx, {
+      severity: 'error',
+      code: 'missing-table',
+      message: `the beam data of ${machine.name} ${data.id} have no ${what}`,
+      expected,
+      found,
+    });
   let swept: Modifiers['swept'];
   let physical: Modifiers['physical'];
   if (wedgeIn?.type === 'DYNAMIC') {
@@ -33,12 +39,23 @@ export function beamModifiers(ctx: BeamCheckContext, data: PhotonBeamModel): Mod
     swept = { wedge: wedgeIn, angleDeg: wedgeIn.angleDeg, axis };
   } else if (wedgeIn) {
     const found = data.wedges.find((w) => w.id === wedgeIn.id);
-    if (!found) return missing(`wedge "${wedgeIn.id ?? wedgeIn.number}"`, data.wedges.map((w) => w.id).join(', ') || 'no wedges', wedgeIn.id ?? String(wedgeIn.number));
+    if (!found)
+      return missing(
+        `wedge "${wedgeIn.id ?? wedgeIn.number}"`,
+        data.wedges.map((w) => w.id).join(', ') || 'no wedges',
+        wedgeIn.id ?? String(wedgeIn.number),
+      );
     physical = { wedge: wedgeIn, data: found };
   }
   const trayId = beam.blocks.length ? beam.blocks[0]!.trayId : undefined;
-  if (trayId !== undefined && !data.trays.some((t) => t.id === trayId)) return missing(`tray "${trayId}"`, data.trays.map((t) => t.id).join(', ') || 'no trays', trayId);
-  return { ...(wedgeIn ? { wedgeIn } : {}), ...(physical ? { physical } : {}), ...(swept ? { swept } : {}), ...(trayId !== undefined ? { trayId } : {}) };
+  if (trayId !== undefined && !data.trays.some((t) => t.id === trayId))
+    return missing(`tray "${trayId}"`, data.trays.map((t) => t.id).join(', ') || 'no trays', trayId);
+  return {
+    ...(wedgeIn ? { wedgeIn } : {}),
+    ...(physical ? { physical } : {}),
+    ...(swept ? { swept } : {}),
+    ...(trayId !== undefined ? { trayId } : {}),
+  };
 }
 
 /** The jaw axis a dynamic wedge sweeps along: its orientation 0/180 along Y, 90/270 along X. */

@@ -53,9 +53,22 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
     { key: 'MCI', value: dosePerMuCGy / d0CGyPerMu, args: [segments.length, CLARKSON_SECTORS], name: data.tpr?.kind ?? 'TPR' },
   ];
   const approximations: Note[] = [
-    note('modulated-clarkson', { segments: segments.length, controlPoints: cps.length, sectors: CLARKSON_SECTORS, leafTransmission: data.mlcTransmission ?? 0 }),
+    note('modulated-clarkson', {
+      segments: segments.length,
+      controlPoints: cps.length,
+      sectors: CLARKSON_SECTORS,
+      leafTransmission: data.mlcTransmission ?? 0,
+    }),
     note('modulated-depths', { source: depthSource, body: ctx.ct?.bodySource }),
-    ...(radiological.length ? [note('modulated-heterogeneity', { method: ctx.heterogeneity ?? 'tpr-ratio', correctionFactor, homogeneousDoseCGy: mu * homogeneousPerMuCGy })] : []),
+    ...(radiological.length
+      ? [
+          note('modulated-heterogeneity', {
+            method: ctx.heterogeneity ?? 'tpr-ratio',
+            correctionFactor,
+            homogeneousDoseCGy: mu * homogeneousPerMuCGy,
+          }),
+        ]
+      : []),
     note('leaf-ends-not-modelled'),
   ];
   const densities = doses.flatMap((d) => (d.densityRange ? [...d.densityRange] : []));
@@ -64,35 +77,62 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const maxSsdDifferenceMm = ssdDifferences.length ? ssdDifferences.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a)) : undefined;
   const coveredShare = doses.reduce((a, d) => a + (d.covered ? d.share : 0), 0);
   const heterogeneous = radiological.length > 0 && isHeterogeneous(policy, [Math.min(...densities), Math.max(...densities)]);
-  const category: CaseCategory = heterogeneous && policy.levels.heterogeneous!.actionPercent > policy.levels.modulated!.actionPercent ? 'heterogeneous' : 'modulated';
+  const category: CaseCategory =
+    heterogeneous && policy.levels.heterogeneous!.actionPercent > policy.levels.modulated!.actionPercent ? 'heterogeneous' : 'modulated';
   return {
     ok: true,
     value: {
-      ...identity, status: 'checked', point: ctx.point,
+      ...identity,
+      status: 'checked',
+      point: ctx.point,
       calculation: {
-        machineBeam: `${machine.name} ${data.id}`, setup: 'SAD', setupBasis: note('modulated-tpr-form'),
-        ssdCm: sum((d) => d.share * d.ssdCm), depthCm: sum((d) => d.share * d.depthCm), offAxisCm: sum((d) => d.share * d.offAxisCm),
+        machineBeam: `${machine.name} ${data.id}`,
+        setup: 'SAD',
+        setupBasis: note('modulated-tpr-form'),
+        ssdCm: sum((d) => d.share * d.ssdCm),
+        depthCm: sum((d) => d.share * d.depthCm),
+        offAxisCm: sum((d) => d.share * d.offAxisCm),
         collimatorFieldCm: { x: sum((d) => d.share * d.collimatorFieldCm.x), y: sum((d) => d.share * d.collimatorFieldCm.y) },
         collimatorSquareCm: sum((d) => d.share * d.collimatorSquareCm),
-        irradiatedSquareCm: sum((d) => d.share * d.irradiatedSquareCm), approximations, factors: factorRows(factors), dosePerMuCGy,
-        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy), clamps: clampRows(doses.flatMap((d) => d.lookups)),
+        irradiatedSquareCm: sum((d) => d.share * d.irradiatedSquareCm),
+        approximations,
+        factors: factorRows(factors),
+        dosePerMuCGy,
+        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
+        clamps: clampRows(doses.flatMap((d) => d.lookups)),
         modulated: {
-          method: 'modified Clarkson integration', controlPoints: cps.length, segments: segments.length, gantryStartDeg: cp0.gantryAngleDeg,
-          gantryEndDeg: cps[cps.length - 1]!.gantryAngleDeg, depthSource, depthRangeCm: [Math.min(...depths), Math.max(...depths)],
-          ...(radiological.length ? { radiologicalDepthRangeCm: [Math.min(...radiological), Math.max(...radiological)] as [number, number], correctionFactor,
-            homogeneousDoseCGy: mu * homogeneousPerMuCGy } : {}),
+          method: 'modified Clarkson integration',
+          controlPoints: cps.length,
+          segments: segments.length,
+          gantryStartDeg: cp0.gantryAngleDeg,
+          gantryEndDeg: cps[cps.length - 1]!.gantryAngleDeg,
+          depthSource,
+          depthRangeCm: [Math.min(...depths), Math.max(...depths)],
+          ...(radiological.length
+            ? {
+                radiologicalDepthRangeCm: [Math.min(...radiological), Math.max(...radiological)] as [number, number],
+                correctionFactor,
+                homogeneousDoseCGy: mu * homogeneousPerMuCGy,
+              }
+            : {}),
           ...(maxSsdDifferenceMm !== undefined ? { maxSsdDifferenceMm } : {}),
-          pointCoveredMuPercent: 100 * coveredShare, clarksonMuPercent: 100 * doses.reduce((a, d) => a + (d.clarkson ? d.share : 0), 0),
+          pointCoveredMuPercent: 100 * coveredShare,
+          clarksonMuPercent: 100 * doses.reduce((a, d) => a + (d.clarkson ? d.share : 0), 0),
         },
       },
       ...levelsOf(policy, category),
-      fitness: { edgeDistanceCm: sum((d) => (d.share * d.edgeDistanceMm * d.depthScale) / MM_PER_CM), flags: modulatedFlags(ctx, coveredShare, Math.min(...depths), data.calibration.dmaxCm, maxSsdDifferenceMm) },
+      fitness: {
+        edgeDistanceCm: sum((d) => (d.share * d.edgeDistanceMm * d.depthScale) / MM_PER_CM),
+        flags: modulatedFlags(ctx, coveredShare, Math.min(...depths), data.calibration.dmaxCm, maxSsdDifferenceMm),
+      },
     },
   };
 }
 
 /** What the engine does not follow in a modulated beam. */
-function unsupportedModulation(ctx: BeamCheckContext): 'modulated-blocks' | 'modulated-wedge' | 'collimator-or-couch-turns' | 'energy-changes' | undefined {
+function unsupportedModulation(
+  ctx: BeamCheckContext,
+): 'modulated-blocks' | 'modulated-wedge' | 'collimator-or-couch-turns' | 'energy-changes' | undefined {
   const cps = ctx.beam.controlPoints;
   const cp0 = cps[0]!;
   if (ctx.beam.blocks.length) return 'modulated-blocks';
@@ -103,11 +143,18 @@ function unsupportedModulation(ctx: BeamCheckContext): 'modulated-blocks' | 'mod
 }
 
 /** A modulated beam's point fitness: covered for most of the MU, in the build-up at some angle, the CT's SSD away from the plan's. */
-function modulatedFlags(ctx: BeamCheckContext, coveredShare: number, minDepthCm: number, dmaxCm: number, maxSsdDifferenceMm: number | undefined): Note[] {
+function modulatedFlags(
+  ctx: BeamCheckContext,
+  coveredShare: number,
+  minDepthCm: number,
+  dmaxCm: number,
+  maxSsdDifferenceMm: number | undefined,
+): Note[] {
   const flags: Note[] = [];
   if (coveredShare > 0.5) flags.push(note('covered-by-leaves', { percent: 100 * coveredShare }));
   if (minDepthCm < dmaxCm) flags.push(note('build-up-some-angles', { minDepthCm, dmaxCm }));
   const tolerance = ctx.policy.ct.ssdToleranceMm;
-  if (maxSsdDifferenceMm !== undefined && Math.abs(maxSsdDifferenceMm) > tolerance) flags.push(note('ssd-differs-some-angle', { maxDifferenceMm: maxSsdDifferenceMm, toleranceMm: tolerance }));
+  if (maxSsdDifferenceMm !== undefined && Math.abs(maxSsdDifferenceMm) > tolerance)
+    flags.push(note('ssd-differs-some-angle', { maxDifferenceMm: maxSsdDifferenceMm, toleranceMm: tolerance }));
   return flags;
 }

@@ -4,7 +4,11 @@ import type { Policy } from '../policy.js';
 /** The point near or beyond the field edge (distance at the point's depth, cm; negative outside). */
 export function edgeFlags(edgeDistanceCm: number, policy: Policy): Note[] {
   if (edgeDistanceCm >= policy.point.edgeMarginCm) return [];
-  return [edgeDistanceCm < 0 ? note('outside-field', { beyondCm: -edgeDistanceCm }) : note('near-field-edge', { edgeDistanceCm, marginCm: policy.point.edgeMarginCm })];
+  return [
+    edgeDistanceCm < 0
+      ? note('outside-field', { beyondCm: -edgeDistanceCm })
+      : note('near-field-edge', { edgeDistanceCm, marginCm: policy.point.edgeMarginCm }),
+  ];
 }
 
 /** A photon point shallower than dmax. */

@@ -63,7 +63,12 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   const [depthCm, ssdCm, offAxisCm] = [depthMm / MM_PER_CM, ssdMm / MM_PER_CM, at.offAxisMm / MM_PER_CM];
   const square = Number.isFinite(field.irradiatedSquareCm) && field.irradiatedSquareCm > 0 ? field.irradiatedSquareCm : undefined;
   const r = photonDosePerMu(data, machine.sadCm, {
-    setup: 'SAD', collimatorFieldCm: field.collimatorFieldCm, ...(square ? { irradiatedSquareCm: square } : {}), depthCm, ssdCm, offAxisCm,
+    setup: 'SAD',
+    collimatorFieldCm: field.collimatorFieldCm,
+    ...(square ? { irradiatedSquareCm: square } : {}),
+    depthCm,
+    ssdCm,
+    offAxisCm,
     ...(field.clarksonSectors ? { clarksonSectors: field.clarksonSectors, primaryWeight: field.primaryWeight } : {}),
   });
   if (!r.ok) return stopNotChecked(ctx, 'calculation-refused', { message: r.issues.map((i) => i.message).join('; '), controlPoint });
@@ -71,16 +76,32 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   let correction = 1;
   if (traced) {
     const method = ctx.heterogeneity ?? 'tpr-ratio';
-    const cf = heterogeneityCorrection(method, data, traced, projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm));
+    const cf = heterogeneityCorrection(
+      method,
+      data,
+      traced,
+      projectFieldCm(square ?? r.value.geometry.collimatorSquareCm, machine.sadCm, ssdCm + depthCm),
+    );
     correction = cf.value;
     lookups.push(...cf.lookups);
-    if (!Number.isFinite(correction)) return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, controlPoint });
+    if (!Number.isFinite(correction))
+      return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, controlPoint });
   }
   return {
-    dosePerMuCGy: r.value.dosePerMuCGy, correction, depthCm, ssdCm, offAxisCm, irradiatedSquareCm: square ?? 0, collimatorFieldCm: field.collimatorFieldCm,
-    collimatorSquareCm: r.value.geometry.collimatorSquareCm, edgeDistanceMm: fieldEdgeDistanceMm(aperture, [], px, py), depthScale,
-    covered: field.primaryWeight < 1, clarkson: !!field.clarksonSectors,
+    dosePerMuCGy: r.value.dosePerMuCGy,
+    correction,
+    depthCm,
+    ssdCm,
+    offAxisCm,
+    irradiatedSquareCm: square ?? 0,
+    collimatorFieldCm: field.collimatorFieldCm,
+    collimatorSquareCm: r.value.geometry.collimatorSquareCm,
+    edgeDistanceMm: fieldEdgeDistanceMm(aperture, [], px, py),
+    depthScale,
+    covered: field.primaryWeight < 1,
+    clarkson: !!field.clarksonSectors,
     ...(traced ? { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, densityRange: traced.densityRange } : {}),
-    ...(ssdDifferenceMm !== undefined ? { ssdDifferenceMm } : {}), lookups,
+    ...(ssdDifferenceMm !== undefined ? { ssdDifferenceMm } : {}),
+    lookups,
   };
 }

@@ -20,7 +20,9 @@ export function segmentsOf(cps: readonly ControlPoint[], finalWeight: number | u
     const share = (b.cumulativeMetersetWeight - a.cumulativeMetersetWeight) / total;
     if (!(share > 0)) continue;
     // With the gantry still, the first control point's SSD holds for all; else each its own.
-    const ssds = gantryMoves ? [a.ssdMm, b.ssdMm].filter((v): v is number => v !== undefined) : [a.ssdMm ?? cps[0]!.ssdMm].filter((v): v is number => v !== undefined);
+    const ssds = gantryMoves
+      ? [a.ssdMm, b.ssdMm].filter((v): v is number => v !== undefined)
+      : [a.ssdMm ?? cps[0]!.ssdMm].filter((v): v is number => v !== undefined);
     out.push({ from: i, share, mid: midway(a, b), ...(ssds.length ? { ssdMm: ssds.reduce((s, v) => s + v, 0) / ssds.length } : {}) });
   }
   return out;

@@ -29,8 +29,15 @@ export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: Sta
   const approximations: Note[] = [];
   if (clarkson && g.setup === 'SSD') approximations.push(note('ssd-irregular-tpr-form'));
   if (clarkson) {
-    approximations.push(note('clarkson-irregular', { mlc: g.aperture.leaves && g.aperture.areaMm2 / field.jawAreaMm2 < 0.99 ? 1 : 0, blocks: g.blocks.length,
-      sectors: CLARKSON_SECTORS, leafTransmission, blockTransmissions: g.blocks.map((b) => b.transmission) }));
+    approximations.push(
+      note('clarkson-irregular', {
+        mlc: g.aperture.leaves && g.aperture.areaMm2 / field.jawAreaMm2 < 0.99 ? 1 : 0,
+        blocks: g.blocks.length,
+        sectors: CLARKSON_SECTORS,
+        leafTransmission,
+        blockTransmissions: g.blocks.map((b) => b.transmission),
+      }),
+    );
   }
   const heel = m.physical?.data.profile ? heelDirection(machine, m.physical.wedge.orientationDeg) : undefined;
   const towardHeelCm = heel ? (px * heel[0] + py * heel[1]) / MM_PER_CM : undefined;
@@ -46,10 +53,17 @@ export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: Sta
   if ((cp0.tableTopPitchDeg ?? 0) !== 0 || (cp0.tableTopRollDeg ?? 0) !== 0) approximations.push(note('table-pitch-roll-ignored'));
   const input: PhotonPointInput = {
     // Clarkson integrates Sp·TPR, so irregular fields use the TPR form whatever the setup.
-    setup: clarkson ? 'SAD' : g.setup, collimatorFieldCm: field.collimatorFieldCm, irradiatedSquareCm: field.irradiatedSquareCm,
-    depthCm: g.depthCm, ssdCm: g.ssdCm, offAxisCm: g.offAxisCm, ...(m.physical?.wedge.id ? { wedgeId: m.physical.wedge.id } : {}),
-    ...(towardHeelCm !== undefined ? { towardHeelCm } : {}), ...(sweptWedge ? { sweptWedge } : {}),
-    ...(clarkson ? { clarksonSectors: clarkson, primaryWeight: field.primaryWeight } : {}), ...(m.trayId !== undefined ? { trayId: m.trayId } : {}),
+    setup: clarkson ? 'SAD' : g.setup,
+    collimatorFieldCm: field.collimatorFieldCm,
+    irradiatedSquareCm: field.irradiatedSquareCm,
+    depthCm: g.depthCm,
+    ssdCm: g.ssdCm,
+    offAxisCm: g.offAxisCm,
+    ...(m.physical?.wedge.id ? { wedgeId: m.physical.wedge.id } : {}),
+    ...(towardHeelCm !== undefined ? { towardHeelCm } : {}),
+    ...(sweptWedge ? { sweptWedge } : {}),
+    ...(clarkson ? { clarksonSectors: clarkson, primaryWeight: field.primaryWeight } : {}),
+    ...(m.trayId !== undefined ? { trayId: m.trayId } : {}),
   };
   return { field, input, depthScale, approximations };
 }

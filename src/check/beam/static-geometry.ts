@@ -1,4 +1,13 @@
-import { type Aperture, apertureAt, type BeamFrame, beamFrame, type BlockOutline, type FlatDepth, flatDepth, pointIsOpen } from '../../geometry/index.js';
+import {
+  type Aperture,
+  apertureAt,
+  type BeamFrame,
+  beamFrame,
+  type BlockOutline,
+  type FlatDepth,
+  flatDepth,
+  pointIsOpen,
+} from '../../geometry/index.js';
 import { MM_PER_CM, note, type Note } from '../../model/index.js';
 import { type BeamCheckContext, isStopped, type Stopped, stopNotChecked } from './context.js';
 import { type Traced, traceToPoint } from './ct-trace.js';
@@ -48,17 +57,27 @@ export function staticGeometry(ctx: BeamCheckContext, modifiers: Modifiers): Sta
   if (!aperture || aperture.areaMm2 <= 0) return stopNotChecked(ctx, 'no-open-aperture');
   const traced = ctx.ct ? traceToPoint({ ...ctx, ct: ctx.ct }, frame, sadMm) : undefined;
   if (traced && isStopped(traced)) return traced;
-  const axisSsdMm = traced ? traced.axisSsdMm ?? cp0.ssdMm : cp0.ssdMm;
+  const axisSsdMm = traced ? (traced.axisSsdMm ?? cp0.ssdMm) : cp0.ssdMm;
   if (axisSsdMm === undefined) return stopNotChecked(ctx, 'no-axis-ssd');
   const blocks: BlockOutline[] = beam.blocks.map((b) => ({ kind: b.type, outlineMm: b.outlineMm, transmission: b.transmission ?? 0 }));
-  if (blocks.length && !pointIsOpen(aperture, blocks, at.atIsocenterPlaneMm[0], at.atIsocenterPlaneMm[1])) return stopNotChecked(ctx, 'point-blocked');
+  if (blocks.length && !pointIsOpen(aperture, blocks, at.atIsocenterPlaneMm[0], at.atIsocenterPlaneMm[1]))
+    return stopNotChecked(ctx, 'point-blocked');
   const setup: 'SSD' | 'SAD' = Math.abs(axisSsdMm - sadMm) <= policy.classification.ssdSetupWithinMm ? 'SSD' : 'SAD';
   return {
-    sadMm, frame, at, aperture, blocks, ...(traced ? { traced } : {}),
+    sadMm,
+    frame,
+    at,
+    aperture,
+    blocks,
+    ...(traced ? { traced } : {}),
     depthCm: (traced ? traced.depth.geometricDepthMm : at.depthMm) / MM_PER_CM,
     ssdCm: (traced ? traced.depth.ssdMm : cp0.ssdMm!) / MM_PER_CM,
     offAxisCm: at.offAxisMm / MM_PER_CM,
-    axisSsdMm, setup,
-    setupBasis: setup === 'SSD' ? note('ssd-equals-sad', { ssdCm: axisSsdMm / MM_PER_CM }) : note('isocenter-deep', { depthCm: (sadMm - axisSsdMm) / MM_PER_CM }),
+    axisSsdMm,
+    setup,
+    setupBasis:
+      setup === 'SSD'
+        ? note('ssd-equals-sad', { ssdCm: axisSsdMm / MM_PER_CM })
+        : note('isocenter-deep', { depthCm: (sadMm - axisSsdMm) / MM_PER_CM }),
   };
 }

@@ -34,27 +34,53 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const sideAtDepthCm = projectFieldCm(f.field.irradiatedSquareCm, ctx.machine.sadCm, g.ssdCm + g.depthCm);
   const het = g.traced ? heterogeneity(ctx, data, g.traced.depth, sideAtDepthCm) : { correction: 1, approximations: [], lookups: [] };
   if (isStopped(het)) return het.stopped;
-  const ct = g.traced && ctx.ct
-    ? ctSummary(ctx.ct, g.traced, ctx.beam.controlPoints[0]!.ssdMm, ctx.heterogeneity ?? 'tpr-ratio', het.correction, mu * r.value.dosePerMuCGy) : undefined;
+  const ct =
+    g.traced && ctx.ct
+      ? ctSummary(ctx.ct, g.traced, ctx.beam.controlPoints[0]!.ssdMm, ctx.heterogeneity ?? 'tpr-ratio', het.correction, mu * r.value.dosePerMuCGy)
+      : undefined;
   const dosePerMuCGy = r.value.dosePerMuCGy * het.correction;
   const [px, py] = g.at.atIsocenterPlaneMm;
   const edgeDistanceCm = (fieldEdgeDistanceMm(g.aperture, g.blocks, px, py) * f.depthScale) / MM_PER_CM;
-  const flags = [...edgeFlags(edgeDistanceCm, ctx.policy), ...buildUpFlags(g.depthCm, data.calibration.dmaxCm), ...interfaceFlags(ct?.nearestInterfaceMm, ctx.policy)];
+  const flags = [
+    ...edgeFlags(edgeDistanceCm, ctx.policy),
+    ...buildUpFlags(g.depthCm, data.calibration.dmaxCm),
+    ...interfaceFlags(ct?.nearestInterfaceMm, ctx.policy),
+  ];
   const suggested = flags.length ? suggestedPoint(ctx, data, g, f) : undefined;
-  const category = categorize(ctx.policy, { wedged: !!modifiers.wedgeIn, offAxisCm: g.offAxisCm, irradiatedSquareCm: f.field.irradiatedSquareCm,
-    openFraction: f.field.openAreaMm2 / f.field.jawAreaMm2, ssdCm: g.ssdCm, shaped: g.aperture.leaves || g.blocks.length > 0, heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange) });
+  const category = categorize(ctx.policy, {
+    wedged: !!modifiers.wedgeIn,
+    offAxisCm: g.offAxisCm,
+    irradiatedSquareCm: f.field.irradiatedSquareCm,
+    openFraction: f.field.openAreaMm2 / f.field.jawAreaMm2,
+    ssdCm: g.ssdCm,
+    shaped: g.aperture.leaves || g.blocks.length > 0,
+    heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange),
+  });
   const planningSystemDepths = besideOurs(ctx.planningSystemDepths, g.depthCm * MM_PER_CM, ct?.radiologicalDepthMm, g.ssdCm * MM_PER_CM);
   return {
     ok: true,
     value: {
-      ...identity, status: 'checked', point: ctx.point,
+      ...identity,
+      status: 'checked',
+      point: ctx.point,
       calculation: {
-        machineBeam: `${ctx.machine.name} ${data.id}`, setup: g.setup, setupBasis: g.setupBasis, ssdCm: g.ssdCm, depthCm: g.depthCm, offAxisCm: g.offAxisCm,
-        collimatorFieldCm: f.field.collimatorFieldCm, collimatorSquareCm: r.value.geometry.collimatorSquareCm, irradiatedSquareCm: f.field.irradiatedSquareCm,
+        machineBeam: `${ctx.machine.name} ${data.id}`,
+        setup: g.setup,
+        setupBasis: g.setupBasis,
+        ssdCm: g.ssdCm,
+        depthCm: g.depthCm,
+        offAxisCm: g.offAxisCm,
+        collimatorFieldCm: f.field.collimatorFieldCm,
+        collimatorSquareCm: r.value.geometry.collimatorSquareCm,
+        irradiatedSquareCm: f.field.irradiatedSquareCm,
         ...(modifiers.wedgeIn?.id ? { wedgeId: modifiers.wedgeIn.id } : {}),
-        approximations: [...f.approximations, ...het.approximations], factors: factorRows(r.value.factors), dosePerMuCGy,
-        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy), clamps: clampRows([...r.value.clamps, ...het.lookups]),
-        ...(ct ? { ct } : {}), ...(planningSystemDepths ? { planningSystemDepths } : {}),
+        approximations: [...f.approximations, ...het.approximations],
+        factors: factorRows(r.value.factors),
+        dosePerMuCGy,
+        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
+        clamps: clampRows([...r.value.clamps, ...het.lookups]),
+        ...(ct ? { ct } : {}),
+        ...(planningSystemDepths ? { planningSystemDepths } : {}),
       },
       ...levelsOf(ctx.policy, category),
       fitness: { edgeDistanceCm, flags, ...(suggested?.suggestion ? { suggestion: suggested.suggestion } : {}) },
@@ -70,12 +96,17 @@ export function photonBeamData(ctx: BeamCheckContext): PhotonBeamModel | Stopped
 }
 
 /** The heterogeneity correction at a traced point by the chosen method, or why it cannot be made. */
-function heterogeneity(ctx: BeamCheckContext, data: PhotonBeamModel, t: CtDepth, sideAtDepthCm: number):
-  { correction: number; approximations: Note[]; lookups: readonly LookupNote[] } | Stopped {
+function heterogeneity(
+  ctx: BeamCheckContext,
+  data: PhotonBeamModel,
+  t: CtDepth,
+  sideAtDepthCm: number,
+): { correction: number; approximations: Note[]; lookups: readonly LookupNote[] } | Stopped {
   const method = ctx.heterogeneity ?? 'tpr-ratio';
   const { value: correction, lookups } = heterogeneityCorrection(method, data, t, sideAtDepthCm);
   const close = method === 'batho' ? interfaceWithinBuildUpMm(t, data.calibration.dmaxCm) : undefined;
   const approximations = close !== undefined ? [note('batho-interface-in-build-up', { distanceCm: close / MM_PER_CM })] : [];
-  if (!Number.isFinite(correction)) return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: t.radiologicalDepthMm / MM_PER_CM });
+  if (!Number.isFinite(correction))
+    return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: t.radiologicalDepthMm / MM_PER_CM });
   return { correction, approximations, lookups };
 }

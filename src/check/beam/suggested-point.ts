@@ -17,8 +17,12 @@ type Suggestion = NonNullable<CheckedBeam['fitness']['suggestion']>;
  * (`--suggest-point`), the independent dose there, with its own sectors and, with the CT, its own
  * traced depth and correction.
  */
-export function suggestedPoint(ctx: BeamCheckContext, data: PhotonBeamModel, g: StaticGeometry, f: StaticField):
-  { suggestion?: Suggestion; dose?: CheckedBeam['suggestedPoint'] } {
+export function suggestedPoint(
+  ctx: BeamCheckContext,
+  data: PhotonBeamModel,
+  g: StaticGeometry,
+  f: StaticField,
+): { suggestion?: Suggestion; dose?: CheckedBeam['suggestedPoint'] } {
   const s = betterPoint(g.aperture, g.blocks, g, ctx.policy);
   if (!s) return {};
   const suggestion: Suggestion = { patientMm: s.patientMm, depthCm: s.depthCm, offAxisCm: s.offAxisCm, edgeDistanceCm: s.edgeDistanceCm };
@@ -27,15 +31,34 @@ export function suggestedPoint(ctx: BeamCheckContext, data: PhotonBeamModel, g: 
   const there = ctx.ct ? ctDepth(ctx.ct.volume, g.frame.sourcePatientMm, s.patientMm, ctDepthOptions(ctx.ct)) : undefined;
   const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : s.depthCm;
   const [sx, sy] = s.atIsocenterPlaneMm;
-  const r = photonDosePerMu(data, machine.sadCm, { ...f.input, offAxisCm: s.offAxisCm, depthCm: depthThereCm,
+  const r = photonDosePerMu(data, machine.sadCm, {
+    ...f.input,
+    offAxisCm: s.offAxisCm,
+    depthCm: depthThereCm,
     ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
-    ...(f.field.clarksonSectors ? { clarksonSectors: fieldInput(g.aperture, g.blocks, sx, sy, f.depthScale, data.mlcTransmission ?? 0).clarksonSectors } : {}) });
+    ...(f.field.clarksonSectors
+      ? { clarksonSectors: fieldInput(g.aperture, g.blocks, sx, sy, f.depthScale, data.mlcTransmission ?? 0).clarksonSectors }
+      : {}),
+  });
   const cf = there?.ok
-    ? heterogeneityCorrection(ctx.heterogeneity ?? 'tpr-ratio', data, there.value, projectFieldCm(f.field.irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM))
+    ? heterogeneityCorrection(
+        ctx.heterogeneity ?? 'tpr-ratio',
+        data,
+        there.value,
+        projectFieldCm(f.field.irradiatedSquareCm, machine.sadCm, there.value.sourceToPointMm / MM_PER_CM),
+      )
     : { value: 1, lookups: [] };
   if (!r.ok || !Number.isFinite(cf.value)) return { suggestion };
-  return { suggestion, dose: { patientMm: s.patientMm, depthCm: depthThereCm, offAxisCm: s.offAxisCm, independentDoseCGy: ctx.entry.beamMeterset! * r.value.dosePerMuCGy * cf.value,
-    clamps: clampRows([...r.value.clamps, ...cf.lookups]) } };
+  return {
+    suggestion,
+    dose: {
+      patientMm: s.patientMm,
+      depthCm: depthThereCm,
+      offAxisCm: s.offAxisCm,
+      independentDoseCGy: ctx.entry.beamMeterset! * r.value.dosePerMuCGy * cf.value,
+      clamps: clampRows([...r.value.clamps, ...cf.lookups]),
+    },
+  };
 }
 
 /** A better point at the same depth: the open field's centroid, or the open point farthest from every edge. */
@@ -56,6 +79,11 @@ function betterPoint(aperture: Aperture, blocks: readonly BlockOutline[], g: Sta
   if (best <= 0) return undefined;
   const pointBld: Vec3 = [bx * scale, by * scale, g.at.pointBldMm[2]];
   const patientMm = bldToPatient(g.frame, pointBld).map((v) => Math.round(v * 10) / 10) as [number, number, number];
-  return { patientMm, atIsocenterPlaneMm: [bx, by] as const, depthCm: (g.at.sourceToPointAxialMm - g.axisSsdMm) / MM_PER_CM,
-    offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM, edgeDistanceCm: (best * scale) / MM_PER_CM };
+  return {
+    patientMm,
+    atIsocenterPlaneMm: [bx, by] as const,
+    depthCm: (g.at.sourceToPointAxialMm - g.axisSsdMm) / MM_PER_CM,
+    offAxisCm: Math.hypot(pointBld[0], pointBld[1]) / MM_PER_CM,
+    edgeDistanceCm: (best * scale) / MM_PER_CM,
+  };
 }

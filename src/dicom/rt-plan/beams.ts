@@ -21,8 +21,16 @@ export function readBeam(item: ItemReader): Beam | undefined {
 
   const limitingDevices = readDevices(b);
   const wedges = b.sequence('WedgeSequence').map(readWedge);
-  checkUnique(b, 'WedgeSequence', wedges.map((w) => w.number), 'wedge number');
-  const blocks = b.sequence('BlockSequence').map(readBlock).filter((x): x is Block => x !== undefined);
+  checkUnique(
+    b,
+    'WedgeSequence',
+    wedges.map((w) => w.number),
+    'wedge number',
+  );
+  const blocks = b
+    .sequence('BlockSequence')
+    .map(readBlock)
+    .filter((x): x is Block => x !== undefined);
   const finalWeight = b.number('FinalCumulativeMetersetWeight');
   const isSetupBeam = deliveryType === SETUP_DELIVERY_TYPE;
 
@@ -40,8 +48,14 @@ export function readBeam(item: ItemReader): Beam | undefined {
     countMatches(b, 'NumberOfControlPoints', controlPoints.length, 'ControlPointSequence');
     const last = controlPoints[controlPoints.length - 1]!.cumulativeMetersetWeight;
     if (finalWeight !== undefined && Math.abs(last - finalWeight) > 1e-6 * Math.max(1, Math.abs(finalWeight))) {
-      b.report('error', 'inconsistent', 'FinalCumulativeMetersetWeight', 'differs from the last control point\'s Cumulative Meterset Weight',
-        `${last}`, `${finalWeight}`);
+      b.report(
+        'error',
+        'inconsistent',
+        'FinalCumulativeMetersetWeight',
+        "differs from the last control point's Cumulative Meterset Weight",
+        `${last}`,
+        `${finalWeight}`,
+      );
     }
   }
   if (number === undefined || radiationType === undefined || beamType === undefined || !controlPoints) return undefined;
@@ -90,7 +104,12 @@ export function readBeam(item: ItemReader): Beam | undefined {
 function readDevices(b: ItemReader): BeamLimitingDevice[] {
   const out: BeamLimitingDevice[] = [];
   for (const d of b.sequence('BeamLimitingDeviceSequence')) {
-    const type = need(d, 'RTBeamLimitingDeviceType', oneOf(d, 'RTBeamLimitingDeviceType', BeamLimitingDeviceType.options), 'X, Y, ASYMX, ASYMY, MLCX or MLCY');
+    const type = need(
+      d,
+      'RTBeamLimitingDeviceType',
+      oneOf(d, 'RTBeamLimitingDeviceType', BeamLimitingDeviceType.options),
+      'X, Y, ASYMX, ASYMY, MLCX or MLCY',
+    );
     const pairs = need(d, 'NumberOfLeafJawPairs', d.integer('NumberOfLeafJawPairs'), 'the number of leaf or jaw pairs');
     if (type === undefined || pairs === undefined) continue;
     if (pairs < 1) {
@@ -103,7 +122,14 @@ function readDevices(b: ItemReader): BeamLimitingDevice[] {
     if (isMlc) {
       need(d, 'LeafPositionBoundaries', boundaries, `${pairs + 1} leaf boundaries (mm)`);
       if (boundaries && boundaries.length !== pairs + 1) {
-        d.report('error', 'wrong-multiplicity', 'LeafPositionBoundaries', 'does not match the number of leaf pairs', `${pairs + 1} values`, `${boundaries.length}`);
+        d.report(
+          'error',
+          'wrong-multiplicity',
+          'LeafPositionBoundaries',
+          'does not match the number of leaf pairs',
+          `${pairs + 1} values`,
+          `${boundaries.length}`,
+        );
       } else if (boundaries?.some((v, i) => i > 0 && v <= boundaries[i - 1]!)) {
         d.report('error', 'invalid-value', 'LeafPositionBoundaries', 'are not strictly increasing', 'increasing boundaries', boundaries.join('\\'));
       }
@@ -179,7 +205,12 @@ function readDoseVerification(b: ItemReader): BeamDoseVerification[] {
   });
 }
 
-function countMatches(b: ItemReader, kw: 'NumberOfWedges' | 'NumberOfBlocks' | 'NumberOfCompensators' | 'NumberOfBoli' | 'NumberOfControlPoints', actual: number, seq: string): void {
+function countMatches(
+  b: ItemReader,
+  kw: 'NumberOfWedges' | 'NumberOfBlocks' | 'NumberOfCompensators' | 'NumberOfBoli' | 'NumberOfControlPoints',
+  actual: number,
+  seq: string,
+): void {
   const declared = b.integer(kw);
   if (declared !== undefined && declared !== actual) {
     b.report('error', 'inconsistent', kw, `does not match the ${seq}`, `${actual} (items present)`, `${declared}`);

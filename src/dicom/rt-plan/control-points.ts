@@ -49,14 +49,17 @@ export interface BeamContext {
  * Reads the Control Point Sequence and resolves it: after the first control point DICOM sends only
  * what changes (PS3.3 C.8.8.14.5), so each returned control point carries every value in force.
  */
-export function readControlPoints(
-  beam: ItemReader,
-  ctx: BeamContext,
-): ControlPoint[] | undefined {
+export function readControlPoints(beam: ItemReader, ctx: BeamContext): ControlPoint[] | undefined {
   const items = beam.sequence('ControlPointSequence');
   if (items.length < 2) {
-    beam.report('error', items.length === 0 ? 'missing-attribute' : 'wrong-multiplicity', 'ControlPointSequence',
-      'must hold at least two control points', 'at least 2 items', `${items.length}`);
+    beam.report(
+      'error',
+      items.length === 0 ? 'missing-attribute' : 'wrong-multiplicity',
+      'ControlPointSequence',
+      'must hold at least two control points',
+      'at least 2 items',
+      `${items.length}`,
+    );
     return undefined;
   }
   const out: ControlPoint[] = [];
@@ -75,12 +78,7 @@ export function readControlPoints(
   return ok ? out : undefined;
 }
 
-function readOne(
-  cp: ItemReader,
-  i: number,
-  prev: ControlPoint | undefined,
-  ctx: BeamContext,
-): ControlPoint | undefined {
+function readOne(cp: ItemReader, i: number, prev: ControlPoint | undefined, ctx: BeamContext): ControlPoint | undefined {
   let ok = true;
   const index = need(cp, 'ControlPointIndex', cp.integer('ControlPointIndex'), `control point index ${i}`);
   if (index !== undefined && index !== i) {
@@ -127,8 +125,14 @@ function readOne(
     cp.report('error', 'invalid-value', 'CumulativeMetersetWeight', 'is negative', 'a value >= 0', `${cmw}`);
     ok = false;
   } else if (prev && cmw < prev.cumulativeMetersetWeight) {
-    cp.report('error', 'meterset-weight-decreasing', 'CumulativeMetersetWeight', 'goes backwards',
-      `>= ${prev.cumulativeMetersetWeight} (control point ${i - 1})`, `${cmw}`);
+    cp.report(
+      'error',
+      'meterset-weight-decreasing',
+      'CumulativeMetersetWeight',
+      'goes backwards',
+      `>= ${prev.cumulativeMetersetWeight} (control point ${i - 1})`,
+      `${cmw}`,
+    );
     ok = false;
   }
 
@@ -159,12 +163,7 @@ function readOne(
   } as unknown as ControlPoint;
 }
 
-function readDevicePositions(
-  cp: ItemReader,
-  i: number,
-  prev: ControlPoint | undefined,
-  ctx: BeamContext,
-): DevicePosition[] | undefined {
+function readDevicePositions(cp: ItemReader, i: number, prev: ControlPoint | undefined, ctx: BeamContext): DevicePosition[] | undefined {
   const given = new Map<string, number[]>();
   const unreadable = new Set<string>();
   let ok = true;
@@ -177,13 +176,23 @@ function readDevicePositions(
       continue;
     }
     if (!declared) {
-      d.report('error', 'unknown-reference', 'RTBeamLimitingDeviceType', 'names a device the beam does not declare in its Beam Limiting Device Sequence',
-        ctx.devices.map((x) => x.type).join(', ') || 'no devices', type);
+      d.report(
+        'error',
+        'unknown-reference',
+        'RTBeamLimitingDeviceType',
+        'names a device the beam does not declare in its Beam Limiting Device Sequence',
+        ctx.devices.map((x) => x.type).join(', ') || 'no devices',
+        type,
+      );
       ok = false;
       continue;
     }
-    const positions = need(d, 'LeafJawPositions', d.tuple('LeafJawPositions', 2 * declared.numberOfPairs),
-      `${2 * declared.numberOfPairs} positions (mm) for ${declared.numberOfPairs} pair(s)`);
+    const positions = need(
+      d,
+      'LeafJawPositions',
+      d.tuple('LeafJawPositions', 2 * declared.numberOfPairs),
+      `${2 * declared.numberOfPairs} positions (mm) for ${declared.numberOfPairs} pair(s)`,
+    );
     if (!positions) {
       unreadable.add(type);
       ok = false;
@@ -199,10 +208,16 @@ function readDevicePositions(
       const b = positions[k + n]!;
       if (a > b) {
         const jaw = type === 'X' || type === 'Y' || type === 'ASYMX' || type === 'ASYMY';
-        d.report('error', jaw ? 'jaws-crossed' : 'leaves-crossed', 'LeafJawPositions',
-          jaw ? `jaws cross: ${type}1 = ${a} mm lies beyond ${type}2 = ${b} mm`
-              : `leaf pair ${k + 1} crosses: bank 1 at ${a} mm lies beyond bank 2 at ${b} mm`,
-          jaw ? `${type}1 <= ${type}2` : 'bank 1 <= bank 2', `${a} > ${b}`);
+        d.report(
+          'error',
+          jaw ? 'jaws-crossed' : 'leaves-crossed',
+          'LeafJawPositions',
+          jaw
+            ? `jaws cross: ${type}1 = ${a} mm lies beyond ${type}2 = ${b} mm`
+            : `leaf pair ${k + 1} crosses: bank 1 at ${a} mm lies beyond bank 2 at ${b} mm`,
+          jaw ? `${type}1 <= ${type}2` : 'bank 1 <= bank 2',
+          `${a} > ${b}`,
+        );
         ok = false;
         break;
       }
@@ -214,8 +229,13 @@ function readDevicePositions(
     const positions = given.get(dev.type) ?? prev?.devices.find((p) => p.type === dev.type)?.positionsMm;
     if (!positions) {
       if (i === 0 && !unreadable.has(dev.type)) {
-        cp.report('error', 'missing-attribute', 'BeamLimitingDevicePositionSequence',
-          `gives no positions for the ${dev.type} device at the first control point`, `positions for ${dev.type}`);
+        cp.report(
+          'error',
+          'missing-attribute',
+          'BeamLimitingDevicePositionSequence',
+          `gives no positions for the ${dev.type} device at the first control point`,
+          `positions for ${dev.type}`,
+        );
         ok = false;
       }
       continue;
@@ -236,8 +256,14 @@ function readWedgePositions(cp: ItemReader, prev: ControlPoint | undefined, ctx:
       continue;
     }
     if (!ctx.wedgeNumbers.has(n)) {
-      w.report('error', 'unknown-reference', 'ReferencedWedgeNumber', 'names a wedge the beam does not have',
-        [...ctx.wedgeNumbers].join(', ') || 'no wedges', `${n}`);
+      w.report(
+        'error',
+        'unknown-reference',
+        'ReferencedWedgeNumber',
+        'names a wedge the beam does not have',
+        [...ctx.wedgeNumbers].join(', ') || 'no wedges',
+        `${n}`,
+      );
       ok = false;
       continue;
     }

@@ -7,7 +7,12 @@ import { opt } from './optional.js';
 export function readFractionGroups(root: ItemReader, treatmentBeams: ReadonlySet<number>): FractionGroup[] {
   const groups = root.sequence('FractionGroupSequence');
   const out = groups.map((g) => readGroup(g, treatmentBeams));
-  checkUnique(root, 'FractionGroupSequence', out.map((g) => g.number), 'fraction group number');
+  checkUnique(
+    root,
+    'FractionGroupSequence',
+    out.map((g) => g.number),
+    'fraction group number',
+  );
   return out;
 }
 
@@ -21,9 +26,21 @@ function readGroup(g: ItemReader, treatmentBeams: ReadonlySet<number>): Fraction
   const beams = g.sequence('ReferencedBeamSequence').map((rb) => readReferencedBeam(rb, treatmentBeams));
   const declared = g.integer('NumberOfBeams');
   if (declared !== undefined && declared !== beams.length) {
-    g.report('error', 'inconsistent', 'NumberOfBeams', 'does not match the Referenced Beam Sequence', `${beams.length} (items present)`, `${declared}`);
+    g.report(
+      'error',
+      'inconsistent',
+      'NumberOfBeams',
+      'does not match the Referenced Beam Sequence',
+      `${beams.length} (items present)`,
+      `${declared}`,
+    );
   }
-  checkUnique(g, 'ReferencedBeamSequence', beams.map((b) => b.beamNumber), 'referenced beam number');
+  checkUnique(
+    g,
+    'ReferencedBeamSequence',
+    beams.map((b) => b.beamNumber),
+    'referenced beam number',
+  );
   return {
     number,
     ...opt('description', g.string('FractionGroupDescription')),

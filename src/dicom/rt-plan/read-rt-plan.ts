@@ -25,8 +25,17 @@ export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
       : `a dataset without a SOP Class UID${root.string('Modality') ? ` (modality ${root.string('Modality')})` : ''}`;
     return {
       ok: false,
-      issues: [{ severity: 'error', code: 'not-rt-plan', file, path: 'SOPClassUID',
-        message: `not an RT Plan: the file is ${what}`, expected: `RT Plan Storage (${RT_PLAN_STORAGE})`, found: sopClass ?? 'none' }],
+      issues: [
+        {
+          severity: 'error',
+          code: 'not-rt-plan',
+          file,
+          path: 'SOPClassUID',
+          message: `not an RT Plan: the file is ${what}`,
+          expected: `RT Plan Storage (${RT_PLAN_STORAGE})`,
+          found: sopClass ?? 'none',
+        },
+      ],
     };
   }
   const sopInstanceUid = need(root, 'SOPInstanceUID', root.string('SOPInstanceUID'), 'the SOP Instance UID');
@@ -36,13 +45,28 @@ export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
   const approvalStatus = oneOf(root, 'ApprovalStatus', ['APPROVED', 'UNAPPROVED', 'REJECTED'] as const);
 
   const patientSetups = root.sequence('PatientSetupSequence').map(readSetup);
-  checkUnique(root, 'PatientSetupSequence', patientSetups.map((s) => s.number), 'patient setup number');
+  checkUnique(
+    root,
+    'PatientSetupSequence',
+    patientSetups.map((s) => s.number),
+    'patient setup number',
+  );
   const doseReferences = root.sequence('DoseReferenceSequence').map(readDoseReference);
-  checkUnique(root, 'DoseReferenceSequence', doseReferences.map((d) => d.number), 'dose reference number');
+  checkUnique(
+    root,
+    'DoseReferenceSequence',
+    doseReferences.map((d) => d.number),
+    'dose reference number',
+  );
 
   const beamItems = root.sequence('BeamSequence');
   const beams = beamItems.map(readBeam).filter((b): b is Beam => b !== undefined);
-  checkUnique(root, 'BeamSequence', beams.map((b) => b.number), 'beam number');
+  checkUnique(
+    root,
+    'BeamSequence',
+    beams.map((b) => b.number),
+    'beam number',
+  );
   const treatmentBeams = new Set(beams.filter((b) => b.treatmentDeliveryType !== 'SETUP').map((b) => b.number));
   const fractionGroups = readFractionGroups(root, treatmentBeams);
 
@@ -51,23 +75,44 @@ export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
   fractionGroups.forEach((g, gi) => {
     g.beams.forEach((rb, bi) => {
       if (rb.beamNumber >= 0 && !beamNumbers.has(rb.beamNumber) && beamItems.length === beams.length) {
-        issues.push({ severity: 'error', code: 'unknown-reference', file, beamNumber: rb.beamNumber,
+        issues.push({
+          severity: 'error',
+          code: 'unknown-reference',
+          file,
+          beamNumber: rb.beamNumber,
           path: `FractionGroupSequence[${gi}].ReferencedBeamSequence[${bi}].ReferencedBeamNumber`,
           message: `fraction group ${g.number} names beam ${rb.beamNumber}, which the Beam Sequence does not contain`,
-          expected: [...beamNumbers].join(', ') || 'no beams', found: `${rb.beamNumber}` });
+          expected: [...beamNumbers].join(', ') || 'no beams',
+          found: `${rb.beamNumber}`,
+        });
       }
     });
   });
   const setupNumbers = new Set(patientSetups.map((s) => s.number));
   for (const b of beams) {
     if (b.patientSetupNumber !== undefined && !setupNumbers.has(b.patientSetupNumber)) {
-      issues.push({ severity: 'error', code: 'unknown-reference', file, beamNumber: b.number, ...opt('beamName', b.name),
-        path: 'ReferencedPatientSetupNumber', message: `the beam names patient setup ${b.patientSetupNumber}, which the Patient Setup Sequence does not contain`,
-        expected: [...setupNumbers].join(', ') || 'no setups', found: `${b.patientSetupNumber}` });
+      issues.push({
+        severity: 'error',
+        code: 'unknown-reference',
+        file,
+        beamNumber: b.number,
+        ...opt('beamName', b.name),
+        path: 'ReferencedPatientSetupNumber',
+        message: `the beam names patient setup ${b.patientSetupNumber}, which the Patient Setup Sequence does not contain`,
+        expected: [...setupNumbers].join(', ') || 'no setups',
+        found: `${b.patientSetupNumber}`,
+      });
     }
   }
   if (beamItems.length === 0) root.report('error', 'missing-attribute', 'BeamSequence', 'holds no beams', 'at least one beam');
-  if (fractionGroups.length === 0) root.report('warning', 'missing-attribute', 'FractionGroupSequence', 'holds no fraction groups, so no beam has a meterset', 'at least one fraction group');
+  if (fractionGroups.length === 0)
+    root.report(
+      'warning',
+      'missing-attribute',
+      'FractionGroupSequence',
+      'holds no fraction groups, so no beam has a meterset',
+      'at least one fraction group',
+    );
 
   if (issues.some((i) => i.severity === 'error') || sopInstanceUid === undefined || label === undefined) {
     return { ok: false, issues };
@@ -96,8 +141,16 @@ export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
   };
   const parsed = Plan.safeParse(candidate);
   if (!parsed.success) {
-    return { ok: false, issues: parsed.error.issues.map((z) => ({ severity: 'error' as const, code: 'invalid-value' as const, file,
-      path: z.path.join('.'), message: `the plan model rejected a value (${z.message}); this is a bug in plumbline if the file is valid` })) };
+    return {
+      ok: false,
+      issues: parsed.error.issues.map((z) => ({
+        severity: 'error' as const,
+        code: 'invalid-value' as const,
+        file,
+        path: z.path.join('.'),
+        message: `the plan model rejected a value (${z.message}); this is a bug in plumbline if the file is valid`,
+      })),
+    };
   }
   return { ok: true, value: parsed.data, warnings: issues };
 }
@@ -107,7 +160,13 @@ function readSetup(s: ItemReader): PatientSetup {
   const position = oneOf(s, 'PatientPosition', PATIENT_POSITIONS);
   const additional = s.string('PatientAdditionalPosition');
   if (position === undefined && additional === undefined && !s.has('PatientPosition')) {
-    s.report('error', 'missing-attribute', 'PatientPosition', 'is missing (and no Patient Additional Position is given)', PATIENT_POSITIONS.join(', '));
+    s.report(
+      'error',
+      'missing-attribute',
+      'PatientPosition',
+      'is missing (and no Patient Additional Position is given)',
+      PATIENT_POSITIONS.join(', '),
+    );
   }
   return { number, ...opt('position', position), ...opt('additionalPosition', additional), ...opt('setupTechnique', s.string('SetupTechnique')) };
 }

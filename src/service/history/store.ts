@@ -34,17 +34,28 @@ export const StoredResult = z.object({
   planLabel: z.string(),
   verdict: Verdict,
   fullyVerified: z.boolean(),
-  fractionGroups: z.array(z.object({
-    beams: z.array(z.object({
-      status: z.string(), radiationType: z.string(), nominalEnergy: z.number().optional(),
-      calculation: z.object({ doseDeviationPercent: z.number().optional() }).optional(),
-    })),
-  })),
+  fractionGroups: z.array(
+    z.object({
+      beams: z.array(
+        z.object({
+          status: z.string(),
+          radiationType: z.string(),
+          nominalEnergy: z.number().optional(),
+          calculation: z.object({ doseDeviationPercent: z.number().optional() }).optional(),
+        }),
+      ),
+    }),
+  ),
 });
 export type StoredResult = z.infer<typeof StoredResult>;
 
 export const ReviewRecord = z.object({
-  id: z.number(), checkId: z.number(), reviewer: z.string().min(1), reviewedAt: z.string(), accepted: z.boolean(), comment: z.string(),
+  id: z.number(),
+  checkId: z.number(),
+  reviewer: z.string().min(1),
+  reviewedAt: z.string(),
+  accepted: z.boolean(),
+  comment: z.string(),
 });
 export type ReviewRecord = z.infer<typeof ReviewRecord>;
 
@@ -68,8 +79,19 @@ export interface CheckFilter {
 }
 
 interface Row {
-  id: number; recorded_at: string; plan_sop_instance_uid: string; plan_sha256: string; plan_label: string; patient_id: string | null; machine: string | null;
-  verdict: string; fully_verified: number; tool_version: string; beam_data_version: string | null; beam_data_sha256: string | null; inputs_json: string;
+  id: number;
+  recorded_at: string;
+  plan_sop_instance_uid: string;
+  plan_sha256: string;
+  plan_label: string;
+  patient_id: string | null;
+  machine: string | null;
+  verdict: string;
+  fully_verified: number;
+  tool_version: string;
+  beam_data_version: string | null;
+  beam_data_sha256: string | null;
+  inputs_json: string;
 }
 
 /**
@@ -109,9 +131,22 @@ export class HistoryStore {
     const info = this.db
       .prepare(`INSERT INTO checks (recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
         beam_data_version, beam_data_sha256, inputs_json, result_json, html) VALUES (@recordedAt, @sop, @sha, @label, @patient, @machine, @verdict, @full, @tool, @bdv, @bds, @inputs, @result, @html)`)
-      .run({ recordedAt: c.recordedAt, sop: r.sopInstanceUid, sha: c.planSha256, label: r.planLabel, patient: r.patientId ?? null, machine: r.machine?.dataName ?? null,
-        verdict: r.verdict, full: r.fullyVerified ? 1 : 0, tool: c.toolVersion, bdv: c.beamDataVersion ?? null, bds: c.beamDataSha256 ?? null,
-        inputs: JSON.stringify(c.inputs), result: JSON.stringify(r), html: c.html });
+      .run({
+        recordedAt: c.recordedAt,
+        sop: r.sopInstanceUid,
+        sha: c.planSha256,
+        label: r.planLabel,
+        patient: r.patientId ?? null,
+        machine: r.machine?.dataName ?? null,
+        verdict: r.verdict,
+        full: r.fullyVerified ? 1 : 0,
+        tool: c.toolVersion,
+        bdv: c.beamDataVersion ?? null,
+        bds: c.beamDataSha256 ?? null,
+        inputs: JSON.stringify(c.inputs),
+        result: JSON.stringify(r),
+        html: c.html,
+      });
     return Number(info.lastInsertRowid);
   }
 
@@ -123,11 +158,22 @@ export class HistoryStore {
   listChecks(f: CheckFilter = {}): CheckRecord[] {
     const where: string[] = [];
     const args: unknown[] = [];
-    if (f.since) { where.push('recorded_at >= ?'); args.push(f.since); }
-    if (f.verdicts?.length) { where.push(`verdict IN (${f.verdicts.map(() => '?').join(', ')})`); args.push(...f.verdicts); }
-    if (f.machine) { where.push('machine = ?'); args.push(f.machine); }
-    const rows = this.db.prepare(`SELECT id, recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
-      beam_data_version, beam_data_sha256, inputs_json FROM checks ${where.length ? `WHERE ${where.join(' AND ')}` : ''} ORDER BY recorded_at DESC, id DESC`).all(...args) as Row[];
+    if (f.since) {
+      where.push('recorded_at >= ?');
+      args.push(f.since);
+    }
+    if (f.verdicts?.length) {
+      where.push(`verdict IN (${f.verdicts.map(() => '?').join(', ')})`);
+      args.push(...f.verdicts);
+    }
+    if (f.machine) {
+      where.push('machine = ?');
+      args.push(f.machine);
+    }
+    const rows = this.db
+      .prepare(`SELECT id, recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
+      beam_data_version, beam_data_sha256, inputs_json FROM checks ${where.length ? `WHERE ${where.join(' AND ')}` : ''} ORDER BY recorded_at DESC, id DESC`)
+      .all(...args) as Row[];
     return rows.map(toRecord);
   }
 
@@ -144,13 +190,25 @@ export class HistoryStore {
   /** A physicist's review: always a new record. */
   addReview(r: Omit<ReviewRecord, 'id'>): number {
     const v = ReviewRecord.omit({ id: true }).parse(r);
-    return Number(this.db.prepare('INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment) VALUES (?, ?, ?, ?, ?)').run(v.checkId, v.reviewer, v.reviewedAt, v.accepted ? 1 : 0, v.comment).lastInsertRowid);
+    return Number(
+      this.db
+        .prepare('INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment) VALUES (?, ?, ?, ?, ?)')
+        .run(v.checkId, v.reviewer, v.reviewedAt, v.accepted ? 1 : 0, v.comment).lastInsertRowid,
+    );
   }
 
   reviews(checkId: number): ReviewRecord[] {
-    const rows = this.db.prepare('SELECT id, check_id, reviewer, reviewed_at, accepted, comment FROM reviews WHERE check_id = ? ORDER BY id').all(checkId) as
-      { id: number; check_id: number; reviewer: string; reviewed_at: string; accepted: number; comment: string }[];
-    return rows.map((x) => ({ id: x.id, checkId: x.check_id, reviewer: x.reviewer, reviewedAt: x.reviewed_at, accepted: x.accepted === 1, comment: x.comment }));
+    const rows = this.db
+      .prepare('SELECT id, check_id, reviewer, reviewed_at, accepted, comment FROM reviews WHERE check_id = ? ORDER BY id')
+      .all(checkId) as { id: number; check_id: number; reviewer: string; reviewed_at: string; accepted: number; comment: string }[];
+    return rows.map((x) => ({
+      id: x.id,
+      checkId: x.check_id,
+      reviewer: x.reviewer,
+      reviewedAt: x.reviewed_at,
+      accepted: x.accepted === 1,
+      comment: x.comment,
+    }));
   }
 
   close(): void {
@@ -160,10 +218,18 @@ export class HistoryStore {
 
 function toRecord(r: Row): CheckRecord {
   return CheckRecord.parse({
-    id: r.id, recordedAt: r.recorded_at, planSopInstanceUid: r.plan_sop_instance_uid, planSha256: r.plan_sha256, planLabel: r.plan_label,
-    ...(r.patient_id !== null ? { patientId: r.patient_id } : {}), ...(r.machine !== null ? { machine: r.machine } : {}),
-    verdict: r.verdict, fullyVerified: r.fully_verified === 1, toolVersion: r.tool_version,
-    ...(r.beam_data_version !== null ? { beamDataVersion: r.beam_data_version } : {}), ...(r.beam_data_sha256 !== null ? { beamDataSha256: r.beam_data_sha256 } : {}),
+    id: r.id,
+    recordedAt: r.recorded_at,
+    planSopInstanceUid: r.plan_sop_instance_uid,
+    planSha256: r.plan_sha256,
+    planLabel: r.plan_label,
+    ...(r.patient_id !== null ? { patientId: r.patient_id } : {}),
+    ...(r.machine !== null ? { machine: r.machine } : {}),
+    verdict: r.verdict,
+    fullyVerified: r.fully_verified === 1,
+    toolVersion: r.tool_version,
+    ...(r.beam_data_version !== null ? { beamDataVersion: r.beam_data_version } : {}),
+    ...(r.beam_data_sha256 !== null ? { beamDataSha256: r.beam_data_sha256 } : {}),
     inputs: JSON.parse(r.inputs_json),
   });
 }

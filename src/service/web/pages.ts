@@ -34,45 +34,67 @@ export interface TrendPoint {
 }
 
 /** The chart-round page: checks since a date with verdict counts, filters, and the deviation trend with its control limits. */
-export function listPage(checks: readonly (CheckRecord & { reviews: number })[], f: ListFilter, machines: readonly string[], trend: readonly TrendPoint[]): string {
-  const counts = VERDICTS.map((v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`).join('');
-  const option = (value: string, label: string, selected: boolean) => `<option value="${esc(value)}"${selected ? ' selected' : ''}>${esc(label)}</option>`;
+export function listPage(
+  checks: readonly (CheckRecord & { reviews: number })[],
+  f: ListFilter,
+  machines: readonly string[],
+  trend: readonly TrendPoint[],
+): string {
+  const counts = VERDICTS.map(
+    (v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`,
+  ).join('');
+  const option = (value: string, label: string, selected: boolean) =>
+    `<option value="${esc(value)}"${selected ? ' selected' : ''}>${esc(label)}</option>`;
   const filters = `<form class="filters" method="get" action="/">
 <label>since <input type="date" name="since" value="${esc(f.since)}"></label>
 <label>machine <select name="machine">${option('', 'all', !f.machine)}${machines.map((m) => option(m, m, f.machine === m)).join('')}</select></label>
 <label>verdict <select name="verdict">${option('', 'all', !f.verdict)}${VERDICTS.map((v) => option(v, v, f.verdict === v)).join('')}</select></label>
 <button type="submit">show</button></form>`;
-  const rows = checks.map((c) => `<tr data-check="${c.id}"><td>${esc(c.recordedAt.replace('T', ' ').slice(0, 16))}</td><td><a href="/check/${c.id}">${esc(c.planLabel)}</a></td>
-<td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`).join('');
-  return page('Checked plans', `<p class="counts">${counts}</p>${filters}
+  const rows = checks
+    .map(
+      (
+        c,
+      ) => `<tr data-check="${c.id}"><td>${esc(c.recordedAt.replace('T', ' ').slice(0, 16))}</td><td><a href="/check/${c.id}">${esc(c.planLabel)}</a></td>
+<td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
+    )
+    .join('');
+  return page(
+    'Checked plans',
+    `<p class="counts">${counts}</p>${filters}
 <table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
 <h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system; the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
-${trendCharts(trend)}`);
+${trendCharts(trend)}`,
+  );
 }
 
 /** One SVG per series: the deviations over time, the mean and the ±3σ limits. Text first; lines only as emphasis. */
 export function trendCharts(points: readonly TrendPoint[]): string {
   const series = [...new Set(points.map((p) => p.series))].sort();
   if (!series.length) return '<p>No checked beams in this period.</p>';
-  return series.map((name) => {
-    const pts = points.filter((p) => p.series === name).sort((a, b) => a.atMs - b.atMs);
-    const lim = controlLimits(pts.map((p) => p.deviationPercent));
-    const values = [...pts.map((p) => p.deviationPercent), ...(lim ? [lim.lower, lim.upper] : []), -5, 5];
-    const [lo, hi] = [Math.min(...values), Math.max(...values)];
-    const [w, h, pad] = [640, 200, 40];
-    const t0 = pts[0]!.atMs;
-    const span = Math.max(1, pts[pts.length - 1]!.atMs - t0);
-    const x = (t: number) => pad + ((t - t0) / span) * (w - 2 * pad);
-    const y = (v: number) => h - pad / 2 - ((v - lo) / (hi - lo)) * (h - pad);
-    const line = (v: number, label: string, dash: string, left = false) => `<line class="limit" x1="${pad}" x2="${w - pad}" y1="${y(v).toFixed(1)}" y2="${y(v).toFixed(1)}" stroke="#555" stroke-dasharray="${dash}"/><text x="${left ? 2 : w - pad + 4}" y="${(y(v) + 4).toFixed(1)}">${esc(label)}</text>`;
-    const summary = lim ? `mean ${lim.mean.toFixed(2)} %, σ ${lim.sigma.toFixed(2)} %, limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %` : 'fewer than two points: no control limits';
-    const outside = lim ? pts.filter((p) => p.deviationPercent < lim.lower || p.deviationPercent > lim.upper).length : 0;
-    return `<figure class="trend" data-series="${esc(name)}"><figcaption>${esc(name)}: ${pts.length} beam(s); ${esc(summary)}${outside ? `; ${outside} outside the limits` : ''}</figcaption>
+  return series
+    .map((name) => {
+      const pts = points.filter((p) => p.series === name).sort((a, b) => a.atMs - b.atMs);
+      const lim = controlLimits(pts.map((p) => p.deviationPercent));
+      const values = [...pts.map((p) => p.deviationPercent), ...(lim ? [lim.lower, lim.upper] : []), -5, 5];
+      const [lo, hi] = [Math.min(...values), Math.max(...values)];
+      const [w, h, pad] = [640, 200, 40];
+      const t0 = pts[0]!.atMs;
+      const span = Math.max(1, pts[pts.length - 1]!.atMs - t0);
+      const x = (t: number) => pad + ((t - t0) / span) * (w - 2 * pad);
+      const y = (v: number) => h - pad / 2 - ((v - lo) / (hi - lo)) * (h - pad);
+      const line = (v: number, label: string, dash: string, left = false) =>
+        `<line class="limit" x1="${pad}" x2="${w - pad}" y1="${y(v).toFixed(1)}" y2="${y(v).toFixed(1)}" stroke="#555" stroke-dasharray="${dash}"/><text x="${left ? 2 : w - pad + 4}" y="${(y(v) + 4).toFixed(1)}">${esc(label)}</text>`;
+      const summary = lim
+        ? `mean ${lim.mean.toFixed(2)} %, σ ${lim.sigma.toFixed(2)} %, limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`
+        : 'fewer than two points: no control limits';
+      const outside = lim ? pts.filter((p) => p.deviationPercent < lim.lower || p.deviationPercent > lim.upper).length : 0;
+      return `<figure class="trend" data-series="${esc(name)}"><figcaption>${esc(name)}: ${pts.length} beam(s); ${esc(summary)}${outside ? `; ${outside} outside the limits` : ''}</figcaption>
 <svg role="img" aria-label="${esc(`deviation trend ${name}`)}" width="${w + 80}" height="${h}" viewBox="0 0 ${w + 80} ${h}">
 ${line(0, '0 %', '1 3', true)}${lim ? line(lim.mean, `mean ${lim.mean.toFixed(1)} %`, '6 3') + line(lim.upper, `+3σ ${lim.upper.toFixed(1)} %`, '2 2') + line(lim.lower, `−3σ ${lim.lower.toFixed(1)} %`, '2 2') : ''}
 ${pts.map((p) => `<circle class="point" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.deviationPercent).toFixed(1)}" r="3" fill="#1b1b1b"><title>${esc(`${new Date(p.atMs).toISOString().slice(0, 16)}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`).join('')}
 </svg></figure>`;
-  }).join('');
+    })
+    .join('');
 }
 
 /** One check: its summary, the reviews so far, the review form, and the report itself (as `check --html` writes it). */
@@ -80,7 +102,9 @@ export function checkPage(record: CheckRecord, result: StoredResult, reviews: re
   const list = reviews.length
     ? `<ul id="reviews">${reviews.map((r) => `<li>${esc(r.reviewedAt.replace('T', ' ').slice(0, 16))} — ${esc(r.reviewer)}: <b>${r.accepted ? 'accepted' : 'not accepted'}</b>${r.comment ? ` — ${esc(r.comment)}` : ''}</li>`).join('')}</ul>`
     : '<p id="reviews">No review yet.</p>';
-  return page(`${result.planLabel}: ${result.verdict}`, `<p>Recorded ${esc(record.recordedAt)}; patient ${esc(record.patientId ?? '—')}; machine ${esc(record.machine ?? '—')};
+  return page(
+    `${result.planLabel}: ${result.verdict}`,
+    `<p>Recorded ${esc(record.recordedAt)}; patient ${esc(record.patientId ?? '—')}; machine ${esc(record.machine ?? '—')};
 ${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; beam data ${esc(record.beamDataVersion ?? '—')}; plumbline ${esc(record.toolVersion)}.</p>
 <h2>Reviews</h2>${list}
 <form id="review" method="post" action="/check/${record.id}/review">
@@ -88,7 +112,8 @@ ${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; be
 <label><input type="radio" name="accepted" value="yes" required> accepted</label> <label><input type="radio" name="accepted" value="no"> not accepted</label><br>
 <label>comment <input name="comment" size="60" maxlength="500"></label> <button type="submit">add review</button></form>
 <p>A review is added as a new record; nothing already recorded is ever changed.</p>
-<h2>Report</h2><iframe title="report" src="/check/${record.id}/report"></iframe>`);
+<h2>Report</h2><iframe title="report" src="/check/${record.id}/report"></iframe>`,
+  );
 }
 
 export function notFoundPage(what: string): string {

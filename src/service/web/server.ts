@@ -9,12 +9,16 @@ const DAY_MS = 86_400_000;
 const MAX_FORM_BYTES = 8 * 1024;
 
 const ListQuery = z.object({
-  since: z.string().regex(/^\d{4}-\d{2}-\d{2}$/).optional().catch(undefined),
+  since: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/)
+    .optional()
+    .catch(undefined),
   machine: z.string().min(1).max(64).optional().catch(undefined),
   verdict: Verdict.optional().catch(undefined),
 });
 const ReviewForm = z.object({
-  reviewer: z.string().trim().min(1, 'give the reviewer\'s name').max(64),
+  reviewer: z.string().trim().min(1, "give the reviewer's name").max(64),
   accepted: z.enum(['yes', 'no'], { message: 'say whether the check is accepted' }),
   comment: z.string().max(500).default(''),
 });
@@ -23,7 +27,13 @@ const ReviewForm = z.object({
  * The chart-round page on loopback: read-only over the history, except the review form, which adds
  * a review record. Every value from a request is parsed (zod) before use; pages escape everything.
  */
-export function startWebServer(o: { host: string; port: number; history: HistoryStore; now?: () => number; log: (l: string) => void }): Promise<{ port: number; close: () => Promise<void> }> {
+export function startWebServer(o: {
+  host: string;
+  port: number;
+  history: HistoryStore;
+  now?: () => number;
+  log: (l: string) => void;
+}): Promise<{ port: number; close: () => Promise<void> }> {
   const now = o.now ?? (() => Date.now());
   const server = http.createServer((req, res) => {
     try {
@@ -52,17 +62,28 @@ export function startWebServer(o: { host: string; port: number; history: History
     const since = q.since ?? new Date(now() - 7 * DAY_MS).toISOString().slice(0, 10);
     const all = o.history.listChecks({ since });
     const machines = [...new Set(all.map((c) => c.machine).filter((m): m is string => !!m))].sort();
-    const checks = all.filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict)).map((c) => ({ ...c, reviews: o.history.reviews(c.id).length }));
+    const checks = all
+      .filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict))
+      .map((c) => ({ ...c, reviews: o.history.reviews(c.id).length }));
     const trend: TrendPoint[] = [];
     for (const c of checks) {
       const r = o.history.result(c.id);
       for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? []) {
         if (b.status !== 'checked' || b.calculation?.doseDeviationPercent === undefined) continue;
         const unit = b.radiationType === 'ELECTRON' ? 'MeV' : 'MV';
-        trend.push({ series: `${c.machine ?? '—'} ${b.nominalEnergy ?? '?'} ${unit}`, atMs: Date.parse(c.recordedAt), deviationPercent: b.calculation.doseDeviationPercent });
+        trend.push({
+          series: `${c.machine ?? '—'} ${b.nominalEnergy ?? '?'} ${unit}`,
+          atMs: Date.parse(c.recordedAt),
+          deviationPercent: b.calculation.doseDeviationPercent,
+        });
       }
     }
-    send(res, 200, 'text/html; charset=utf-8', listPage(checks, { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) }, machines, trend));
+    send(
+      res,
+      200,
+      'text/html; charset=utf-8',
+      listPage(checks, { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) }, machines, trend),
+    );
   }
 
   function one(id: number, res: http.ServerResponse): void {
@@ -86,7 +107,13 @@ export function startWebServer(o: { host: string; port: number; history: History
       if (!form.success || !o.history.listChecks().some((c) => c.id === id)) {
         return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
       }
-      o.history.addReview({ checkId: id, reviewer: form.data.reviewer, reviewedAt: new Date(now()).toISOString(), accepted: form.data.accepted === 'yes', comment: form.data.comment });
+      o.history.addReview({
+        checkId: id,
+        reviewer: form.data.reviewer,
+        reviewedAt: new Date(now()).toISOString(),
+        accepted: form.data.accepted === 'yes',
+        comment: form.data.comment,
+      });
       o.log(`review of check ${id} by ${form.data.reviewer}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
       res.writeHead(303, { location: `/check/${id}` });
       res.end();
@@ -98,12 +125,24 @@ export function startWebServer(o: { host: string; port: number; history: History
     server.listen(o.port, o.host, () => {
       const port = (server.address() as net.AddressInfo).port;
       o.log(`chart-round page on http://${o.host}:${port}/`);
-      resolvePromise({ port, close: () => new Promise((done) => { server.closeAllConnections(); server.close(() => done()); }) });
+      resolvePromise({
+        port,
+        close: () =>
+          new Promise((done) => {
+            server.closeAllConnections();
+            server.close(() => done());
+          }),
+      });
     });
   });
 }
 
 function send(res: http.ServerResponse, status: number, type: string, body: string): void {
-  res.writeHead(status, { 'content-type': type, 'cache-control': 'no-store', 'x-content-type-options': 'nosniff', 'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'" });
+  res.writeHead(status, {
+    'content-type': type,
+    'cache-control': 'no-store',
+    'x-content-type-options': 'nosniff',
+    'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'",
+  });
   res.end(body);
 }
