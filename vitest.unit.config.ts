@@ -1,0 +1,22 @@
+import { defineConfig } from 'vitest/config';
+
+/**
+ * The quick loop (`npm run test:unit`): every test that needs neither the reference tools (dcmtk,
+ * dicom3tools, pydicom), nor a browser, nor the built bundle. `npm test` runs everything.
+ */
+export default defineConfig({
+  test: {
+    include: ['tests/**/*.test.ts'],
+    exclude: [
+      'tests/reference/**',
+      'tests/cli/**',
+      'tests/service/crash.test.ts',
+      'tests/service/receiver.test.ts',
+      'tests/service/web.test.ts',
+      'tests/dicom/transfer-syntaxes.test.ts',
+      'tests/dicom/dictionary.test.ts',
+      'tests/geometry/ct-depth.test.ts',
+    ],
+    testTimeout: 60_000,
+  },
+});
