@@ -25,6 +25,7 @@ export const CheckOptionsSchema = z.object({
   json: z.boolean().default(false),
   html: z.string().min(1).optional(),
   suggestPoint: z.boolean().default(false),
+  factors: z.boolean().default(false),
   ct: z.array(z.string().min(1)).optional(),
   dose: z.array(z.string().min(1)).optional(),
   structures: z.string().min(1).optional(),
@@ -81,7 +82,11 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
   const inputError = refused.length > 0 || plans.some((p) => p.issues.length > 0);
   const review = plans.some((p) => p.verdict !== 'within tolerance' || !p.fullyVerified);
   const exitCode = inputError ? 2 : review ? 1 : 0;
-  return { stdout: o.json ? [JSON.stringify(doc, null, 2)] : checkText(doc), stderr: [...stderr, ...refused.map(formatIssue)], exitCode };
+  return {
+    stdout: o.json ? [JSON.stringify(doc, null, 2)] : checkText(doc, { factors: o.factors }),
+    stderr: [...stderr, ...refused.map(formatIssue)],
+    exitCode,
+  };
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

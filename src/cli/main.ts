@@ -51,6 +51,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .option('--heterogeneity <method>', "with --ct: 'tpr-ratio' (default, effective path length) or 'batho' (Batho's power law)")
     .option('--json', 'print one versioned JSON document')
     .option('--html <file>', 'write a self-contained HTML report')
+    .option('--factors', "also print a table of every beam's factors (Sc, Sp, TPR or PDD, inverse square, OAR, wedge, tray, heterogeneity)")
     .option('--ct <path...>', "the patient's CT series (a folder or files): depths and SSD traced through it, heterogeneity corrected")
     .option('--density <csv>', "HU to relative electron density table (CSV), or 'demo' for the invented demo table")
     .option('--body-threshold <HU>', 'HU at or above which a voxel is the body (default from the policy)')

@@ -1,86 +1,26 @@
-import type { BeamCheck, PlanCheck } from '../model/index.js';
-import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
+import type { PlanCheck } from '../model/index.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
+import { beamTable, FACTOR_LEGEND, factorTable } from './beam-tables.js';
 import type { CheckDocument } from './check-json.js';
-import { fixed, pointMm as mm, signed, textTable } from './table.js';
+import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { planningDepthsText } from './planning-depths-text.js';
+import { pointMm as mm, signed, wrap } from './table.js';
 
-const HEADER = [
-  'beam',
-  'name',
-  'energy',
-  'setup',
-  'depth cm',
-  'off-axis cm',
-  'rc cm',
-  'irr cm',
-  'Sc|Se',
-  'Sp',
-  'TPR/PDD',
-  'OAR',
-  'WF',
-  'MU plan',
-  'MU indep',
-  'TPS cGy',
-  'indep cGy',
-  'dev %',
-  'tol/action %',
-  'verdict',
-];
+/** The terminal report's width: tables are built to fit it, prose is wrapped to it. */
+const WIDTH = 120;
 
-function row(b: BeamCheck): string[] {
-  const energy = b.nominalEnergy !== undefined ? `${b.nominalEnergy} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}` : '—';
-  if (b.status !== 'checked')
-    return [
-      String(b.beamNumber),
-      b.beamName ?? '—',
-      energy,
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      '—',
-      fixed(b.plannedMu, 1),
-      '—',
-      fixed(b.planningSystemDoseCGy, 1),
-      '—',
-      '—',
-      '—',
-      'not checked',
-    ];
-  const c = b.calculation;
-  const f = (k: string) => c.factors.find((x) => x.key === k)?.value;
-  return [
-    String(b.beamNumber),
-    b.beamName ?? '—',
-    energy,
-    c.setup,
-    c.depthCm.toFixed(2),
-    c.offAxisCm.toFixed(2),
-    c.collimatorSquareCm.toFixed(2),
-    `${c.irradiatedSquareCm.toFixed(2)}${c.factors.some((x) => x.key === 'SpTPR') ? ' (Clarkson)' : c.approximations.some((a) => a.code === 'clarkson-irregular') ? '*' : ''}`,
-    fixed(f('Sc') ?? f('Se'), 3),
-    fixed(f('Sp'), 3),
-    fixed(f('TPR') ?? f('PDD') ?? f('SpTPR'), 4),
-    fixed(f('OAR'), 3),
-    fixed(f('WF'), 3),
-    fixed(b.plannedMu, 1),
-    fixed(c.independentMu, 1),
-    fixed(b.planningSystemDoseCGy, 1),
-    c.independentDoseCGy.toFixed(1),
-    signed(c.doseDeviationPercent),
-    `${b.tolerancePercent}/${b.actionPercent}`,
-    b.verdict,
-  ];
+export interface CheckTextOptions {
+  /** Also a table of every beam's factors (`--factors`). */
+  readonly factors?: boolean;
+  /** Warnings not to repeat in the plan (said once for the whole run). */
+  readonly saidOnce?: ReadonlySet<string>;
 }
 
+/** Prose lines wrapped to the report's width, continued under their own indentation. */
+const wrapped = (lines: readonly string[]) => lines.flatMap((l) => wrap(l, WIDTH, `${' '.repeat(l.length - l.trimStart().length)}    `));
+
 /** One plan as a physicist reads it: a row per beam, the totals, the point used, the notes. */
-export function planCheckText(p: PlanCheck): string[] {
+export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] {
   const out: string[] = [];
   out.push(
     `RT Plan "${p.planLabel}"${p.planName ? ` (${p.planName})` : ''}, patient ${p.patientId ?? '—'}: ${p.issues.length ? 'REFUSED (input error)' : p.verdict.toUpperCase()}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
@@ -90,7 +30,8 @@ export function planCheckText(p: PlanCheck): string[] {
   );
   for (const g of p.fractionGroups) {
     out.push(`  fraction group ${g.number}${g.fractionsPlanned !== undefined ? `, ${g.fractionsPlanned} fractions` : ''} (doses per fraction)`);
-    out.push(...textTable(HEADER, g.beams.map(row)).map((l) => `    ${l}`));
+    out.push(...beamTable(g).map((l) => `    ${l}`));
+    if (o.factors) out.push(...factorTable(g).map((l) => `    ${l}`));
     for (const t of g.totals) {
       const rx =
         t.prescriptionPerFractionCGy !== undefined
@@ -117,7 +58,8 @@ export function planCheckText(p: PlanCheck): string[] {
       continue;
     }
     notes.push(
-      `${who}: point ${mm(b.point.patientMm)}: ${pointText(b.point)}; ${b.calculation.setup} setup, ${noteText(b.calculation.setupBasis)}; category ${b.category}`,
+      `${who}: point ${mm(b.point.patientMm)}: ${pointText(b.point)}; ${b.calculation.setup} setup, ${noteText(b.calculation.setupBasis)}; ` +
+        `category ${b.category} (tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %)`,
     );
     for (const r of reasonTexts(b)) notes.push(`${who}: ${r}`);
     if (b.doseGridCGy !== undefined)
@@ -133,23 +75,51 @@ export function planCheckText(p: PlanCheck): string[] {
     for (const c of b.suggestedPoint?.clamps ?? []) notes.push(`${who}: at the suggested point, ${clampText(c)}`);
   }
   if (notes.length) out.push('  notes:', ...notes.map((n) => `    - ${n}`));
-  for (const w of p.warnings) out.push(`  warning: ${noteText(w)}`);
+  for (const w of p.warnings.map(noteText)) if (!o.saidOnce?.has(w)) out.push(`  warning: ${w}`);
   for (const i of p.issues) out.push(`  ${formatIssue(i)}`);
+  return wrapped(out);
+}
+
+/** The whole terminal report: each plan, the warnings every plan shares once, the summary naming the plans to look at, the caution. */
+export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors'> = {}): string[] {
+  const b = doc.beamData;
+  const out: string[] = [
+    `plumbline check — beam data ${b.machine}, version ${b.dataVersion}${b.invented ? ' (INVENTED DEMO DATA, never for a patient)' : ''}`,
+    `deviation = ${doc.deviationDefinition}`,
+    "TPS cGy: the planning system's Beam Dose; MU indep: the MU that give it by our dose per MU",
+  ];
+  if (o.factors) out.push(...wrap(FACTOR_LEGEND, WIDTH, '  '));
+  out.push('');
+  const shared = sharedWarnings(doc.plans);
+  for (const p of doc.plans) out.push(...planCheckText(p, { ...o, saidOnce: new Set(shared.keys()) }), '');
+  for (const [w, plans] of shared) out.push(...wrap(`warning for ${plans} plans: ${w}`, WIDTH, '  '));
+  const s = doc.summary;
+  out.push(
+    ...wrap(
+      `summary: ${s.plans} plan(s), ${s.beamsChecked} beam(s) checked, ${s.beamsNotChecked} not checked; ${s.verdicts['within tolerance']} within tolerance, ` +
+        `${s.verdicts['needs review']} need review, ${s.verdicts['beyond action level']} beyond action level; ${s.filesRefused} file(s) refused`,
+      WIDTH,
+      '  ',
+    ),
+  );
+  const attention = doc.plans.filter((p) => p.issues.length || p.verdict !== 'within tolerance' || !p.fullyVerified);
+  if (attention.length) {
+    out.push(
+      'to look at:',
+      ...attention.map(
+        (p) =>
+          `  "${p.planLabel}" (${p.file}): ${p.issues.length ? 'refused (input error)' : p.verdict}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
+      ),
+    );
+  }
+  for (const i of doc.refused) out.push(...wrap(`refused: ${formatIssue(i)}`, WIDTH, '  '));
+  out.push('', ...wrap(doc.caution, WIDTH, ''));
   return out;
 }
 
-/** The whole terminal report: each plan, the batch summary, refused files, the caution. */
-export function checkText(doc: CheckDocument): string[] {
-  const out: string[] = [
-    `plumbline check — beam data ${doc.beamData.machine}, version ${doc.beamData.dataVersion}${doc.beamData.invented ? ' (INVENTED DEMO DATA, never for a patient)' : ''}; deviation = ${doc.deviationDefinition}`,
-    '',
-  ];
-  for (const p of doc.plans) out.push(...planCheckText(p), '');
-  const s = doc.summary;
-  out.push(
-    `summary: ${s.plans} plan(s), ${s.beamsChecked} beam(s) checked, ${s.beamsNotChecked} not checked; ${s.verdicts['within tolerance']} within tolerance, ${s.verdicts['needs review']} need review, ${s.verdicts['beyond action level']} beyond action level; ${s.filesRefused} file(s) refused`,
-  );
-  for (const i of doc.refused) out.push(`refused: ${formatIssue(i)}`);
-  out.push('', doc.caution);
-  return out;
+/** The warnings more than one plan of the run carries, worded, with how many plans carry each. */
+function sharedWarnings(plans: readonly PlanCheck[]): Map<string, number> {
+  const count = new Map<string, number>();
+  for (const p of plans) for (const w of new Set(p.warnings.map(noteText))) count.set(w, (count.get(w) ?? 0) + 1);
+  return new Map([...count].filter(([, n]) => n > 1));
 }

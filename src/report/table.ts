@@ -23,3 +23,22 @@ export function signed(v: number | undefined, decimals = 1): string {
 export function pointMm(p: readonly number[]): string {
   return `(${p.map((v) => v.toFixed(1)).join(', ')}) mm`;
 }
+
+/** Words a number keeps on its line. */
+const UNIT = /^(%|cm|mm|cGy|Gy|MU|MV|MeV)\b/;
+
+/** A line cut at spaces to at most `width` columns, never between a number and its unit; the continuation lines indented by `indent`. */
+export function wrap(line: string, width: number, indent: string): string[] {
+  if (line.length <= width) return [line];
+  const out: string[] = [];
+  let rest = line;
+  while (rest.length > width) {
+    let cut = rest.lastIndexOf(' ', width);
+    while (cut > indent.length && UNIT.test(rest.slice(cut + 1))) cut = rest.lastIndexOf(' ', cut - 1);
+    if (cut <= indent.length) break;
+    out.push(rest.slice(0, cut));
+    rest = indent + rest.slice(cut + 1);
+  }
+  out.push(rest);
+  return out;
+}

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { unwrapped } from '../helpers/text.js';
 import { CheckDocument } from '../../src/report/check-json.js';
 import { runPython } from '../../scripts/lib/find-python.js';
 
@@ -64,14 +65,14 @@ describe('plumbline check', () => {
     const r = plumbline('check', dir, '--beam-data', 'demo');
     expect(r.status).toBe(2);
     expect(r.stdout).toMatch(/RT Plan "SPINE PA".*WITHIN TOLERANCE/);
-    expect(r.stdout).toMatch(/1 file\(s\) refused/);
+    expect(unwrapped(r.stdout)).toMatch(/1 file\(s\) refused/);
     expect(r.stderr).toMatch(/truncated\.dcm: the file .* ends before the data it declares/);
   });
 
   it('a plan whose energy the beam data lack is refused with exit 2, naming what is missing', () => {
     const r = plumbline('check', join(ROOT, 'fixtures/demo/plans/four-field-box.dcm'), '--beam-data', 'demo');
     expect(r.status).toBe(2);
-    expect(r.stdout).toMatch(/no 18 MV photon beam in its beam data; expected 6 MV, 10 MV, 15 MV/);
+    expect(unwrapped(r.stdout)).toMatch(/no 18 MV photon beam in its beam data; expected 6 MV, 10 MV, 15 MV/);
   });
 
   it('refuses bad options', () => {
