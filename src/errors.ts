@@ -1,27 +1,9 @@
 /**
- * The closed set of exceptions. Input problems are normally returned as `Issue` values; these
- * classes exist for the few places where an exception must cross a boundary (the CLI maps them to
- * exit codes in one place).
+ * The one exception of the house. A problem with the user's input (files, beam data, options) is
+ * never thrown: it is an `Issue` value, returned, and the command line turns it into exit code 2.
+ * What is thrown is a state the code should never reach — a bug — and main.ts turns any throw into
+ * exit code 3 ("this is a bug", the stack with --debug).
  */
-import type { Issue } from './model/issue.js';
-
-/** The user's input cannot be used: exit code 2, one line per issue. */
-export class InputError extends Error {
-  constructor(readonly issues: readonly Issue[]) {
-    super(issues.map((i) => i.message).join('; '));
-    this.name = 'InputError';
-  }
-}
-
-/** The commissioning data cannot be used: exit code 2. */
-export class BeamDataError extends Error {
-  constructor(readonly issues: readonly Issue[]) {
-    super(issues.map((i) => i.message).join('; '));
-    this.name = 'BeamDataError';
-  }
-}
-
-/** A bug in plumbline: exit code 3. */
 export class InternalError extends Error {
   constructor(message: string, options?: { cause?: unknown }) {
     super(message, options);

@@ -1,4 +1,4 @@
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 
 /** Where a number was in its file, for messages as file:line:column (1-based). */
 export interface CellPosition {
@@ -28,7 +28,7 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  * separated by commas (or semicolons or tabs, taken from the first row). Decimal commas are not
  * accepted: a cell like `12,5` would be ambiguous.
  */
-export function parseCsvTable(text: string, file: string, shape: 'grid' | 'profile'): { ok: true; value: CsvTable } | { ok: false; issues: Issue[] } {
+export function parseCsvTable(text: string, file: string, shape: 'grid' | 'profile'): Result<CsvTable> {
   const issues: Issue[] = [];
   const at = (line: number, column: number, message: string, expected?: string, found?: string): void => {
     issues.push({

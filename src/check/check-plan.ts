@@ -64,7 +64,7 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
   const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry) => {
       const r = checkEntry(plan, g, entry, { ...o, ct, ctRefused: !!o.ct && !ct });
-      if (r.issue) issues.push({ ...r.issue, file: file.path });
+      for (const i of r.issues ?? []) issues.push({ ...i, file: file.path });
       machine ??= r.machine;
       return r.beam;
     });
@@ -124,17 +124,17 @@ function checkEntry(
   g: FractionGroup,
   entry: ReferencedBeam,
   o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean },
-): { beam: CalculatedBeam | NotCheckedBeam; issue?: Issue; machine?: PlanCheck['machine'] } {
+): { beam: CalculatedBeam | NotCheckedBeam; issues?: readonly Issue[]; machine?: PlanCheck['machine'] } {
   const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
   const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
   const why = unsupportedReason(beam, position, entry.beamMeterset);
   if (why) return { beam: notCheckedBeam(beam, entry, why.code, why.values) };
   const m = matchMachine(beam.machineName, o.machine, o.aliases);
   if (!m.ok) {
-    const issue = { ...m.issue, beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}) };
-    return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: m.issue.message }), issue };
+    const issues = m.issues.map((i) => ({ ...i, beamNumber: beam.number, ...(beam.name ? { beamName: beam.name } : {}) }));
+    return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: m.issues.map((i) => i.message).join('; ') }), issues };
   }
-  const machine = { planName: beam.machineName!, dataName: o.machine.name, via: m.via };
+  const machine = { planName: beam.machineName!, dataName: o.machine.name, via: m.value };
   const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
   if (!point) return { beam: notCheckedBeam(beam, entry, 'no-point'), machine };
   if (o.ctRefused) return { beam: notCheckedBeam(beam, entry, 'ct-not-this-plan'), machine };
@@ -151,6 +151,7 @@ function checkEntry(
     heterogeneity: o.heterogeneity,
     planningSystemDepths: planningSystemDepths(plan, g, entry, beam, point),
   });
-  if (!r.ok) return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: r.issue.message }), issue: r.issue, machine };
+  if (!r.ok)
+    return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: r.issues.map((i) => i.message).join('; ') }), issues: r.issues, machine };
   return { beam: r.value, machine };
 }

@@ -1,23 +1,21 @@
-import type { Issue, MachineModel, Plan } from '../model/index.js';
+import type { MachineModel, Plan, Result } from '../model/index.js';
 
 /**
  * The beam data for a plan's Treatment Machine Name: the machine's name or one of its aliases,
  * after the user's `--machine-alias PLANNAME=DATANAME`. Never another machine's data.
  */
-export function matchMachine(
-  planMachineName: string | undefined,
-  machine: MachineModel,
-  aliases: ReadonlyMap<string, string>,
-): { ok: true; via: string } | { ok: false; issue: Issue } {
+export function matchMachine(planMachineName: string | undefined, machine: MachineModel, aliases: ReadonlyMap<string, string>): Result<string> {
   if (!planMachineName) {
     return {
       ok: false,
-      issue: {
-        severity: 'error',
-        code: 'missing-attribute',
-        message: 'the beam has no Treatment Machine Name, so its beam data cannot be chosen',
-        expected: machine.aliases.join(', '),
-      },
+      issues: [
+        {
+          severity: 'error',
+          code: 'missing-attribute',
+          message: 'the beam has no Treatment Machine Name, so its beam data cannot be chosen',
+          expected: machine.aliases.join(', '),
+        },
+      ],
     };
   }
   const mapped = aliases.get(planMachineName);
@@ -25,18 +23,20 @@ export function matchMachine(
   if (machine.aliases.includes(name)) {
     return {
       ok: true,
-      via: mapped ? `--machine-alias ${planMachineName}=${mapped}` : name === machine.name ? 'same name' : `alias ${name} in the beam data`,
+      value: mapped ? `--machine-alias ${planMachineName}=${mapped}` : name === machine.name ? 'same name' : `alias ${name} in the beam data`,
     };
   }
   return {
     ok: false,
-    issue: {
-      severity: 'error',
-      code: 'missing-table',
-      message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
-      expected: machine.aliases.join(', '),
-      found: name,
-    },
+    issues: [
+      {
+        severity: 'error',
+        code: 'missing-table',
+        message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
+        expected: machine.aliases.join(', '),
+        found: name,
+      },
+    ],
   };
 }
 

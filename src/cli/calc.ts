@@ -78,7 +78,7 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
   const o = parsed.data;
   const loaded = loadBeamData(o.beamData);
   if (!loaded.ok) return refuse(loaded.issues);
-  const warnings = loaded.warnings.map(formatIssue);
+  const warnings = (loaded.warnings ?? []).map(formatIssue);
   const { machine } = loaded.value;
   if (o.applicator !== undefined) {
     const r = electronCalc(machine, { ...o, applicator: o.applicator });

@@ -1,5 +1,4 @@
 import { Command, CommanderError } from 'commander';
-import { BeamDataError, InputError } from '../errors.js';
 import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
@@ -161,10 +160,6 @@ export async function main(argv: readonly string[]): Promise<number> {
     await program.parseAsync(argv as string[], { from: 'user' });
   } catch (e) {
     if (e instanceof CommanderError) return e.exitCode === 0 ? 0 : 2;
-    if (e instanceof InputError || e instanceof BeamDataError) {
-      for (const i of e.issues) process.stderr.write(`${formatIssue(i)}\n`);
-      return 2;
-    }
     process.stderr.write(`internal error (this is a bug in plumbline): ${(e as Error)?.message ?? String(e)}\n`);
     if (debug) process.stderr.write(`${(e as Error)?.stack ?? ''}\n`);
     else process.stderr.write('run again with --debug for the stack trace\n');

@@ -15,6 +15,17 @@ const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()
 export async function runIntake(configFile: string, o: { receive: boolean; watch?: string }): Promise<CommandOutcome> {
   const config = loadServiceConfig(configFile);
   if (!config.ok) return refuse(config.issues.map(formatIssue));
+  if (o.receive && !config.value.receiver) {
+    return refuse([
+      formatIssue({
+        severity: 'error',
+        code: 'missing-attribute',
+        file: configFile,
+        path: 'receiver',
+        message: 'receive needs a receiver section in the configuration (host, port, AE title)',
+      }),
+    ]);
+  }
   const opened = openService(config.value);
   if (!opened.ok) return refuse(opened.issues.map(formatIssue));
   if (opened.value.machines.some((m) => m.machine.invented)) stamp('beam data of an INVENTED demo machine: never for a patient');

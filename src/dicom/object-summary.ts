@@ -1,4 +1,4 @@
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 import { CT_IMAGE_STORAGE } from './ct-series.js';
 import { ItemReader } from './item-reader.js';
 import { parseHead } from './read-head.js';
@@ -28,7 +28,7 @@ export interface ObjectSummary {
 }
 
 /** The summary of a DICOM file, or the issue why it is not one of the objects the check uses. */
-export function readObjectSummary(file: string): { ok: true; value: ObjectSummary } | { ok: false; issues: Issue[] } {
+export function readObjectSummary(file: string): Result<ObjectSummary> {
   const head = parseHead(file);
   if (!head.ok) return head;
   const issues: Issue[] = [];

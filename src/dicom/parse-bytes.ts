@@ -1,6 +1,6 @@
 import zlib from 'node:zlib';
 import dicomParser, { type DataSet } from 'dicom-parser';
-import type { Issue } from '../model/issue.js';
+import type { Issue, Result } from '../model/issue.js';
 import { ATTRIBUTES } from './dictionary.js';
 import { EXPLICIT_VR_LE, IMPLICIT_VR_LE, SUPPORTED_TRANSFER_SYNTAXES } from './transfer-syntax.js';
 
@@ -17,7 +17,7 @@ export interface ParseOptions {
   readonly untilTag?: string;
 }
 
-export type ParseOutcome = { readonly ok: true; readonly value: ParsedDataset } | { readonly ok: false; readonly issues: readonly Issue[] };
+export type ParseOutcome = Result<ParsedDataset>;
 
 const DEFAULT_MAX_INFLATED_BYTES = 256 * 1024 * 1024;
 

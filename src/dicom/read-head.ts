@@ -1,5 +1,5 @@
 import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 import { parseDicomBytes } from './parse-bytes.js';
 
 /** Most headers fit in the first size, nearly all in the second: read those first, the whole file only when not. */
@@ -22,9 +22,7 @@ export function headScratch(): Buffer {
 export function parseHead(
   file: string,
   scratch?: Buffer,
-):
-  | { ok: true; value: { parsed: Extract<ReturnType<typeof parseDicomBytes>, { ok: true }>['value']; size: number } }
-  | { ok: false; issues: Issue[] } {
+): Result<{ parsed: Extract<ReturnType<typeof parseDicomBytes>, { ok: true }>['value']; size: number }> {
   let size: number;
   let parsed: ReturnType<typeof parseDicomBytes> | undefined;
   try {

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import type { DataSet } from 'dicom-parser';
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 import { ItemReader } from './item-reader.js';
 import { parseDicomBytes } from './parse-bytes.js';
 
@@ -13,7 +13,7 @@ export interface DicomObject {
 }
 
 /** Reads a file and checks it is of the expected SOP class; any failure is an issue naming the file. */
-export function readDicomObject(file: string, sopClassUid: string, what: string): { ok: true; value: DicomObject } | { ok: false; issues: Issue[] } {
+export function readDicomObject(file: string, sopClassUid: string, what: string): Result<DicomObject> {
   let bytes: Buffer;
   try {
     bytes = readFileSync(file);

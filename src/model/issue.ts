@@ -52,9 +52,14 @@ export interface Issue {
   readonly message: string;
 }
 
-export type Result<T> =
-  | { readonly ok: true; readonly value: T; readonly warnings: readonly Issue[] }
-  | { readonly ok: false; readonly issues: readonly Issue[] };
+/** A step that can refuse: its value (with any warnings that travel with it), or the issues that refuse it. */
+export type Result<T> = { readonly ok: true; readonly value: T; readonly warnings?: readonly Issue[] } | Refused;
+
+/** The issues that refuse a step's input; never empty. */
+export interface Refused {
+  readonly ok: false;
+  readonly issues: readonly Issue[];
+}
 
 /** One line per issue, for stderr: file, beam, control point, attribute, message, expected vs found. */
 export function formatIssue(issue: Omit<Issue, 'code'> & { readonly code: string }): string {

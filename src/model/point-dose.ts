@@ -1,4 +1,4 @@
-import type { Issue } from './issue.js';
+import type { Issue, Result } from './issue.js';
 import type { LookupNote } from './beam-model.js';
 
 /** A point calculation for one photon beam, everything in cm. */
@@ -85,7 +85,7 @@ export interface PhotonPointResult {
   readonly clamps: readonly LookupNote[];
 }
 
-export type PhotonPointOutcome = { readonly ok: true; readonly value: PhotonPointResult } | { readonly ok: false; readonly issues: readonly Issue[] };
+export type PhotonPointOutcome = Result<PhotonPointResult>;
 
 /** A point calculation for one electron beam (AAPM TG-71), everything in cm. */
 export interface ElectronPointInput {

@@ -1,7 +1,7 @@
 import type { LoadedMachine } from '../beamdata/index.js';
 import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/index.js';
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
-import { type DoseGrid, type Issue, note, type Note, type PlanCheck } from '../model/index.js';
+import { type DoseGrid, type Issue, type Result, note, type Note, type PlanCheck } from '../model/index.js';
 import { loadPatientCts } from './patient-cts.js';
 
 /** The objects that arrived with a plan in its frame of reference: CT slices, a structure set, RT Doses. */
@@ -52,7 +52,7 @@ export function checkArrivedPlan(
   machines: readonly [LoadedMachine, ...LoadedMachine[]],
   policy: Policy,
   companions: LoadedCompanions,
-): { ok: true; value: { result: PlanCheck; machine: LoadedMachine } } | { ok: false; issues: readonly Issue[] } {
+): Result<{ result: PlanCheck; machine: LoadedMachine }> {
   const imported = importPlanBytes(bytes, file);
   if (!imported.ok) return imported;
   const plan = imported.value.plan;

@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
+import { InternalError } from '../errors.js';
 import type { Issue, PlanCheck } from '../model/index.js';
 import type { CheckInputs, CheckRequest } from './check-inputs.js';
 import { checkFile, type FileOutcome } from './check-file.js';
@@ -83,7 +84,7 @@ function workerUrl(): URL {
     const u = new URL(rel, import.meta.url);
     if (existsSync(fileURLToPath(u))) return u;
   }
-  throw new Error('the check worker module is missing from the installation');
+  throw new InternalError('the check worker module is missing from the installation');
 }
 
 /** Runs one worker over its share; each file's result arrives as soon as it is checked (k: its place in the share). */

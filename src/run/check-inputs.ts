@@ -2,7 +2,7 @@ import type { LoadedMachine } from '../beamdata/index.js';
 import type { PatientCt, Policy } from '../check/index.js';
 import type { HeterogeneityMethod } from '../physics/index.js';
 import { readRtDose } from '../dicom/index.js';
-import type { DoseGrid, Issue } from '../model/index.js';
+import type { DoseGrid, Issue, Result } from '../model/index.js';
 import { loadBeamData } from './beam-data.js';
 import { loadPatientCts } from './patient-cts.js';
 import { loadPolicy } from './policy-file.js';
@@ -36,7 +36,7 @@ export interface CheckInputs {
 }
 
 /** Reads a run's inputs; the first that cannot be used refuses the run with its issues. */
-export function loadCheckInputs(o: CheckRequest): { ok: true; value: CheckInputs } | { ok: false; issues: readonly Issue[] } {
+export function loadCheckInputs(o: CheckRequest): Result<CheckInputs> {
   const loaded = loadBeamData(o.beamData);
   if (!loaded.ok) return loaded;
   const policy = loadPolicy(o.policy);
@@ -50,5 +50,8 @@ export function loadCheckInputs(o: CheckRequest): { ok: true; value: CheckInputs
     doseGrids.push(g.value);
   }
   const aliases = new Map(o.machineAlias.map((a) => a.split('=') as [string, string]));
-  return { ok: true, value: { machine: loaded.value, warnings: loaded.warnings, policy: policy.value, aliases, cts: ct?.value ?? [], doseGrids } };
+  return {
+    ok: true,
+    value: { machine: loaded.value, warnings: loaded.warnings ?? [], policy: policy.value, aliases, cts: ct?.value ?? [], doseGrids },
+  };
 }

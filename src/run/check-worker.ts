@@ -4,6 +4,7 @@
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadMachine } from '../beamdata/index.js';
+import { InternalError } from '../errors.js';
 import type { HeterogeneityMethod } from '../physics/index.js';
 import { checkFile, type FileOutcome } from './check-file.js';
 import type { CollectedFile } from './collect-files.js';
@@ -25,7 +26,8 @@ export type WorkerMessage = { readonly done?: undefined; readonly k: number; rea
 const job = workerData as WorkerJob;
 const machine = loadMachine(job.manifest);
 const policy = loadPolicy(job.policyFile);
-if (!machine.ok || !policy.ok) throw new Error('the beam data or policy could not be loaded in a worker');
+// The main thread loaded the same files a moment ago: failing here is not an input problem.
+if (!machine.ok || !policy.ok) throw new InternalError('the beam data or policy could not be loaded in a worker');
 const aliases = new Map(job.aliases);
 // Sent one by one, so the main thread takes in results while this one checks the next files.
 job.files.forEach((f, k) => {

@@ -1,10 +1,9 @@
 import { findElectronBeam, findPhotonBeam } from '../beamdata/index.js';
-import type { ElectronPointInput, Issue, MachineModel, PhotonPointInput } from '../model/index.js';
+import type { ElectronPointInput, Issue, MachineModel, PhotonPointInput, Refused, Result } from '../model/index.js';
 import { electronDosePerMu, electronIsodoseDepthCm, muForDose, photonDosePerMu } from '../physics/index.js';
 import type { CalcReport } from '../report/calc-report.js';
 import type { ElectronCalcReport } from '../report/electron-calc-report.js';
 
-type Refused = { ok: false; issues: readonly Issue[] };
 const refuse = (issues: readonly Issue[]): Refused => ({ ok: false, issues });
 
 /** A manual photon calculation, as `calc` is asked for it (lengths in cm; exactly one of MU and dose). */
@@ -25,10 +24,10 @@ export interface PhotonCalcRequest {
 }
 
 /** The photon point dose with every factor, for the planned MU or the MU for a dose. */
-export function photonCalc(machine: MachineModel, o: PhotonCalcRequest): { ok: true; value: CalcReport } | Refused {
+export function photonCalc(machine: MachineModel, o: PhotonCalcRequest): Result<CalcReport> {
   const found = findPhotonBeam(machine, o.energy, o.fff);
-  if (!found.ok) return refuse([found.issue]);
-  const beam = found.beam;
+  if (!found.ok) return found;
+  const beam = found.value;
   let trayId: string | undefined;
   if (o.tray === true) {
     if (beam.trays.length !== 1) {
@@ -86,10 +85,10 @@ export interface ElectronCalcRequest {
 }
 
 /** The electron point dose with every factor; the SSD defaults to the nominal. */
-export function electronCalc(machine: MachineModel, o: ElectronCalcRequest): { ok: true; value: ElectronCalcReport } | Refused {
+export function electronCalc(machine: MachineModel, o: ElectronCalcRequest): Result<ElectronCalcReport> {
   const found = findElectronBeam(machine, o.energy);
-  if (!found.ok) return refuse([found.issue]);
-  const beam = found.beam;
+  if (!found.ok) return found;
+  const beam = found.value;
   const app = beam.applicators.find((a) => a.id === o.applicator);
   if (!app)
     return refuse([

@@ -2,7 +2,7 @@ import { loadDensityTable } from '../beamdata/index.js';
 import type { PatientCt } from '../check/patient-ct.js';
 import { readCtVolumes, readRtStruct } from '../dicom/index.js';
 import { bodySurface } from '../geometry/index.js';
-import type { Issue, Structure } from '../model/index.js';
+import type { Issue, Result, Structure } from '../model/index.js';
 import { collectFiles } from './collect-files.js';
 import { resolveDemoFile } from './demo-files.js';
 
@@ -15,7 +15,7 @@ export function loadPatientCts(
   density: string | undefined,
   bodyThresholdHu: number,
   structuresFile?: string,
-): { ok: true; value: PatientCt[] } | { ok: false; issues: readonly Issue[] } {
+): Result<PatientCt[]> {
   if (!density) {
     return {
       ok: false,

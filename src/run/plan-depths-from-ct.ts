@@ -1,6 +1,6 @@
 import { planDepths } from '../check/index.js';
 import { importPlanFile } from '../dicom/index.js';
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { DepthDocument } from '../report/depth-report.js';
 import { loadPatientCts } from './patient-cts.js';
@@ -15,7 +15,7 @@ export interface DepthRequest {
 }
 
 /** Per beam of a plan: the SSD from the plan and from its CT, geometric and radiological depth, as a versioned document. */
-export function planDepthsFromCt(planFile: string, o: DepthRequest): { ok: true; value: DepthDocument } | { ok: false; issues: readonly Issue[] } {
+export function planDepthsFromCt(planFile: string, o: DepthRequest): Result<DepthDocument> {
   const imported = importPlanFile(planFile);
   if (!imported.ok) return imported;
   const plan = imported.value.plan;

@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { DEFAULT_POLICY, Policy } from '../check/index.js';
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 
 /** The clinic's policy file, or the shipped defaults. */
-export function loadPolicy(file: string | undefined): { ok: true; value: Policy } | { ok: false; issues: Issue[] } {
+export function loadPolicy(file: string | undefined): Result<Policy> {
   if (!file) return { ok: true, value: DEFAULT_POLICY };
   let json: unknown;
   try {

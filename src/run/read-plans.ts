@@ -20,7 +20,7 @@ export function readPlans(paths: readonly string[]): ReadPlans {
   let notDicom = 0;
   for (const f of collectFiles(paths)) {
     const r = importPlanFile(f.path);
-    if (r.ok) plans.push({ imported: r.value, warnings: r.warnings });
+    if (r.ok) plans.push({ imported: r.value, warnings: r.warnings ?? [] });
     else if (!f.explicit && r.issues.every((i) => i.code === 'not-dicom')) notDicom++;
     else if (!f.explicit && r.issues.every((i) => SKIPPABLE_IN_FOLDER.has(i.code))) notes.push(`skipped ${f.path}: ${r.issues[0]!.message}`);
     else problems.push(...r.issues);

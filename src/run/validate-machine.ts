@@ -18,7 +18,7 @@ export function validateMachine(manifestArg: string): MachineValidation {
   const lm = loaded.value;
   return {
     file,
-    issues: [...loaded.warnings, ...validateBeamData(lm)],
+    issues: [...(loaded.warnings ?? []), ...validateBeamData(lm)],
     loaded: { photonBeams: lm.machine.beams.length, electronBeams: lm.machine.electronBeams.length, tables: lm.tables.length },
   };
 }

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
-import type { Issue } from '../model/index.js';
+import type { Issue, Result } from '../model/index.js';
 
 const AeTitle = z
   .string()
@@ -65,7 +65,7 @@ export const ServiceConfig = z
 export type ServiceConfig = z.infer<typeof ServiceConfig>;
 
 /** Reads and validates the configuration; relative paths become absolute from the file's folder. */
-export function loadServiceConfig(file: string): { ok: true; value: ServiceConfig } | { ok: false; issues: Issue[] } {
+export function loadServiceConfig(file: string): Result<ServiceConfig> {
   let json: unknown;
   try {
     json = JSON.parse(readFileSync(file, 'utf8'));

@@ -4,6 +4,7 @@ import net from 'node:net';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
 import dimse from 'dcmjs-dimse';
+import { InternalError } from '../errors.js';
 import { STORAGE_CLASSES, VERSION } from '../run/index.js';
 
 const { Scp, Dataset, constants, responses, log } = dimse;
@@ -148,7 +149,7 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
       const r = CStoreResponse.fromRequest(request);
       const info = (request.getDataset() as unknown as { plumbline?: { tmp: string; bytes: () => number; finish: () => void } }).plumbline;
       try {
-        if (!info) throw new Error('no dataset');
+        if (!info) throw new InternalError('a stored object reached the receiver without its dataset');
         info.finish();
         if (info.bytes() > o.maxObjectBytes) {
           rmSync(info.tmp, { force: true });

@@ -1,4 +1,5 @@
-import type { Issue } from '../model/index.js';
+import { InternalError } from '../errors.js';
+import type { Issue, Result } from '../model/index.js';
 import { type LoadedMachine, loadBeamData, loadPolicy } from '../run/index.js';
 import type { ServiceConfig } from './config.js';
 import { HistoryStore } from './history/store.js';
@@ -18,7 +19,7 @@ const STABLE_MS = 2000;
 const TICK_MS = 1000;
 
 /** The service's pieces from its configuration: beam data of every machine, the policy, the history. */
-export function openService(config: ServiceConfig): { ok: true; value: Omit<PipelineContext, 'log' | 'now'> } | { ok: false; issues: Issue[] } {
+export function openService(config: ServiceConfig): Result<Omit<PipelineContext, 'log' | 'now'>> {
   const machines: LoadedMachine[] = [];
   for (const m of config.beamData) {
     const loaded = loadBeamData(m);
@@ -60,7 +61,8 @@ export async function runService(
     }
   };
   const rc = base.config.receiver;
-  if (o.receive && !rc) throw new Error('the configuration has no receiver section');
+  // runIntake refuses a `receive` without a receiver section before starting: reaching here is a bug.
+  if (o.receive && !rc) throw new InternalError('the configuration has no receiver section');
   const receiver =
     o.receive && rc
       ? await startReceiver({

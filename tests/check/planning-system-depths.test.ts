@@ -14,6 +14,7 @@ import { coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/pla
 import { beams, check, importOrThrow, planFromSpec } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
 import { planCheckText } from '../../src/report/check-text.js';
+import { unwrapped } from '../helpers/text.js';
 
 const plan = importOrThrow(fileURLToPath(new URL('../../fixtures/demo/plans/four-field-box.dcm', import.meta.url)));
 const iso = plan.beams[0]!.controlPoints[0]!.isocenterPatientMm!;
@@ -88,7 +89,7 @@ describe("the planning system's depths", () => {
     expect(t.depthDifferenceMm).toBeCloseTo(2, 6);
     expect(t.ssdDifferenceMm).toBeCloseTo(-3, 6);
     // The terminal report says so in the beam's notes.
-    expect(planCheckText(check(p, machine(DEMO_MANIFEST))).join('\n')).toMatch(
+    expect(unwrapped(planCheckText(check(p, machine(DEMO_MANIFEST))).join('\n'))).toMatch(
       /beam 1 AP: the planning system's own depth 98\.0 mm \(ours \+2\.0 mm\), equivalent depth 99\.0 mm, SSD 903\.0 mm \(ours -3\.0 mm\)/,
     );
     const moved = beams(check(p, machine(DEMO_MANIFEST), { point: [30, 0, 0] }))[0]!;

@@ -122,7 +122,9 @@ describe('plumbline check --ct', () => {
   it('refuses one plan with one CT of another frame of reference, naming both', () => {
     const r = run('check', 'fixtures/demo/clinic/brain-laterals.dcm', '--beam-data', 'demo', ...CT);
     expect(r.status).toBe(2);
-    expect(unwrapped(r.stdout)).toMatch(/the CT and the plan are in different frames of reference.*expected the plan's 2\.25\.\d+, found the CT's 2\.25\.\d+/);
+    expect(unwrapped(r.stdout)).toMatch(
+      /the CT and the plan are in different frames of reference.*expected the plan's 2\.25\.\d+, found the CT's 2\.25\.\d+/,
+    );
   });
 
   it('in a batch, plans without their own CT are checked without it and say so', () => {

@@ -17,11 +17,18 @@ const CLINIC = fileURLToPath(new URL('../../fixtures/demo/clinic/', import.meta.
 const loaded = loadBeamData('demo');
 if (!loaded.ok) throw new Error('demo machine');
 const machine = loaded.value;
-const plans = readdirSync(CLINIC).filter((f) => f.endsWith('.dcm')).sort().map((f) => {
-  const p = checkPlan(importOrThrow(join(CLINIC, f)), { path: f, sha256: '0'.repeat(64) }, { machine: machine.machine, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false });
-  // As `check --ct` says of a plan whose CT was not among those given.
-  return f === 'pelvis-box.dcm' ? p : { ...p, warnings: [...p.warnings, note('no-ct-in-frame')] };
-});
+const plans = readdirSync(CLINIC)
+  .filter((f) => f.endsWith('.dcm'))
+  .sort()
+  .map((f) => {
+    const p = checkPlan(
+      importOrThrow(join(CLINIC, f)),
+      { path: f, sha256: '0'.repeat(64) },
+      { machine: machine.machine, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false },
+    );
+    // As `check --ct` says of a plan whose CT was not among those given.
+    return f === 'pelvis-box.dcm' ? p : { ...p, warnings: [...p.warnings, note('no-ct-in-frame')] };
+  });
 const doc = checkDocument(plans, [], beamDataStamp(machine), DEFAULT_POLICY, new Date(0));
 
 describe('the terminal report', () => {

@@ -13,6 +13,7 @@ import {
   type PatientPosition,
   type PlanningSystemDepths,
   type ReferencedBeam,
+  type Result,
 } from '../../model/index.js';
 import type { PatientCt } from '../patient-ct.js';
 import type { Policy } from '../policy.js';
@@ -38,7 +39,7 @@ export interface BeamCheckContext {
  * One beam's result before its verdict, or an input issue (beam data lacking the beam's energy,
  * wedge, tray or applicator) that refuses the plan.
  */
-export type BeamOutcome = { readonly ok: true; readonly value: CalculatedBeam | NotCheckedBeam } | { readonly ok: false; readonly issue: Issue };
+export type BeamOutcome = Result<CalculatedBeam | NotCheckedBeam>;
 
 /** A step that ends the beam's check early carries the outcome; any other return value lets the check go on. */
 export interface Stopped {
@@ -76,6 +77,8 @@ export function stopNotChecked(ctx: BeamCheckContext, reason: NoteCode, values: 
 }
 
 /** Ends a beam's check with an input issue that refuses the plan; the issue names the beam. */
-export function stopRefused(ctx: BeamCheckContext, issue: Issue): Stopped {
-  return { stopped: { ok: false, issue: { ...issue, beamNumber: ctx.beam.number, ...(ctx.beam.name ? { beamName: ctx.beam.name } : {}) } } };
+export function stopRefused(ctx: BeamCheckContext, issues: readonly Issue[]): Stopped {
+  return {
+    stopped: { ok: false, issues: issues.map((i) => ({ ...i, beamNumber: ctx.beam.number, ...(ctx.beam.name ? { beamName: ctx.beam.name } : {}) })) },
+  };
 }

@@ -27,13 +27,15 @@ export function electronField(ctx: BeamCheckContext, data: ElectronBeamModel, sa
   if (applicatorId === undefined) return stopNotChecked(ctx, 'electron-no-applicator');
   const applicator = data.applicators.find((a) => a.id === applicatorId);
   if (!applicator) {
-    return stopRefused(ctx, {
-      severity: 'error',
-      code: 'missing-table',
-      message: `the beam data of ${machine.name} ${data.id} have no applicator "${applicatorId}"`,
-      expected: data.applicators.map((a) => a.id).join(', '),
-      found: applicatorId,
-    });
+    return stopRefused(ctx, [
+      {
+        severity: 'error',
+        code: 'missing-table',
+        message: `the beam data of ${machine.name} ${data.id} have no applicator "${applicatorId}"`,
+        expected: data.applicators.map((a) => a.id).join(', '),
+        found: applicatorId,
+      },
+    ]);
   }
   const cutouts = beam.blocks.filter((b) => b.type === 'APERTURE');
   if (beam.blocks.length > cutouts.length || cutouts.length > 1) return stopNotChecked(ctx, 'electron-blocks');

@@ -22,8 +22,8 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
   const { beam, machine, policy } = ctx;
   const cp0 = beam.controlPoints[0]!;
   const found = findElectronBeam(machine, cp0.nominalEnergyMeV!);
-  if (!found.ok) return stopRefused(ctx, found.issue).stopped;
-  const data = found.beam;
+  if (!found.ok) return stopRefused(ctx, found.issues).stopped;
+  const data = found.value;
   const sadMm = beam.sourceAxisDistanceMm ?? machine.sadCm * MM_PER_CM;
   const ef = electronField(ctx, data, sadMm);
   if (isStopped(ef)) return ef.stopped;

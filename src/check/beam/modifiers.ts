@@ -22,13 +22,15 @@ export function beamModifiers(ctx: BeamCheckContext, data: PhotonBeamModel): Mod
   const cp0 = beam.controlPoints[0]!;
   const wedgeIn = beam.wedges.find((w) => cp0.wedgePositions.some((p) => p.wedgeNumber === w.number && p.position === 'IN'));
   const missing = (what: string, expected: string, found: string) =>
-    stopRefused(ctx, {
-      severity: 'error',
-      code: 'missing-table',
-      message: `the beam data of ${machine.name} ${data.id} have no ${what}`,
-      expected,
-      found,
-    });
+    stopRefused(ctx, [
+      {
+        severity: 'error',
+        code: 'missing-table',
+        message: `the beam data of ${machine.name} ${data.id} have no ${what}`,
+        expected,
+        found,
+      },
+    ]);
   let swept: Modifiers['swept'];
   let physical: Modifiers['physical'];
   if (wedgeIn?.type === 'DYNAMIC') {

@@ -92,7 +92,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
 /** The beam data of the beam's energy, or the input issue that refuses the plan. */
 export function photonBeamData(ctx: BeamCheckContext): PhotonBeamModel | Stopped {
   const found = findPhotonBeam(ctx.machine, ctx.beam.controlPoints[0]!.nominalEnergyMeV!);
-  return found.ok ? found.beam : stopRefused(ctx, found.issue);
+  return found.ok ? found.value : stopRefused(ctx, found.issues);
 }
 
 /** The heterogeneity correction at a traced point by the chosen method, or why it cannot be made. */
