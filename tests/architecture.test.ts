@@ -15,7 +15,7 @@ const NODE = ['node:fs', 'node:path', 'node:url', 'node:os', 'node:crypto', 'nod
 
 const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   model: ['model', 'zod'],
-  dicom: ['model', 'dicom', 'dicom-parser', 'node:zlib', 'node:fs', 'node:worker_threads'], // a second thread reads CT pixels
+  dicom: ['model', 'dicom', 'dicom-parser', 'node:zlib', 'node:fs', 'node:url', 'node:worker_threads'], // a second thread reads CT pixels
   geometry: ['model', 'geometry'],
   beamdata: ['model', 'beamdata', 'zod', 'node:fs', 'node:path'],
   physics: ['model', 'physics'],

@@ -3,9 +3,10 @@
  * a fresh 100 MiB CT volume is bound by the kernel's page faults, not by the copy, and two threads
  * fault in parallel. The helper thread is started before the headers are parsed so its start-up
  * overlaps that work; it and this thread take ranges from one shared counter, so if it is slow to
- * start (or never starts) this thread simply reads everything itself.
+ * start (or never starts) this thread simply reads everything itself. The helper is read-helper.mjs.
  */
-import { closeSync, openSync, readSync } from 'node:fs';
+import { closeSync, existsSync, openSync, readSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 
 /** One range: `length` bytes of `file` from byte `position`, to byte `at` of the target. */
@@ -26,33 +27,14 @@ const FAILED = 3;
  */
 const HELPER_WAIT_MS = 60_000;
 
-// Plain CommonJS run by `eval`, so it needs no module file beside the bundle.
-const HELPER = `
-const { parentPort } = require('node:worker_threads');
-const { openSync, readSync, closeSync } = require('node:fs');
-parentPort.on('message', ({ target, state, ranges }) => {
-  const bytes = new Uint8Array(target);
-  const s = new Int32Array(state);
-  for (;;) {
-    const k = Atomics.add(s, 0, 1);
-    if (k >= ranges.length) break;
-    Atomics.store(s, 1 + k, ${TAKEN});
-    const [file, position, at, length] = ranges[k];
-    let ok = true;
-    try {
-      const fd = openSync(file, 'r');
-      try {
-        for (let done = 0; done < length;) {
-          const got = readSync(fd, bytes, at + done, length - done, position + done);
-          if (got === 0) { ok = false; break; }
-          done += got;
-        }
-      } finally { closeSync(fd); }
-    } catch { ok = false; }
-    Atomics.store(s, 1 + k, ok ? ${DONE} : ${FAILED});
-    Atomics.notify(s, 1 + k);
+/** The helper's module (plain JavaScript): beside this file under src/, beside the bundle once built. */
+function helperUrl(): URL | undefined {
+  for (const rel of ['./read-helper.mjs', '../read-helper.mjs']) {
+    const u = new URL(rel, import.meta.url);
+    if (existsSync(fileURLToPath(u))) return u;
   }
-});`;
+  return undefined;
+}
 
 /** A helper thread waiting for ranges to read. */
 export interface ReadHelper {
@@ -62,7 +44,9 @@ export interface ReadHelper {
 /** A helper thread, or `undefined` where threads are unavailable; end it with `stopReadHelper`. */
 export function startReadHelper(): ReadHelper | undefined {
   try {
-    const worker = new Worker(HELPER, { eval: true });
+    const url = helperUrl();
+    if (!url) return undefined; // this thread reads everything itself
+    const worker = new Worker(url);
     worker.unref();
     worker.on('error', () => undefined); // a helper that fails leaves its ranges to this thread
     return { worker };
@@ -96,6 +80,7 @@ export function readRanges(
     target: target.buffer,
     state: state.buffer,
     ranges: ranges.map((r) => [r.file, r.position, target.byteOffset + r.at, r.length]),
+    marks: { taken: TAKEN, done: DONE, failed: FAILED },
   });
   const mine: number[] = [];
   for (;;) {
