@@ -1,5 +1,4 @@
 import { Command, CommanderError } from 'commander';
-import { formatIssue } from '../model/index.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
 import { runCheck } from './check.js';

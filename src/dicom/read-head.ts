@@ -1,5 +1,5 @@
 import { closeSync, fstatSync, openSync, readFileSync, readSync } from 'node:fs';
-import type { Issue, Result } from '../model/index.js';
+import type { Result } from '../model/index.js';
 import { parseDicomBytes } from './parse-bytes.js';
 
 /** Most headers fit in the first size, nearly all in the second: read those first, the whole file only when not. */

@@ -1,7 +1,7 @@
 import type { LoadedMachine } from '../beamdata/index.js';
 import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/index.js';
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
-import { type DoseGrid, type Issue, type Result, note, type Note, type PlanCheck } from '../model/index.js';
+import { type DoseGrid, type Result, note, type Note, type PlanCheck } from '../model/index.js';
 import { loadPatientCts } from './patient-cts.js';
 
 /** The objects that arrived with a plan in its frame of reference: CT slices, a structure set, RT Doses. */

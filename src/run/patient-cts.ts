@@ -2,7 +2,7 @@ import { loadDensityTable } from '../beamdata/index.js';
 import type { PatientCt } from '../check/patient-ct.js';
 import { readCtVolumes, readRtStruct } from '../dicom/index.js';
 import { bodySurface } from '../geometry/index.js';
-import type { Issue, Result, Structure } from '../model/index.js';
+import type { Result, Structure } from '../model/index.js';
 import { collectFiles } from './collect-files.js';
 import { resolveDemoFile } from './demo-files.js';
 

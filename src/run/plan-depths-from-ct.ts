@@ -1,6 +1,6 @@
 import { planDepths } from '../check/index.js';
 import { importPlanFile } from '../dicom/index.js';
-import type { Issue, Result } from '../model/index.js';
+import type { Result } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { DepthDocument } from '../report/depth-report.js';
 import { loadPatientCts } from './patient-cts.js';

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { DEFAULT_POLICY, Policy } from '../check/index.js';
-import type { Issue, Result } from '../model/index.js';
+import type { Result } from '../model/index.js';
 
 /** The clinic's policy file, or the shipped defaults. */
 export function loadPolicy(file: string | undefined): Result<Policy> {

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
-import type { Issue, Result } from '../model/index.js';
+import type { Result } from '../model/index.js';
 
 const AeTitle = z
   .string()

@@ -1,5 +1,5 @@
 import { InternalError } from '../errors.js';
-import type { Issue, Result } from '../model/index.js';
+import type { Result } from '../model/index.js';
 import { type LoadedMachine, loadBeamData, loadPolicy } from '../run/index.js';
 import type { ServiceConfig } from './config.js';
 import { HistoryStore } from './history/store.js';
