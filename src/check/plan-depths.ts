@@ -1,5 +1,5 @@
-import { beamFrame, ctDepth } from '../geometry/index.js';
-import type { BeamDepth, Plan } from '../model/index.js';
+import { beamFrame, ctDepth, SUPPORTED_POSITIONS } from '../geometry/index.js';
+import { type BeamDepth, note, type Plan } from '../model/index.js';
 import { choosePoint } from './choose-point.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
@@ -33,7 +33,11 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
           rows.push({
             ...base,
             point: { source: 'isocenter', patientMm: [0, 0, 0] },
-            problem: !point ? 'no calculation point' : `patient position ${position ?? 'not given'} not supported`,
+            problem: !point
+              ? note('no-point')
+              : position
+                ? note('patient-position', { position, supported: SUPPORTED_POSITIONS.join(', ') })
+                : note('no-patient-position'),
           });
           continue;
         }
@@ -56,7 +60,7 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
                 densityRange: [...d.value.densityRange] as [number, number],
                 ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}),
               }
-            : { problem: d.message }),
+            : { problem: note('ct-trace', { message: d.message }) }),
         });
       }
     }

@@ -1,3 +1,4 @@
+import type { Note } from './check-note.js';
 import type { CalculationPoint } from './check-result.js';
 
 /** One beam's geometry through the patient's CT, as `plumbline depth` reports it (mm). */
@@ -19,7 +20,7 @@ export interface BeamDepth {
   /** The planning system's own depth data for the beam, where the plan carries them. */
   readonly planningSystem?: PlanningSystemDepths;
   /** Why the beam has no depths. */
-  readonly problem?: string;
+  readonly problem?: Note;
 }
 
 export interface PlanningSystemDepths {

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { CalculationPoint } from '../model/index.js';
+import { CalculationPoint, Note } from '../model/index.js';
 import { CAUTION } from './caution.js';
-import { pointText } from './note-text.js';
+import { noteText, pointText } from './note-text.js';
 import { fixed, textTable } from './table.js';
 
 export const DepthRow = z.object({
@@ -19,7 +19,7 @@ export const DepthRow = z.object({
   densityRange: z.tuple([z.number(), z.number()]).optional(),
   nearestInterfaceMm: z.number().optional(),
   planningSystem: z.object({ depthMm: z.number().optional(), equivalentDepthMm: z.number().optional(), ssdMm: z.number().optional() }).optional(),
-  problem: z.string().optional(),
+  problem: Note.optional(),
 });
 export type DepthRow = z.infer<typeof DepthRow>;
 
@@ -59,7 +59,7 @@ export function depthText(doc: DepthDocument): string[] {
     f1(b.planningSystem?.depthMm),
     f1(b.planningSystem?.equivalentDepthMm),
     f1(b.planningSystem?.ssdMm),
-    b.problem ?? '',
+    b.problem ? noteText(b.problem) : '',
   ]);
   return [
     `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ${doc.ct.densityTable}`,
