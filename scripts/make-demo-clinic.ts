@@ -1,6 +1,6 @@
 /**
  * Writes the demo clinic's plans (fixtures/demo/clinic/), the ones `npm run demo` checks. INVENTED:
- * a fictional clinic (Northgate Cancer Centre), fictional patients, and "planning system" MU made up
+ * a fictional clinic (Nowhere General), fictional patients, and "planning system" MU made up
  * so each beam's planned MU give the stated Beam Dose within a small invented difference from the
  * demo machine's own dose per MU, as a planning system with another algorithm would. One plan has
  * an MU mis-typed by 10 % so the check flags it; one is an electron field with a cutout, one a two-arc VMAT plan.

@@ -406,7 +406,7 @@ const manifest = {
     invented: true,
     wedgeHeel: { atOrientation0: '-Y', atOrientation90: '+X' },
     description:
-      'INVENTED demo machine of the Northgate Cancer Centre scenario; tables generated from a simple physical model by scripts/make-demo-machine.ts. Never use for a patient.',
+      'INVENTED demo machine of the Nowhere General demo scenario; tables generated from a simple physical model by scripts/make-demo-machine.ts. Never use for a patient.',
   },
   beams: beams.map(({ fitted: _fitted, ...b }) => b),
   electronBeams,
