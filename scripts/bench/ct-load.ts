@@ -16,7 +16,7 @@ const trace = (gantries: readonly number[]) => {
   for (const g of gantries) {
     const a = (g * Math.PI) / 180;
     const d = ctDepth(r.value, [1000 * Math.sin(a), -1000 * Math.cos(a), 0], [0, 0, 0], { bodyThresholdHu: -400, density });
-    if (!d.ok) throw new Error(d.message);
+    if (!d.ok) throw new Error(d.refusal.reason);
   }
   return performance.now() - t;
 };

@@ -60,7 +60,7 @@ export function planDepths(plan: Plan, ct: PatientCt): BeamDepth[] {
                 densityRange: [...d.value.densityRange] as [number, number],
                 ...(d.value.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: d.value.nearestInterfaceMm } : {}),
               }
-            : { problem: note('ct-trace', { message: d.message }) }),
+            : { problem: note('ct-trace', { ...d.refusal }) }),
         });
       }
     }

@@ -29,7 +29,21 @@ export interface CtDepth {
   readonly layers: readonly { readonly distanceToPointMm: number; readonly density: number }[];
 }
 
-export type CtDepthOutcome = { readonly ok: true; readonly value: CtDepth } | { readonly ok: false; readonly message: string };
+/**
+ * Why the CT cannot give a ray's depth, as data (the report words it): the ray misses the drawn body;
+ * an HU outside the density table; no body voxel on the ray; the point beyond the CT (`gapMm` short);
+ * the field of view cutting the body at the first voxel (by the threshold); the drawn body starting
+ * before the CT does (`gapMm` of it outside).
+ */
+export type CtRefusal =
+  | { readonly reason: 'misses-external' }
+  | { readonly reason: 'hu-outside-table'; readonly hu: number }
+  | { readonly reason: 'no-body-voxel' }
+  | { readonly reason: 'point-outside-ct'; readonly gapMm: number }
+  | { readonly reason: 'field-of-view-cuts-body'; readonly bodyThresholdHu: number }
+  | { readonly reason: 'external-outside-ct'; readonly gapMm: number };
+
+export type CtDepthOutcome = { readonly ok: true; readonly value: CtDepth } | { readonly ok: false; readonly refusal: CtRefusal };
 
 /**
  * SSD, geometric and radiological depth of a point along the ray from the source, from the CT:
@@ -49,8 +63,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   const step = o.interfaceStep ?? 0.2;
   const layers: { distanceToPointMm: number; density: number }[] = [];
   const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
-  if (o.body && surface === undefined)
-    return { ok: false, message: 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body' };
+  if (o.body && surface === undefined) return { ok: false, refusal: { reason: 'misses-external' } };
   let firstVoxelMm = -1;
   let lastVoxelEndMm = -1;
   traceRay(volume, sourceMm, pointMm, (voxel, voxelStart, voxelLength) => {
@@ -81,27 +94,15 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
     hi = Math.max(hi, rho);
     radiological += rho * length;
   });
-  if (refused !== undefined) return { ok: false, message: `HU ${refused} on the ray lies outside the HU to electron density table` };
-  if (entry < 0)
-    return { ok: false, message: 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)' };
-  if (lastVoxelEndMm < total - 1e-6)
-    return {
-      ok: false,
-      message: `the point lies outside the CT: the ray leaves the CT ${(total - lastVoxelEndMm).toFixed(1)} mm before it, with no densities there`,
-    };
+  if (refused !== undefined) return { ok: false, refusal: { reason: 'hu-outside-table', hu: refused } };
+  if (entry < 0) return { ok: false, refusal: { reason: 'no-body-voxel' } };
+  if (lastVoxelEndMm < total - 1e-6) return { ok: false, refusal: { reason: 'point-outside-ct', gapMm: total - lastVoxelEndMm } };
   // By the threshold, a body already there in the first voxel the ray meets runs out of the CT's
   // field of view: where it begins (the SSD) is unknown.
   if (surface === undefined && entry === firstVoxelMm && firstVoxelMm > 0)
-    return {
-      ok: false,
-      message: `the first CT voxel the ray meets is already at or above the body threshold (${o.bodyThresholdHu} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface`,
-    };
+    return { ok: false, refusal: { reason: 'field-of-view-cuts-body', bodyThresholdHu: o.bodyThresholdHu } };
   // The drawn body must lie in the CT where the ray enters it: outside, there are no densities to add.
-  if (surface !== undefined && entry > surface + 1e-6)
-    return {
-      ok: false,
-      message: `the ray enters the EXTERNAL contour ${(entry - surface).toFixed(1)} mm before it enters the CT: the CT does not cover the body there`,
-    };
+  if (surface !== undefined && entry > surface + 1e-6) return { ok: false, refusal: { reason: 'external-outside-ct', gapMm: entry - surface } };
   const dir = scale(sub(pointMm, sourceMm), 1 / total);
   return {
     ok: true,

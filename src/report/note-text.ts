@@ -28,6 +28,26 @@ const DEPTH_SOURCE: Readonly<Record<string, (v: Values) => string>> = {
   'plan-ssd': () => "below a flat surface at the plan's SSD (the gantry does not move)",
 };
 
+/** Why the CT could not give a ray's depth (geometry's `CtRefusal`), in words. */
+function ctRefusalText(v: Values): string {
+  switch (v.reason) {
+    case 'misses-external':
+      return 'the ray from the source to the point never enters the EXTERNAL contour: the point is outside the body';
+    case 'hu-outside-table':
+      return `HU ${n(v, 'hu')} on the ray lies outside the HU to electron density table`;
+    case 'no-body-voxel':
+      return 'the ray from the source to the point meets no body voxel: the point is outside the body (or outside the CT)';
+    case 'point-outside-ct':
+      return `the point lies outside the CT: the ray leaves the CT ${f1(v, 'gapMm')} mm before it, with no densities there`;
+    case 'field-of-view-cuts-body':
+      return `the first CT voxel the ray meets is already at or above the body threshold (${n(v, 'bodyThresholdHu')} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface`;
+    case 'external-outside-ct':
+      return `the ray enters the EXTERNAL contour ${f1(v, 'gapMm')} mm before it enters the CT: the CT does not cover the body there`;
+    default:
+      return s(v, 'message', s(v, 'reason'));
+  }
+}
+
 /** Every note code in words; a code without words here does not compile. */
 const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'setup-beam': () => 'a setup beam, not a treatment beam',
@@ -52,7 +72,7 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'no-ssd-no-ct': () => 'the plan gives no SSD, so without the CT the depth cannot be found',
   'point-above-surface': (v) => `${where(v)}the calculation point lies ${f1(v, 'heightCm')} cm above the surface`,
   'no-open-aperture': () => 'the beam has no open aperture',
-  'ct-trace': (v) => (v.controlPoint === undefined ? `CT: ${s(v, 'message')}` : `CT, ${where(v).slice(0, -2)}: ${s(v, 'message')}`),
+  'ct-trace': (v) => (v.controlPoint === undefined ? `CT: ${ctRefusalText(v)}` : `CT, ${where(v).slice(0, -2)}: ${ctRefusalText(v)}`),
   'no-axis-ssd': () => 'the central axis meets no body voxel in the CT and the plan gives no SSD',
   'point-blocked': () => 'the calculation point lies under a block or the leaves: choose a point in the open field',
   'calculation-refused': (v) => `${where(v)}${s(v, 'message')}`,

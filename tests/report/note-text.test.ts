@@ -32,3 +32,17 @@ describe('coded notes in words', () => {
     expect(clampText({ table: '6X sp', axis: 'side', requested: 41.234, used: 40, unit: 'cm' })).toBe('6X sp: side 41.23 cm clamped to 40 cm');
   });
 });
+
+describe("the CT's refusals in words", () => {
+  it('say why the CT cannot give a depth, with the numbers', () => {
+    expect(noteText(note('ct-trace', { reason: 'hu-outside-table', hu: 3100 }))).toBe(
+      'CT: HU 3100 on the ray lies outside the HU to electron density table',
+    );
+    expect(noteText(note('ct-trace', { reason: 'point-outside-ct', gapMm: 12.34, controlPoint: 7 }))).toBe(
+      'CT, control points 7–8: the point lies outside the CT: the ray leaves the CT 12.3 mm before it, with no densities there',
+    );
+    expect(noteText(note('ct-trace', { reason: 'field-of-view-cuts-body', bodyThresholdHu: -400 }))).toMatch(
+      /body threshold \(-400 HU\).*field of view cuts the body/,
+    );
+  });
+});

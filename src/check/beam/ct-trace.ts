@@ -19,7 +19,7 @@ export function traceToPoint(
   controlPoint?: number,
 ): Traced | Stopped {
   const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, pointMm, ctDepthOptions(ctx.ct));
-  if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { message: t.message, controlPoint });
+  if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { ...t.refusal, controlPoint });
   return { depth: t.value, axisSsdMm: ctAxisSsdMm(ctx.ct, frame, sadMm) };
 }
 

@@ -46,7 +46,7 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   let ssdDifferenceMm: number | undefined;
   if (ctx.ct) {
     const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, ctDepthOptions(ctx.ct));
-    if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { message: t.message, controlPoint });
+    if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { ...t.refusal, controlPoint });
     traced = t.value;
     const axis = s.ssdMm !== undefined ? ctAxisSsdMm(ctx.ct, frame, sadMm) : undefined;
     if (axis !== undefined) ssdDifferenceMm = axis - s.ssdMm!;
