@@ -71,7 +71,8 @@ export const WedgeTable = z
       .strict()
       .optional()
       .describe(
-        'wedged / open dose ratio vs depth (rows) and position along the wedge axis at the isocenter plane, positive toward the heel (columns); 1 on the central axis',
+        'wedged / open dose ratio vs depth (rows) and position along the wedge axis at the isocenter plane, ' +
+          'positive toward the heel (columns); 1 on the central axis',
       ),
   })
   .strict();
@@ -179,7 +180,8 @@ export const Manifest = z
           .strict()
           .optional()
           .describe(
-            "where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, as the clinic verified with its planning system; needed by wedge profiles",
+            "where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, " +
+              'as the clinic verified with its planning system; needed by wedge profiles',
           ),
       })
       .strict(),

@@ -208,7 +208,9 @@ function checkRoughness(t: LoadedTable, issues: Issue[], minRowValue: number): v
         code: 'rough-table',
         file: t.csv.file,
         ...pos,
-        message: `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours (curvature ${(ck / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
+        message:
+          `${t.beamId} ${t.quantity}: the value breaks the smooth run of its neighbours ` +
+          `(curvature ${(ck / Math.max(median, 1e-12)).toFixed(0)}× the median of its line)`,
         found: `${v[k]}`,
       });
     });

@@ -32,7 +32,9 @@ export function matchMachine(planMachineName: string | undefined, machine: Machi
       {
         severity: 'error',
         code: 'missing-table',
-        message: `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
+        message:
+          `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; ` +
+          `use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
         expected: machine.aliases.join(', '),
         found: name,
       },

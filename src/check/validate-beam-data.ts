@@ -25,7 +25,9 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
           code: 'physical-range',
           file: lm.manifestFile,
           path: `beams[${bi}].calibration`,
-          message: `beam ${beam.id}: ${name} of the reference field (${side.toFixed(2)} cm, as defined ${beam.calibration.referenceFieldAt === 'surface' ? 'at the surface' : 'at the normalization point'}) is not 1`,
+          message:
+            `beam ${beam.id}: ${name} of the reference field (${side.toFixed(2)} cm, ` +
+            `as defined ${beam.calibration.referenceFieldAt === 'surface' ? 'at the surface' : 'at the normalization point'}) is not 1`,
           expected: `1.000 ± ${REFERENCE_TOLERANCE}`,
           found: Number.isFinite(v) ? v.toFixed(4) : 'outside the table',
         });

@@ -8,6 +8,7 @@ export * from './check-files.js';
 export * from './check-inputs.js';
 export * from './collect-files.js';
 export * from './demo-files.js';
+export * from './json-file.js';
 export * from './manual-calc.js';
 export * from './patient-cts.js';
 export * from './plan-depths-from-ct.js';

@@ -1,7 +1,7 @@
-import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, resolve } from 'node:path';
 import { z } from 'zod';
 import type { Result } from '../model/index.js';
+import { readJsonFile } from '../run/index.js';
 
 const AeTitle = z
   .string()
@@ -66,30 +66,11 @@ export type ServiceConfig = z.infer<typeof ServiceConfig>;
 
 /** Reads and validates the configuration; relative paths become absolute from the file's folder. */
 export function loadServiceConfig(file: string): Result<ServiceConfig> {
-  let json: unknown;
-  try {
-    json = JSON.parse(readFileSync(file, 'utf8'));
-  } catch (e) {
-    return {
-      ok: false,
-      issues: [{ severity: 'error', code: 'invalid-option', file, message: `cannot read the service configuration (${(e as Error).message})` }],
-    };
-  }
-  const p = ServiceConfig.safeParse(json);
-  if (!p.success)
-    return {
-      ok: false,
-      issues: p.error.issues.map((i) => ({
-        severity: 'error' as const,
-        code: 'invalid-option' as const,
-        file,
-        path: i.path.join('.'),
-        message: i.message,
-      })),
-    };
+  const p = readJsonFile(file, ServiceConfig, 'service configuration', 'invalid-option');
+  if (!p.ok) return p;
   const base = dirname(resolve(file));
   const at = (p: string) => (p === 'demo' || isAbsolute(p) ? p : resolve(base, p));
-  const c = p.data;
+  const c = p.value;
   return {
     ok: true,
     value: {
