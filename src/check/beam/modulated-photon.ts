@@ -30,16 +30,14 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   if (typeof sadMm !== 'number') return sadMm.stopped;
   const segments = segmentsOf(cps, beam.finalCumulativeMetersetWeight);
   if (!segments.length) return stopNotChecked(ctx, 'no-meterset-delivered').stopped;
-  const doses: (SegmentDose & { share: number })[] = [];
+  const doses: SegmentDose[] = [];
   for (const s of segments) {
     const d = segmentDose(ctx, data, s, sadMm);
     if (isStopped(d)) return d.stopped;
-    doses.push({ ...d, share: s.share });
+    doses.push(d);
   }
-  // MU-weighted sums over the segments, each term written as share × value (in segment order).
-  const sum = (term: (d: SegmentDose & { share: number }) => number) => doses.reduce((a, d) => a + term(d), 0);
-  const dosePerMuCGy = sum((d) => d.share * d.dosePerMuCGy * d.correction);
-  const homogeneousPerMuCGy = sum((d) => d.share * d.dosePerMuCGy);
+  const w = weighted(doses);
+  const { dosePerMuCGy, homogeneousPerMuCGy } = w;
   const mu = ctx.entry.beamMeterset!;
   const identity = beamIdentity(beam, ctx.entry);
   const depths = doses.map((d) => d.depthCm);
@@ -75,7 +73,6 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const ssdDifferences = doses.flatMap((d) => (d.ssdDifferenceMm !== undefined ? [d.ssdDifferenceMm] : []));
   // The largest difference by magnitude, the first one met on a tie.
   const maxSsdDifferenceMm = ssdDifferences.length ? ssdDifferences.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a)) : undefined;
-  const coveredShare = doses.reduce((a, d) => a + (d.covered ? d.share : 0), 0);
   const heterogeneous = radiological.length > 0 && isHeterogeneous(policy, [Math.min(...densities), Math.max(...densities)]);
   const category: CaseCategory =
     heterogeneous && policy.levels.heterogeneous!.actionPercent > policy.levels.modulated!.actionPercent ? 'heterogeneous' : 'modulated';
@@ -89,12 +86,12 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
         machineBeam: `${machine.name} ${data.id}`,
         setup: 'SAD',
         setupBasis: note('modulated-tpr-form'),
-        ssdCm: sum((d) => d.share * d.ssdCm),
-        depthCm: sum((d) => d.share * d.depthCm),
-        offAxisCm: sum((d) => d.share * d.offAxisCm),
-        collimatorFieldCm: { x: sum((d) => d.share * d.collimatorFieldCm.x), y: sum((d) => d.share * d.collimatorFieldCm.y) },
-        collimatorSquareCm: sum((d) => d.share * d.collimatorSquareCm),
-        irradiatedSquareCm: sum((d) => d.share * d.irradiatedSquareCm),
+        ssdCm: w.ssdCm,
+        depthCm: w.depthCm,
+        offAxisCm: w.offAxisCm,
+        collimatorFieldCm: { x: w.collimatorXCm, y: w.collimatorYCm },
+        collimatorSquareCm: w.collimatorSquareCm,
+        irradiatedSquareCm: w.irradiatedSquareCm,
         approximations,
         factors: factorRows(factors),
         dosePerMuCGy,
@@ -116,17 +113,51 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
               }
             : {}),
           ...(maxSsdDifferenceMm !== undefined ? { maxSsdDifferenceMm } : {}),
-          pointCoveredMuPercent: 100 * coveredShare,
-          clarksonMuPercent: 100 * doses.reduce((a, d) => a + (d.clarkson ? d.share : 0), 0),
+          pointCoveredMuPercent: 100 * w.coveredShare,
+          clarksonMuPercent: 100 * w.clarksonShare,
         },
       },
       ...levelsOf(policy, category),
       fitness: {
-        edgeDistanceCm: sum((d) => (d.share * d.edgeDistanceMm * d.depthScale) / MM_PER_CM),
-        flags: modulatedFlags(ctx, coveredShare, Math.min(...depths), data.calibration.dmaxCm, maxSsdDifferenceMm),
+        edgeDistanceCm: w.edgeDistanceCm,
+        flags: modulatedFlags(ctx, w.coveredShare, Math.min(...depths), data.calibration.dmaxCm, maxSsdDifferenceMm),
       },
     },
   };
+}
+
+/** MU-weighted sums over the segments: each term share × value, added in segment order (one pass, no closure per term). */
+function weighted(doses: readonly SegmentDose[]) {
+  const w = {
+    dosePerMuCGy: 0,
+    homogeneousPerMuCGy: 0,
+    depthCm: 0,
+    ssdCm: 0,
+    offAxisCm: 0,
+    collimatorXCm: 0,
+    collimatorYCm: 0,
+    collimatorSquareCm: 0,
+    irradiatedSquareCm: 0,
+    edgeDistanceCm: 0,
+    coveredShare: 0,
+    clarksonShare: 0,
+  };
+  for (const d of doses) {
+    const s = d.share;
+    w.dosePerMuCGy += s * d.dosePerMuCGy * d.correction;
+    w.homogeneousPerMuCGy += s * d.dosePerMuCGy;
+    w.depthCm += s * d.depthCm;
+    w.ssdCm += s * d.ssdCm;
+    w.offAxisCm += s * d.offAxisCm;
+    w.collimatorXCm += s * d.collimatorFieldCm.x;
+    w.collimatorYCm += s * d.collimatorFieldCm.y;
+    w.collimatorSquareCm += s * d.collimatorSquareCm;
+    w.irradiatedSquareCm += s * d.irradiatedSquareCm;
+    w.edgeDistanceCm += (s * d.edgeDistanceMm * d.depthScale) / MM_PER_CM;
+    if (d.covered) w.coveredShare += s;
+    if (d.clarkson) w.clarksonShare += s;
+  }
+  return w;
 }
 
 /** What the engine does not follow in a modulated beam. */

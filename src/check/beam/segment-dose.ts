@@ -9,6 +9,8 @@ import type { Segment } from './segments.js';
 
 /** One segment's dose per MU at the point (before its MU share) and the geometry it was found at. */
 export interface SegmentDose {
+  /** The segment's share of the beam's MU. */
+  readonly share: number;
   /** Homogeneous dose per MU, cGy; times `correction` with the CT. */
   readonly dosePerMuCGy: number;
   readonly correction: number;
@@ -88,6 +90,7 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
       return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, controlPoint });
   }
   return {
+    share: s.share,
     dosePerMuCGy: r.value.dosePerMuCGy,
     correction,
     depthCm,
