@@ -3,33 +3,11 @@
  * to its dose per MU, a warning every plan shares is said once, and the plans to look at are named.
  * (Presentation rules of the project; the factor product is the TG-71 point-dose formalism.)
  */
-import { readdirSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
-import { note } from '../../src/model/index.js';
 import { checkText } from '../../src/report/check-text.js';
-import { beamDataStamp, checkDocument, loadBeamData } from '../../src/run/index.js';
-import { importOrThrow } from '../helpers/check-run.js';
+import { demoClinicDocument } from '../helpers/demo-document.js';
 
-const CLINIC = fileURLToPath(new URL('../../fixtures/demo/clinic/', import.meta.url));
-const loaded = loadBeamData('demo');
-if (!loaded.ok) throw new Error('demo machine');
-const machine = loaded.value;
-const plans = readdirSync(CLINIC)
-  .filter((f) => f.endsWith('.dcm'))
-  .sort()
-  .map((f) => {
-    const p = checkPlan(
-      importOrThrow(join(CLINIC, f)),
-      { path: f, sha256: '0'.repeat(64) },
-      { machine: machine.machine, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false },
-    );
-    // As `check --ct` says of a plan whose CT was not among those given.
-    return f === 'pelvis-box.dcm' ? p : { ...p, warnings: [...p.warnings, note('no-ct-in-frame')] };
-  });
-const doc = checkDocument(plans, [], beamDataStamp(machine), DEFAULT_POLICY, new Date(0));
+const { plans, doc } = demoClinicDocument();
 
 describe('the terminal report', () => {
   const text = checkText(doc, { factors: true });

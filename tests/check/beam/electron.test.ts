@@ -4,10 +4,10 @@
  * the geometry (an AP field, head-first supine: gantry 0 enters from −y, the skin at the isocenter).
  */
 import { describe, expect, it } from 'vitest';
-import { coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
-import type { BeamCheck, PlanCheck } from '../../src/model/index.js';
-import { beams, check, planFromSpec } from '../helpers/check-run.js';
-import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
+import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
+import type { BeamCheck, PlanCheck } from '../../../src/model/index.js';
+import { beams, check, planFromSpec } from '../../helpers/check-run.js';
+import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];

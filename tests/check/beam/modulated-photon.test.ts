@@ -10,10 +10,10 @@ import { mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
-import { loadDensityTable } from '../../src/beamdata/index.js';
-import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
-import { readCtSeries } from '../../src/dicom/index.js';
+import { writeCtPhantom } from '../../../scripts/fixtures/ct-phantom.js';
+import { loadDensityTable } from '../../../src/beamdata/index.js';
+import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
+import { readCtSeries } from '../../../src/dicom/index.js';
 import {
   type BeamSpec,
   type ControlPointSpec,
@@ -22,11 +22,11 @@ import {
   MLC_PAIRS,
   type PlanSpec,
   staticBeam,
-} from '../../scripts/fixtures/plan-parts.js';
-import type { BeamCheck } from '../../src/model/index.js';
-import { beams, check, importOrThrow, planFromSpec } from '../helpers/check-run.js';
-import { demoPlan } from '../helpers/fixtures.js';
-import { DEMO_MANIFEST, beam as dataBeam, machine, manifestPath } from '../helpers/machines.js';
+} from '../../../scripts/fixtures/plan-parts.js';
+import type { BeamCheck } from '../../../src/model/index.js';
+import { beams, check, importOrThrow, planFromSpec } from '../../helpers/check-run.js';
+import { demoPlan } from '../../helpers/fixtures.js';
+import { DEMO_MANIFEST, beam as dataBeam, machine, manifestPath } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];

@@ -8,14 +8,14 @@ import { mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
-import { coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
-import { loadDensityTable } from '../../src/beamdata/index.js';
-import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
-import { readCtSeries } from '../../src/dicom/index.js';
-import type { LookupLog, MachineModel } from '../../src/model/index.js';
-import { beams, planFromSpec } from '../helpers/check-run.js';
-import { DEMO_MANIFEST, machine, manifestPath } from '../helpers/machines.js';
+import { writeCtPhantom } from '../../../scripts/fixtures/ct-phantom.js';
+import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
+import { loadDensityTable } from '../../../src/beamdata/index.js';
+import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
+import { readCtSeries } from '../../../src/dicom/index.js';
+import type { LookupLog, MachineModel } from '../../../src/model/index.js';
+import { beams, planFromSpec } from '../../helpers/check-run.js';
+import { DEMO_MANIFEST, machine, manifestPath } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 
