@@ -1,6 +1,6 @@
 import { findElectronBeam } from '../../beamdata/index.js';
 import { beamFrame, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, type Polygon } from '../../geometry/index.js';
-import { type Calculation, type ElectronBeamModel, MM_PER_CM, note, type Note } from '../../model/index.js';
+import { type Calculation, type ElectronBeamModel, type ElectronPointResult, MM_PER_CM, note, type Note } from '../../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../../physics/index.js';
 import { besideOurs } from '../planning-system-depths.js';
 import { categorize, isHeterogeneous, levelsOf } from './category.js';
@@ -46,20 +46,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
   const dosePerMuCGy = r.value.dosePerMuCGy;
   const offAxisCm = at.offAxisMm / MM_PER_CM;
   const pddPercent = 100 * r.value.factors.find((f) => f.key === 'PDD')!.value;
-  const approximations: Note[] = [
-    { code: ef.cutout.code, values: { ...ef.cutout.values, effectiveSsdCm: r.value.effectiveSsdCm } },
-    ...(Math.abs(r.value.airGapCm) > 1e-6 ? [note('electron-extended-ssd', { measuredSsdCm: data.pdd.ssdCm, ssdCm })] : []),
-    ...(offAxisCm > 0.5 ? [note('electron-off-axis', { offAxisCm })] : []),
-    ...(beam.bolusRoiNumbers.length ? [note('bolus-depth')] : []),
-  ];
   const { edgeDistanceCm, openFraction } = cutoutEdge(ef, at);
-  const dmaxCm = electronDmaxCm(data, ef.field) ?? 0;
-  const depthFlags =
-    lookupDepthCm < dmaxCm - 0.05
-      ? [note('electron-build-up', { depthCm: lookupDepthCm, dmaxCm })]
-      : pddPercent < FALL_OFF_PERCENT
-        ? [note('steep-fall-off', { pddPercent, thresholdPercent: FALL_OFF_PERCENT })]
-        : [];
   const category = categorize(policy, {
     wedged: false,
     offAxisCm,
@@ -92,7 +79,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
         collimatorFieldCm: { x: side, y: side },
         collimatorSquareCm: side,
         irradiatedSquareCm: r.value.fieldSideCm,
-        approximations,
+        approximations: electronApproximations(ctx, data, ef, r.value, ssdCm, offAxisCm),
         factors: factorRows(r.value.factors),
         dosePerMuCGy,
         ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
@@ -102,16 +89,41 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
         electron: {
           applicatorId: ef.applicator.id,
           cutout: ef.outline ? (ef.rectangular ? 'rectangle' : 'shaped') : 'none',
-          fieldSideCm: r.value.fieldSideCm,
-          effectiveSsdCm: r.value.effectiveSsdCm,
-          airGapCm: r.value.airGapCm,
+          ...electronParts(r.value),
           pddPercent,
         },
       },
       ...levelsOf(policy, category),
-      fitness: { edgeDistanceCm, flags: [...edgeFlags(edgeDistanceCm, policy), ...depthFlags] },
+      fitness: { edgeDistanceCm, flags: [...edgeFlags(edgeDistanceCm, policy), ...depthFlags(data, ef, lookupDepthCm, pddPercent)] },
     },
   };
+}
+
+/** How the cutout was taken and its effective SSD, an extended SSD, an off-axis point, a bolus. */
+function electronApproximations(
+  ctx: BeamCheckContext,
+  data: ElectronBeamModel,
+  ef: ElectronField,
+  r: ElectronPointResult,
+  ssdCm: number,
+  offAxisCm: number,
+): Note[] {
+  return [
+    { code: ef.cutout.code, values: { ...ef.cutout.values, effectiveSsdCm: r.effectiveSsdCm } },
+    ...(Math.abs(r.airGapCm) > 1e-6 ? [note('electron-extended-ssd', { measuredSsdCm: data.pdd.ssdCm, ssdCm })] : []),
+    ...(offAxisCm > 0.5 ? [note('electron-off-axis', { offAxisCm })] : []),
+    ...(ctx.beam.bolusRoiNumbers.length ? [note('bolus-depth')] : []),
+  ];
+}
+
+/** The field side, effective SSD and air gap the electron dose was found with. */
+const electronParts = (r: ElectronPointResult) => ({ fieldSideCm: r.fieldSideCm, effectiveSsdCm: r.effectiveSsdCm, airGapCm: r.airGapCm });
+
+/** A point in this field's build-up, or on the steep fall-off of its depth dose (depth at which the PDD was looked up). */
+function depthFlags(data: ElectronBeamModel, ef: ElectronField, lookupDepthCm: number, pddPercent: number): Note[] {
+  const dmaxCm = electronDmaxCm(data, ef.field) ?? 0;
+  if (lookupDepthCm < dmaxCm - 0.05) return [note('electron-build-up', { depthCm: lookupDepthCm, dmaxCm })];
+  return pddPercent < FALL_OFF_PERCENT ? [note('steep-fall-off', { pddPercent, thresholdPercent: FALL_OFF_PERCENT })] : [];
 }
 
 /** With the CT: the PDD at the radiological depth against the homogeneous dose at the geometric depth. */

@@ -1,12 +1,12 @@
-import { type CaseCategory, type Factor, MM_PER_CM, note, type Note } from '../../model/index.js';
+import { type Calculation, type CaseCategory, type Factor, MM_PER_CM, note, type Note, type PhotonBeamModel } from '../../model/index.js';
 import { CLARKSON_SECTORS } from '../field-input.js';
 import { isHeterogeneous, levelsOf } from './category.js';
-import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, stopNotChecked } from './context.js';
+import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, type Stopped, stopNotChecked } from './context.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
 import { beamSadMm } from './static-geometry.js';
 import { photonBeamData } from './static-photon.js';
 import { type SegmentDose, segmentDose } from './segment-dose.js';
-import { segmentsOf } from './segments.js';
+import { type Segment, segmentsOf } from './segments.js';
 
 /**
  * A modulated beam (step-and-shoot, sliding window, VMAT) by the modified Clarkson integration
@@ -21,7 +21,6 @@ import { segmentsOf } from './segments.js';
 export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const { beam, machine, policy } = ctx;
   const cps = beam.controlPoints;
-  const cp0 = cps[0]!;
   const data = photonBeamData(ctx);
   if (isStopped(data)) return data.stopped;
   const unsupported = unsupportedModulation(ctx);
@@ -30,50 +29,17 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   if (typeof sadMm !== 'number') return sadMm.stopped;
   const segments = segmentsOf(cps, beam.finalCumulativeMetersetWeight);
   if (!segments.length) return stopNotChecked(ctx, 'no-meterset-delivered').stopped;
-  const doses: SegmentDose[] = [];
-  for (const s of segments) {
-    const d = segmentDose(ctx, data, s, sadMm);
-    if (isStopped(d)) return d.stopped;
-    doses.push(d);
-  }
+  const doses = segmentDoses(ctx, data, segments, sadMm);
+  if (isStopped(doses)) return doses.stopped;
   const w = weighted(doses);
-  const { dosePerMuCGy, homogeneousPerMuCGy } = w;
   const mu = ctx.entry.beamMeterset!;
   const identity = beamIdentity(beam, ctx.entry);
-  const depths = doses.map((d) => d.depthCm);
-  const radiological = doses.flatMap((d) => (d.radiologicalDepthCm !== undefined ? [d.radiologicalDepthCm] : []));
-  const gantryMoves = cps.some((c) => c.gantryAngleDeg !== cp0.gantryAngleDeg);
-  const depthSource = ctx.ct ? 'ct' : gantryMoves ? 'plan-ssd-per-control-point' : 'plan-ssd';
-  const correctionFactor = dosePerMuCGy / homogeneousPerMuCGy;
-  const d0CGyPerMu = data.calibration.doseCGyPerMu;
+  const ranges = segmentRanges(doses);
   const factors: Factor[] = [
-    { key: 'D0', value: d0CGyPerMu, args: [] },
-    { key: 'MCI', value: dosePerMuCGy / d0CGyPerMu, args: [segments.length, CLARKSON_SECTORS], name: data.tpr?.kind ?? 'TPR' },
+    { key: 'D0', value: data.calibration.doseCGyPerMu, args: [] },
+    { key: 'MCI', value: w.dosePerMuCGy / data.calibration.doseCGyPerMu, args: [segments.length, CLARKSON_SECTORS], name: data.tpr?.kind ?? 'TPR' },
   ];
-  const approximations: Note[] = [
-    note('modulated-clarkson', {
-      segments: segments.length,
-      controlPoints: cps.length,
-      sectors: CLARKSON_SECTORS,
-      leafTransmission: data.mlcTransmission ?? 0,
-    }),
-    note('modulated-depths', { source: depthSource, body: ctx.ct?.bodySource }),
-    ...(radiological.length
-      ? [
-          note('modulated-heterogeneity', {
-            method: ctx.heterogeneity ?? 'tpr-ratio',
-            correctionFactor,
-            homogeneousDoseCGy: mu * homogeneousPerMuCGy,
-          }),
-        ]
-      : []),
-    note('leaf-ends-not-modelled'),
-  ];
-  const densities = doses.flatMap((d) => (d.densityRange ? [...d.densityRange] : []));
-  const ssdDifferences = doses.flatMap((d) => (d.ssdDifferenceMm !== undefined ? [d.ssdDifferenceMm] : []));
-  // The largest difference by magnitude, the first one met on a tie.
-  const maxSsdDifferenceMm = ssdDifferences.length ? ssdDifferences.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a)) : undefined;
-  const heterogeneous = radiological.length > 0 && isHeterogeneous(policy, [Math.min(...densities), Math.max(...densities)]);
+  const heterogeneous = ranges.densityRange !== undefined && isHeterogeneous(policy, ranges.densityRange);
   const category: CaseCategory =
     heterogeneous && policy.levels.heterogeneous!.actionPercent > policy.levels.modulated!.actionPercent ? 'heterogeneous' : 'modulated';
   return {
@@ -92,39 +58,106 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
         collimatorFieldCm: { x: w.collimatorXCm, y: w.collimatorYCm },
         collimatorSquareCm: w.collimatorSquareCm,
         irradiatedSquareCm: w.irradiatedSquareCm,
-        approximations,
+        approximations: modulatedApproximations(ctx, data, segments.length, w, ranges),
         factors: factorRows(factors),
-        dosePerMuCGy,
-        ...compareDose(mu, dosePerMuCGy, identity.planningSystemDoseCGy),
+        dosePerMuCGy: w.dosePerMuCGy,
+        ...compareDose(mu, w.dosePerMuCGy, identity.planningSystemDoseCGy),
         clamps: clampRows(doses.flatMap((d) => d.lookups)),
-        modulated: {
-          method: 'modified Clarkson integration',
-          controlPoints: cps.length,
-          segments: segments.length,
-          gantryStartDeg: cp0.gantryAngleDeg,
-          gantryEndDeg: cps[cps.length - 1]!.gantryAngleDeg,
-          depthSource,
-          depthRangeCm: [Math.min(...depths), Math.max(...depths)],
-          ...(radiological.length
-            ? {
-                radiologicalDepthRangeCm: [Math.min(...radiological), Math.max(...radiological)] as [number, number],
-                correctionFactor,
-                homogeneousDoseCGy: mu * homogeneousPerMuCGy,
-              }
-            : {}),
-          ...(maxSsdDifferenceMm !== undefined ? { maxSsdDifferenceMm } : {}),
-          pointCoveredMuPercent: 100 * w.coveredShare,
-          clarksonMuPercent: 100 * w.clarksonShare,
-        },
+        modulated: modulatedSummary(ctx, segments.length, w, ranges),
       },
       ...levelsOf(policy, category),
       fitness: {
         edgeDistanceCm: w.edgeDistanceCm,
-        flags: modulatedFlags(ctx, w.coveredShare, Math.min(...depths), data.calibration.dmaxCm, maxSsdDifferenceMm),
+        flags: modulatedFlags(ctx, w.coveredShare, ranges.depthRangeCm[0], data.calibration.dmaxCm, ranges.maxSsdDifferenceMm),
       },
     },
   };
 }
+
+/** Every segment's dose per MU at the point, or the first segment's reason the beam cannot be checked. */
+function segmentDoses(ctx: BeamCheckContext, data: PhotonBeamModel, segments: readonly Segment[], sadMm: number): SegmentDose[] | Stopped {
+  const doses: SegmentDose[] = [];
+  for (const s of segments) {
+    const d = segmentDose(ctx, data, s, sadMm);
+    if (isStopped(d)) return d;
+    doses.push(d);
+  }
+  return doses;
+}
+
+/** Over the segments: the range of depths (and, with the CT, of radiological depths and densities), and the CT's largest SSD difference from the plan's. */
+function segmentRanges(doses: readonly SegmentDose[]) {
+  const depths = doses.map((d) => d.depthCm);
+  const radiological = doses.flatMap((d) => (d.radiologicalDepthCm !== undefined ? [d.radiologicalDepthCm] : []));
+  const densities = doses.flatMap((d) => (d.densityRange ? [...d.densityRange] : []));
+  const ssdDifferences = doses.flatMap((d) => (d.ssdDifferenceMm !== undefined ? [d.ssdDifferenceMm] : []));
+  const range = (v: readonly number[]): [number, number] => [Math.min(...v), Math.max(...v)];
+  return {
+    depthRangeCm: range(depths),
+    ...(radiological.length ? { radiologicalDepthRangeCm: range(radiological), densityRange: range(densities) } : {}),
+    // The largest difference by magnitude, the first one met on a tie.
+    ...(ssdDifferences.length ? { maxSsdDifferenceMm: ssdDifferences.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a)) } : {}),
+  };
+}
+
+/** Where a modulated beam's depths came from: the CT, or the plan's SSD at each control point (or at the first, the gantry still). */
+function depthSourceOf(ctx: BeamCheckContext): 'ct' | 'plan-ssd-per-control-point' | 'plan-ssd' {
+  const cps = ctx.beam.controlPoints;
+  if (ctx.ct) return 'ct';
+  return cps.some((c) => c.gantryAngleDeg !== cps[0]!.gantryAngleDeg) ? 'plan-ssd-per-control-point' : 'plan-ssd';
+}
+
+/** How the beam was summed: the method and its sectors, where the depths came from, the heterogeneity correction, what is not modelled. */
+function modulatedApproximations(
+  ctx: BeamCheckContext,
+  data: PhotonBeamModel,
+  segments: number,
+  w: Weighted,
+  ranges: ReturnType<typeof segmentRanges>,
+): Note[] {
+  const mu = ctx.entry.beamMeterset!;
+  const clarkson = { segments, controlPoints: ctx.beam.controlPoints.length, sectors: CLARKSON_SECTORS, leafTransmission: data.mlcTransmission ?? 0 };
+  const method = ctx.heterogeneity ?? 'tpr-ratio';
+  const corrected = { method, correctionFactor: w.dosePerMuCGy / w.homogeneousPerMuCGy, homogeneousDoseCGy: mu * w.homogeneousPerMuCGy };
+  return [
+    note('modulated-clarkson', clarkson),
+    note('modulated-depths', { source: depthSourceOf(ctx), body: ctx.ct?.bodySource }),
+    ...(ranges.radiologicalDepthRangeCm ? [note('modulated-heterogeneity', corrected)] : []),
+    note('leaf-ends-not-modelled'),
+  ];
+}
+
+/** The result's account of the modulated sum: control points, segments, gantry range, depth ranges, coverage of the point. */
+function modulatedSummary(
+  ctx: BeamCheckContext,
+  segments: number,
+  w: Weighted,
+  ranges: ReturnType<typeof segmentRanges>,
+): NonNullable<Calculation['modulated']> {
+  const cps = ctx.beam.controlPoints;
+  const mu = ctx.entry.beamMeterset!;
+  return {
+    method: 'modified Clarkson integration',
+    controlPoints: cps.length,
+    segments,
+    gantryStartDeg: cps[0]!.gantryAngleDeg,
+    gantryEndDeg: cps[cps.length - 1]!.gantryAngleDeg,
+    depthSource: depthSourceOf(ctx),
+    depthRangeCm: ranges.depthRangeCm,
+    ...(ranges.radiologicalDepthRangeCm
+      ? {
+          radiologicalDepthRangeCm: ranges.radiologicalDepthRangeCm,
+          correctionFactor: w.dosePerMuCGy / w.homogeneousPerMuCGy,
+          homogeneousDoseCGy: mu * w.homogeneousPerMuCGy,
+        }
+      : {}),
+    ...(ranges.maxSsdDifferenceMm !== undefined ? { maxSsdDifferenceMm: ranges.maxSsdDifferenceMm } : {}),
+    pointCoveredMuPercent: 100 * w.coveredShare,
+    clarksonMuPercent: 100 * w.clarksonShare,
+  };
+}
+
+type Weighted = ReturnType<typeof weighted>;
 
 /** MU-weighted sums over the segments: each term share × value, added in segment order (one pass, no closure per term). */
 function weighted(doses: readonly SegmentDose[]) {
