@@ -43,7 +43,9 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
         code: 'tables-disagree',
         file: pddTable.csv.file,
         ...pddTable.csv.valuePositions[d.row * n + d.column]!,
-        message: `beam ${beam.id}: PDD at ${d.depthCm} cm for ${d.surfaceSideCm} cm converted to ${beam.tpr!.kind} differs from the ${beam.tpr!.kind} table by ${d.differencePercent.toFixed(2)} %`,
+        message:
+          `beam ${beam.id}: PDD at ${d.depthCm} cm for ${d.surfaceSideCm} cm converted to ${beam.tpr!.kind} ` +
+          `differs from the ${beam.tpr!.kind} table by ${d.differencePercent.toFixed(2)} %`,
         expected: `within ±${PDD_TPR_TOLERANCE_PERCENT} %`,
         found: `${d.differencePercent.toFixed(2)} %`,
       });

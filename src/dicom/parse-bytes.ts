@@ -135,7 +135,9 @@ function describeParseFailure(e: unknown, bytes: Uint8Array, file: string): Pars
           code: 'length-past-end',
           file,
           path: overrun.keyword,
-          message: `element ${overrun.tagText} declares ${overrun.length} bytes from offset ${overrun.offset}, past the end of the file: the file is truncated or a length is corrupt`,
+          message:
+            `element ${overrun.tagText} declares ${overrun.length} bytes from offset ${overrun.offset}, past the end of the file: ` +
+            'the file is truncated or a length is corrupt',
           expected: `at most ${bytes.length - overrun.offset} bytes`,
           found: `${overrun.length}`,
         },

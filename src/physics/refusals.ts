@@ -9,7 +9,9 @@ export function refusals(log: readonly LookupNote[], beamId: string): Issue[] {
     .map((n) => ({
       severity: 'error' as const,
       code: 'out-of-range' as const,
-      message: `${n.table}: ${n.axis} ${fmt(n.requested)} ${n.unit} is outside the table (${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}) and no clamp is allowed there`,
+      message:
+        `${n.table}: ${n.axis} ${fmt(n.requested)} ${n.unit} is outside the table (${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}) and no ` +
+        `clamp is allowed there`,
       expected: `${n.axis} within ${fmt(n.range[0])} to ${fmt(n.range[1])} ${n.unit}`,
       found: `${fmt(n.requested)} ${n.unit}`,
     }));

@@ -24,16 +24,20 @@ export interface CalcReport {
 }
 
 const note = (n: LookupNote) =>
-  `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} is outside the table (${n.range[0]} to ${n.range[1]} ${n.unit}); the edge value at ${n.used} ${n.unit} was used, as the beam data allow`;
+  `${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} is outside the table (${n.range[0]} to ${n.range[1]} ${n.unit}); ` +
+  `the edge value at ${n.used} ${n.unit} was used, as the beam data allow`;
 
 /** The manual calculation as a physicist writes it: geometry, one factor per line, the result. */
 export function calcText(r: CalcReport): string[] {
   const g = r.result.geometry;
   const out = [
     `Point dose calculation, ${r.input.setup} setup (AAPM TG-71 formalism)`,
-    `  machine ${r.machine.name}, beam ${r.beam.id} (${r.beam.nominalEnergyMV} MV${r.beam.fff ? ' FFF' : ''}), beam data version ${r.machine.version}${r.machine.invented ? ' — INVENTED DEMO DATA, never for a patient' : ''}`,
-    `  collimator ${r.input.collimatorFieldCm.x} x ${r.input.collimatorFieldCm.y} cm at the isocenter plane (Sc equivalent square ${g.collimatorSquareCm.toFixed(2)} cm)`,
-    `  irradiated equivalent square ${g.surfaceSquareCm.toFixed(2)} cm at the surface, ${g.squareAtD0Cm.toFixed(2)} cm at d0, ${g.squareAtDepthCm.toFixed(2)} cm at depth`,
+    `  machine ${r.machine.name}, beam ${r.beam.id} (${r.beam.nominalEnergyMV} MV${r.beam.fff ? ' FFF' : ''}), ` +
+      `beam data version ${r.machine.version}${r.machine.invented ? ' — INVENTED DEMO DATA, never for a patient' : ''}`,
+    `  collimator ${r.input.collimatorFieldCm.x} x ${r.input.collimatorFieldCm.y} cm at the isocenter plane ` +
+      `(Sc equivalent square ${g.collimatorSquareCm.toFixed(2)} cm)`,
+    `  irradiated equivalent square ${g.surfaceSquareCm.toFixed(2)} cm at the surface, ${g.squareAtD0Cm.toFixed(2)} cm at d0, ` +
+      `${g.squareAtDepthCm.toFixed(2)} cm at depth`,
     `  depth ${r.input.depthCm} cm, SSD ${r.input.ssdCm} cm (${r.ssdNote}), source to point ${g.sourceToPointCm.toFixed(2)} cm, off-axis ${g.offAxisCm} cm`,
     '',
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),

@@ -19,7 +19,8 @@ function deviationChart(beams: readonly CheckedBeam[]): string {
   const x = (v: number) => left + ((v + span) / (2 * span)) * plot;
   const height = rows.length * rowH + 34;
   const parts: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of each beam against its levels">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="deviation of ` +
+      `each beam against its levels">`,
   ];
   rows.forEach((b, i) => {
     const y = 8 + i * rowH;
@@ -41,7 +42,10 @@ function deviationChart(beams: readonly CheckedBeam[]): string {
     parts.push(`<text x="${x(t)}" y="${axisY + 14}" font-size="10" text-anchor="middle">${signed(t)} %</text>`);
   }
   parts.push('</svg>');
-  return `<figure>${parts.join('')}<figcaption>Deviation of each beam (black mark) against its tolerance (inner band) and action level (outer band).</figcaption></figure>`;
+  return (
+    `<figure>${parts.join('')}<figcaption>Deviation of each beam (black mark) against its tolerance (inner band) and action level (outer ` +
+    `band).</figcaption></figure>`
+  );
 }
 
 /** The calculation of one beam written out the way a physicist writes a hand calculation. */
@@ -52,16 +56,22 @@ function handCalculation(b: BeamCheck): string {
   const lines = c.factors.map((f) => `<tr><td>${esc(f.label)}</td><td class="num">${f.value.toFixed(4)}</td></tr>`).join('');
   return `<section class="beam"><h4>Beam ${b.beamNumber} ${esc(b.beamName ?? '')} — ${esc(c.machineBeam)}, ${c.setup} setup</h4>
 <p>Point ${mm(b.point.patientMm)}: ${esc(pointText(b.point))}. ${c.setup} setup: ${esc(noteText(c.setupBasis))}. ${esc(depthText(c))},
-${c.offAxisCm.toFixed(2)} cm off axis. ${c.modulated ? 'Mean collimator' : 'Collimator'} ${c.collimatorFieldCm.x.toFixed(1)} × ${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
+${c.offAxisCm.toFixed(2)} cm off axis. ${c.modulated ? 'Mean collimator' : 'Collimator'} ${c.collimatorFieldCm.x.toFixed(1)} ×
+${c.collimatorFieldCm.y.toFixed(1)} cm (Sc equivalent square ${c.collimatorSquareCm.toFixed(2)} cm),
 irradiated equivalent square ${c.irradiatedSquareCm.toFixed(2)} cm at the isocenter plane.${c.wedgeId ? ` Wedge ${esc(c.wedgeId)}.` : ''}</p>
 ${
   c.ct
-    ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
-geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
-heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>`
+    ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ` +
+      `${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
+geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities
+${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
+heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose
+${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>`
     : ''
 }
-<table class="calc">${lines}${c.ct ? `<tr><td>heterogeneity correction CF</td><td class="num">${c.ct.correctionFactor.toFixed(4)}</td></tr>` : ''}<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
+<table class="calc">${lines}${
+    c.ct ? `<tr><td>heterogeneity correction CF</td><td ` + `class="num">${c.ct.correctionFactor.toFixed(4)}</td></tr>` : ''
+  }<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
 <p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>
 (planning system ${n(b.planningSystemDoseCGy, 1)} cGy, ${signed(c.doseDeviationPercent)} %).
 MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).
@@ -88,18 +98,27 @@ function planSection(p: PlanCheck): string {
     .flatMap((g) =>
       g.totals.map(
         (t) => `<li>Fraction group ${g.number}, point ${mm(t.pointPatientMm)}: independent ${t.independentDoseCGy.toFixed(1)} cGy,
-planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${t.doseGridCGy !== undefined ? `; planning system's dose grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''}${t.prescriptionPerFractionCGy !== undefined ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''}${t.complete ? '' : ' — incomplete'}</li>`,
+planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationPercent)} %)${
+          t.doseGridCGy !== undefined ? `; planning system's dose ` + `grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''
+        }${
+          t.prescriptionPerFractionCGy !== undefined ? `; prescription ` + `${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''
+        }${t.complete ? '' : ' — incomplete'}</li>`,
       ),
     )
     .join('');
-  return `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
-<p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256 <code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
-<table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU plan</th><th>MU indep</th><th>TPS cGy</th><th>indep cGy</th><th>dev %</th><th>verdict</th></tr></thead><tbody>${rows}</tbody></table>
+  return (
+    `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ` +
+    `${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
+<p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256
+<code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
+<table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU
+plan</th><th>MU indep</th><th>TPS cGy</th><th>indep cGy</th><th>dev %</th><th>verdict</th></tr></thead><tbody>${rows}</tbody></table>
 ${totals ? `<ul>${totals}</ul>` : ''}
 ${deviationChart(beams.filter((b): b is CheckedBeam => b.status === 'checked'))}
 ${beams.map(handCalculation).join('\n')}
 ${p.warnings.length ? `<p class="note">${p.warnings.map((w) => esc(noteText(w))).join('<br>')}</p>` : ''}
-${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join('<br>')}</p>` : ''}</section>`;
+${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join('<br>')}</p>` : ''}</section>`
+  );
 }
 
 /** One self-contained HTML file (no external assets), printable on A4 or Letter, for the chart-round binder. */
@@ -116,11 +135,13 @@ section.plan, section.beam { break-inside: avoid-page; } code { font-size: 8pt; 
 </style></head><body>
 <h1>plumbline — independent MU check</h1>
 <p class="caution">${esc(doc.caution)}</p>
-<p>Created ${esc(doc.createdAt)} by plumbline ${esc(doc.tool.version)}. Beam data: ${esc(doc.beamData.machine)}, version ${esc(doc.beamData.dataVersion)}${doc.beamData.invented ? ' — <b>INVENTED DEMO DATA, never for a patient</b>' : ''};
+<p>Created ${esc(doc.createdAt)} by plumbline ${esc(doc.tool.version)}. Beam data: ${esc(doc.beamData.machine)}, version
+${esc(doc.beamData.dataVersion)}${doc.beamData.invented ? ' — <b>INVENTED DEMO DATA, never for a patient</b>' : ''};
 manifest ${esc(doc.beamData.manifest)}, SHA-256 of manifest and tables <code>${doc.beamData.sha256}</code>.
 Deviation = ${esc(doc.deviationDefinition)}. Policy: ${esc(doc.policy.description ?? 'custom')}.</p>
 <p>Summary: ${doc.summary.plans} plan(s), ${doc.summary.beamsChecked} beam(s) checked, ${doc.summary.beamsNotChecked} not checked;
-${doc.summary.verdicts['within tolerance']} within tolerance, ${doc.summary.verdicts['needs review']} need review, ${doc.summary.verdicts['beyond action level']} beyond action level; ${doc.summary.filesRefused} file(s) refused.</p>
+${doc.summary.verdicts['within tolerance']} within tolerance, ${doc.summary.verdicts['needs review']} need review,
+${doc.summary.verdicts['beyond action level']} beyond action level; ${doc.summary.filesRefused} file(s) refused.</p>
 ${doc.plans.map(planSection).join('\n')}
 ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>${esc(i.file ?? '')}: ${esc(i.message)}</li>`).join('')}</ul>` : ''}
 <p class="caution">${esc(doc.caution)}</p>
@@ -132,7 +153,12 @@ ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>
 function depthText(c: Calculation): string {
   const m = c.modulated;
   if (m) {
-    return `MU-weighted over ${m.segments} segments (gantry ${m.gantryStartDeg.toFixed(0)}° to ${m.gantryEndDeg.toFixed(0)}°): depth ${c.depthCm.toFixed(2)} cm (${m.depthRangeCm[0].toFixed(2)} to ${m.depthRangeCm[1].toFixed(2)} cm), ${noteText(c.approximations.find((x) => x.code === 'modulated-depths') ?? { code: 'modulated-depths', values: { source: m.depthSource } }).replace(/^depths /, '')}, SSD ${c.ssdCm.toFixed(1)} cm`;
+    const depths = c.approximations.find((x) => x.code === 'modulated-depths') ?? { code: 'modulated-depths', values: { source: m.depthSource } };
+    return (
+      `MU-weighted over ${m.segments} segments (gantry ${m.gantryStartDeg.toFixed(0)}° to ${m.gantryEndDeg.toFixed(0)}°): depth ` +
+      `${c.depthCm.toFixed(2)} cm (${m.depthRangeCm[0].toFixed(2)} to ${m.depthRangeCm[1].toFixed(2)} cm), ` +
+      `${noteText(depths).replace(/^depths /, '')}, SSD ${c.ssdCm.toFixed(1)} cm`
+    );
   }
   if (c.ct) return `Depth ${c.depthCm.toFixed(2)} cm along the ray from the body surface in the CT (SSD along the ray ${c.ssdCm.toFixed(1)} cm)`;
   return `Depth ${c.depthCm.toFixed(2)} cm below a flat surface at SSD ${c.ssdCm.toFixed(1)} cm`;

@@ -23,11 +23,11 @@ const wrapped = (lines: readonly string[]) => lines.flatMap((l) => wrap(l, WIDTH
 export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] {
   const out: string[] = [];
   out.push(
-    `RT Plan "${p.planLabel}"${p.planName ? ` (${p.planName})` : ''}, patient ${p.patientId ?? '—'}: ${p.issues.length ? 'REFUSED (input error)' : p.verdict.toUpperCase()}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
+    `RT Plan "${p.planLabel}"${p.planName ? ` (${p.planName})` : ''}, patient ${p.patientId ?? '—'}: ` +
+      `${p.issues.length ? 'REFUSED (input error)' : p.verdict.toUpperCase()}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
   );
-  out.push(
-    `  file ${p.file}, SHA-256 ${p.fileSha256.slice(0, 16)}…${p.machine ? `; machine ${p.machine.planName} → beam data ${p.machine.dataName} (${p.machine.via})` : ''}`,
-  );
+  const machine = p.machine ? `; machine ${p.machine.planName} → beam data ${p.machine.dataName} (${p.machine.via})` : '';
+  out.push(`  file ${p.file}, SHA-256 ${p.fileSha256.slice(0, 16)}…${machine}`);
   for (const g of p.fractionGroups) {
     out.push(`  fraction group ${g.number}${g.fractionsPlanned !== undefined ? `, ${g.fractionsPlanned} fractions` : ''} (doses per fraction)`);
     out.push(...beamTable(g).map((l) => `    ${l}`));
@@ -35,11 +35,14 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
     for (const t of g.totals) {
       const rx =
         t.prescriptionPerFractionCGy !== undefined
-          ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy (independent ${signed(t.independentVsPrescriptionPercent)} %, planning system ${signed(t.planningSystemVsPrescriptionPercent)} %)`
+          ? `; prescription ${t.prescriptionPerFractionCGy.toFixed(1)} cGy (independent ${signed(t.independentVsPrescriptionPercent)} %, planning ` +
+            `system ${signed(t.planningSystemVsPrescriptionPercent)} %)`
           : '';
       const grid = t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${t.doseGridCGy.toFixed(1)} cGy` : '';
       out.push(
-        `    total at ${mm(t.pointPatientMm)}, beams ${t.beams.join(', ')}: independent ${t.independentDoseCGy.toFixed(1)} cGy, planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy, ${signed(t.deviationPercent)} %${rx}${grid}${t.complete ? '' : ' (incomplete: some beams at this point not checked)'}`,
+        `    total at ${mm(t.pointPatientMm)}, beams ${t.beams.join(', ')}: independent ${t.independentDoseCGy.toFixed(1)} cGy, planning system ` +
+          `${t.planningSystemDoseCGy.toFixed(1)} cGy, ${signed(t.deviationPercent)} ` +
+          `%${rx}${grid}${t.complete ? '' : ' (incomplete: some beams at this point not checked)'}`,
       );
     }
   }
@@ -47,7 +50,8 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
     const grid =
       t.doseGridCGy !== undefined ? `; planning system's dose grid (${t.doseGridSummation}) ${(t.doseGridCGy / CGY_PER_GY).toFixed(2)} Gy` : '';
     out.push(
-      `  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / CGY_PER_GY).toFixed(2)} Gy, planning system ${(t.planningSystemDoseCGy / CGY_PER_GY).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`,
+      `  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / CGY_PER_GY).toFixed(2)} Gy, planning system ` +
+        `${(t.planningSystemDoseCGy / CGY_PER_GY).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`,
     );
   }
   const notes: string[] = [];
@@ -66,8 +70,12 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
       notes.push(`${who}: the planning system's per-beam dose grid gives ${b.doseGridCGy.toFixed(1)} cGy at the point`);
     if (b.fitness.suggestion) {
       const s = b.fitness.suggestion;
+      const dose = b.suggestedPoint
+        ? `: independent dose there ${b.suggestedPoint.independentDoseCGy.toFixed(1)} cGy (the planning system's dose there is not in the plan)`
+        : '';
       notes.push(
-        `${who}: a better point at the same depth: ${mm(s.patientMm)} (${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${b.suggestedPoint ? `: independent dose there ${b.suggestedPoint.independentDoseCGy.toFixed(1)} cGy (the planning system's dose there is not in the plan)` : ''}`,
+        `${who}: a better point at the same depth: ${mm(s.patientMm)} ` +
+          `(${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${dose}`,
       );
     }
     if (b.calculation.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation.planningSystemDepths)}`);
@@ -108,7 +116,8 @@ export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors
       'to look at:',
       ...attention.map(
         (p) =>
-          `  "${p.planLabel}" (${p.file}): ${p.issues.length ? 'refused (input error)' : p.verdict}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
+          `  "${p.planLabel}" (${p.file}): ` +
+          `${p.issues.length ? 'refused (input error)' : p.verdict}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
       ),
     );
   }

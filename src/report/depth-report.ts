@@ -62,7 +62,8 @@ export function depthText(doc: DepthDocument): string[] {
     b.problem ? noteText(b.problem) : '',
   ]);
   return [
-    `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ${doc.ct.densityTable}`,
+    `Depths from the CT for ${doc.plan}: series ${doc.ct.seriesInstanceUid} (${doc.ct.slices} slices), body ${doc.ct.body}, densities from ` +
+      `${doc.ct.densityTable}`,
     ...textTable(
       [
         'beam',
@@ -87,7 +88,8 @@ export function depthText(doc: DepthDocument): string[] {
       .filter((b, i) => doc.beams.findIndex((x) => x.beamNumber === b.beamNumber) === i)
       .map(
         (b) =>
-          `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm (${pointText(b.point)})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`,
+          `  beam ${b.beamNumber}: point ${b.point.patientMm.map((v) => v.toFixed(1)).join(', ')} mm ` +
+          `(${pointText(b.point)})${b.entryPatientMm ? `; enters at ${b.entryPatientMm.map((v) => v.toFixed(1)).join(', ')} mm` : ''}`,
       ),
     '',
     CAUTION,

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { type ElectronBeamModel, type ElectronPointInput, type ElectronPointResult, factorLabel, type MachineModel } from '../model/index.js';
 import { CAUTION } from './caution.js';
+import { clampText } from './note-text.js';
 import { handCalculation } from './hand-calculation.js';
 
 export interface ElectronCalcReport {
@@ -24,14 +25,15 @@ const fieldText = (f: ElectronPointInput['field']) =>
 export function electronCalcText(r: ElectronCalcReport): string[] {
   return [
     'Point dose calculation, electron beam (AAPM TG-71 formalism)',
-    `  machine ${r.machine.name}, beam ${r.beam.id} (${r.beam.nominalEnergyMeV} MeV), beam data version ${r.machine.version}${r.machine.invented ? ' — INVENTED DEMO DATA, never for a patient' : ''}`,
+    `  machine ${r.machine.name}, beam ${r.beam.id} (${r.beam.nominalEnergyMeV} MeV), beam data version ` +
+      `${r.machine.version}${r.machine.invented ? ' — INVENTED DEMO DATA, never for a patient' : ''}`,
     `  applicator ${r.input.applicatorId}, ${fieldText(r.input.field)}`,
-    `  depth ${r.input.depthCm.toFixed(2)} cm${r.isodosePercent !== undefined ? ` (the depth of the ${r.isodosePercent} % isodose on the central axis)` : ''}, SSD ${r.input.ssdCm} cm (air gap ${r.result.airGapCm.toFixed(1)} cm, effective SSD ${r.result.effectiveSsdCm.toFixed(1)} cm)`,
+    `  depth ${r.input.depthCm.toFixed(2)} cm` +
+      `${r.isodosePercent !== undefined ? ` (the depth of the ${r.isodosePercent} % isodose on the central axis)` : ''}, SSD ${r.input.ssdCm} cm ` +
+      `(air gap ${r.result.airGapCm.toFixed(1)} cm, effective SSD ${r.result.effectiveSsdCm.toFixed(1)} cm)`,
     '',
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
-    ...r.result.clamps.map(
-      (n) => `  note: ${n.table}: ${n.axis} ${n.requested.toFixed(2)} ${n.unit} clamped to ${n.used} ${n.unit}, as the beam data allow`,
-    ),
+    ...r.result.clamps.map((n) => `  note: ${clampText(n)}, as the beam data allow`),
     '',
     CAUTION,
   ];

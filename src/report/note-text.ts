@@ -10,7 +10,7 @@ const f1 = (v: Values, k: string) => n(v, k).toFixed(1);
 const where = (v: Values) => (v.controlPoint === undefined ? '' : `control points ${n(v, 'controlPoint')}–${n(v, 'controlPoint') + 1}: `);
 
 /** How each heterogeneity method (or electron depth rule) is named. */
-export const CT_METHOD_TEXT: Readonly<Record<string, string>> = {
+const CT_METHOD_TEXT: Readonly<Record<string, string>> = {
   'tpr-ratio': 'the TPR ratio (effective path length)',
   batho: "Batho's power law (generalized, TPR form)",
   'electron-radiological-depth': 'the PDD at the radiological depth (equivalent thickness by relative electron density)',
@@ -40,7 +40,10 @@ function ctRefusalText(v: Values): string {
     case 'point-outside-ct':
       return `the point lies outside the CT: the ray leaves the CT ${f1(v, 'gapMm')} mm before it, with no densities there`;
     case 'field-of-view-cuts-body':
-      return `the first CT voxel the ray meets is already at or above the body threshold (${n(v, 'bodyThresholdHu')} HU): the CT's field of view cuts the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface`;
+      return (
+        `the first CT voxel the ray meets is already at or above the body threshold (${n(v, 'bodyThresholdHu')} HU): the CT's field of view cuts ` +
+        `the body (or the couch) there, so the surface and the SSD are unknown; an EXTERNAL structure would give the surface`
+      );
     case 'external-outside-ct':
       return `the ray enters the EXTERNAL contour ${f1(v, 'gapMm')} mm before it enters the CT: the CT does not cover the body there`;
     default:
@@ -96,7 +99,10 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
     const blocks = n(v, 'blocks');
     const what = [n(v, 'mlc') ? 'MLC' : '', blocks ? `${blocks} block(s)` : ''].filter(Boolean).join(' and ');
     const bt = Array.isArray(v.blockTransmissions) ? v.blockTransmissions.join(', ') : '';
-    return `irregular field (${what}) by Clarkson integration over ${n(v, 'sectors')} sectors; leaf transmission ${n(v, 'leafTransmission')}${blocks ? `, block transmission as the plan states (${bt})` : ''}`;
+    return (
+      `irregular field (${what}) by Clarkson integration over ${n(v, 'sectors')} sectors; leaf transmission ` +
+      `${n(v, 'leafTransmission')}${blocks ? `, block transmission as the plan states (${bt})` : ''}`
+    );
   },
   'wedge-profile-not-applied': (v) =>
     `the wedge profile is not applied: orientation ${s(v, 'orientationDeg')}° is not 0, 90, 180 or 270, or the beam data do not say where the heel points`,
@@ -106,7 +112,8 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'table-pitch-roll-ignored': () => 'table top pitch and roll are ignored',
   'batho-interface-in-build-up': (v) => `an interface ${f1(v, 'distanceCm')} cm upstream of the point, within dmax: Batho's law is not defined there`,
   'modulated-clarkson': (v) =>
-    `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${n(v, 'segments')} segments between ${n(v, 'controlPoints')} control points, ` +
+    `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${n(v, 'segments')} segments between ${n(v, 'controlPoints')} ` +
+    `control points, ` +
     `each with its own aperture, gantry angle and depth, weighted by its MU share; ${n(v, 'sectors')} sectors, leaf transmission ${n(v, 'leafTransmission')}`,
   'modulated-depths': (v) => `depths ${(DEPTH_SOURCE[s(v, 'source')] ?? (() => s(v, 'source')))(v)}`,
   'modulated-heterogeneity': (v) =>
@@ -116,7 +123,8 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'electron-cutout': (v) =>
     `${(CUTOUT[s(v, 'cutout')] ?? (() => s(v, 'cutout')))(v)}${v.effectiveSsdCm === undefined ? '' : `; effective SSD ${f1(v, 'effectiveSsdCm')} cm`}`,
   'electron-extended-ssd': (v) =>
-    `extended SSD: the PDD measured at ${n(v, 'measuredSsdCm')} cm is used at ${f1(v, 'ssdCm')} cm, with the inverse square of the effective SSD for the air gap`,
+    `extended SSD: the PDD measured at ${n(v, 'measuredSsdCm')} cm is used at ${f1(v, 'ssdCm')} cm, with the inverse square of the effective SSD for ` +
+    `the air gap`,
   'electron-off-axis': (v) =>
     `the point is ${f1(v, 'offAxisCm')} cm from the central axis: electron doses are central-axis values (no off-axis ratio)`,
   'outside-field': (v) => `the point lies outside the field (${f1(v, 'beyondCm')} cm beyond its edge)`,

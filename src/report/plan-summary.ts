@@ -19,22 +19,25 @@ export function planSummary(plan: Plan, source: PlanSource, warnings: readonly I
     `RT Plan "${plan.label}"${plan.name && plan.name !== plan.label ? ` (${plan.name})` : ''}${date}, ${plan.approvalStatus ?? 'approval status not given'}`,
   );
   out.push(
-    `  file: ${source.file} (${TRANSFER_SYNTAX_NAMES[source.transferSyntaxUid] ?? source.transferSyntaxUid}${source.hasPart10Header ? '' : ', no Part-10 header'})`,
+    `  file: ${source.file} (${TRANSFER_SYNTAX_NAMES[source.transferSyntaxUid] ?? source.transferSyntaxUid}` +
+      `${source.hasPart10Header ? '' : ', no Part-10 header'})`,
   );
   out.push(`  patient: ${plan.patient.id ?? '—'}, ${plan.patient.name ?? '—'}`);
-  out.push(
-    `  setups: ${plan.patientSetups.map((s) => `${s.number} ${s.position ?? s.additionalPosition ?? '—'}${s.setupTechnique ? ` ${s.setupTechnique}` : ''}`).join('; ') || '—'}`,
-  );
+  const setup = (s: (typeof plan.patientSetups)[number]) =>
+    `${s.number} ${s.position ?? s.additionalPosition ?? '—'}${s.setupTechnique ? ` ${s.setupTechnique}` : ''}`;
+  out.push(`  setups: ${plan.patientSetups.map(setup).join('; ') || '—'}`);
   for (const d of plan.doseReferences) {
     const rx = d.targetPrescriptionDoseGy !== undefined ? `, prescription ${fixed(d.targetPrescriptionDoseGy, 3)} Gy` : '';
     out.push(
-      `  dose reference ${d.number}${d.description ? ` "${d.description}"` : ''}: ${d.type ?? '—'} ${d.structureType}${d.pointPatientMm ? ` at ${point(d.pointPatientMm)}` : ''}${rx}`,
+      `  dose reference ${d.number}${d.description ? ` "${d.description}"` : ''}: ${d.type ?? '—'} ` +
+        `${d.structureType}${d.pointPatientMm ? ` at ${point(d.pointPatientMm)}` : ''}${rx}`,
     );
   }
   const beamsByNumber = new Map(plan.beams.map((b) => [b.number, b]));
   for (const g of plan.fractionGroups) {
     out.push(
-      `  fraction group ${g.number}${g.description ? ` "${g.description}"` : ''}: ${g.fractionsPlanned ?? '—'} fractions, ${g.beams.length} beam(s)${g.beamDoseMeaning ? `, beam dose ${g.beamDoseMeaning}` : ''}`,
+      `  fraction group ${g.number}${g.description ? ` "${g.description}"` : ''}: ${g.fractionsPlanned ?? '—'} fractions, ${g.beams.length} ` +
+        `beam(s)${g.beamDoseMeaning ? `, beam dose ${g.beamDoseMeaning}` : ''}`,
     );
     const rows = g.beams.map((rb) => {
       const b = beamsByNumber.get(rb.beamNumber);

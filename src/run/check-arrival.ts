@@ -3,6 +3,7 @@ import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
 import { type DoseGrid, type Result, note, type Note, type PlanCheck } from '../model/index.js';
 import { loadPatientCts } from './patient-cts.js';
+import { withWarnings } from './with-warnings.js';
 
 /** The objects that arrived with a plan in its frame of reference: CT slices, a structure set, RT Doses. */
 export interface Companions {
@@ -71,6 +72,5 @@ export function checkArrivedPlan(
       ...(companions.doseGrids.length ? { doseGrids: companions.doseGrids } : {}),
     },
   );
-  const warnings = companions.warnings;
-  return { ok: true, value: { result: warnings.length ? { ...result, warnings: [...result.warnings, ...warnings] } : result, machine } };
+  return { ok: true, value: { result: withWarnings(result, companions.warnings), machine } };
 }

@@ -4,6 +4,7 @@ import { checkPlan, type CheckOptions } from '../check/index.js';
 import { importPlanBytes } from '../dicom/index.js';
 import { type Issue, note, type PlanCheck } from '../model/index.js';
 import type { CollectedFile } from './collect-files.js';
+import { withWarnings } from './with-warnings.js';
 
 /** A file's plan result, or why it was refused (nothing: a non-plan found in a folder). */
 export interface FileOutcome {
@@ -42,5 +43,5 @@ export function checkFile(
     cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && singlePlan ? cts[0] : undefined);
   const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, { ...options, ...(own ? { ct: own } : {}) });
   const planWarnings = cts.length && !own ? [note('no-ct-in-frame')] : [];
-  return { plan: planWarnings.length ? { ...checked, warnings: [...checked.warnings, ...planWarnings] } : checked, refused: [] };
+  return { plan: withWarnings(checked, planWarnings), refused: [] };
 }

@@ -81,7 +81,8 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
     const plans = group.filter((e) => e.summary.kind === 'plan');
     if (plans.length === 0 && quietMs >= ctx.config.orphanHours * 3_600_000) {
       ctx.log(
-        `${group.length} object(s) (${[...new Set(group.map((e) => e.summary.kind))].join(', ')}) waited ${ctx.config.orphanHours} h for a plan in their frame of reference: archived unchecked`,
+        `${group.length} object(s) (${[...new Set(group.map((e) => e.summary.kind))].join(', ')}) waited ${ctx.config.orphanHours} h for a plan in ` +
+          `their frame of reference: archived unchecked`,
       );
       for (const e of group) archive(ctx, e);
       continue;

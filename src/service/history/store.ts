@@ -130,7 +130,8 @@ export class HistoryStore {
     const r = c.result;
     const info = this.db
       .prepare(`INSERT INTO checks (recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
-        beam_data_version, beam_data_sha256, inputs_json, result_json, html) VALUES (@recordedAt, @sop, @sha, @label, @patient, @machine, @verdict, @full, @tool, @bdv, @bds, @inputs, @result, @html)`)
+        beam_data_version, beam_data_sha256, inputs_json, result_json, html)
+        VALUES (@recordedAt, @sop, @sha, @label, @patient, @machine, @verdict, @full, @tool, @bdv, @bds, @inputs, @result, @html)`)
       .run({
         recordedAt: c.recordedAt,
         sop: r.sopInstanceUid,

@@ -55,14 +55,17 @@ export function listPage(
       (
         c,
       ) => `<tr data-check="${c.id}"><td>${esc(c.recordedAt.replace('T', ' ').slice(0, 16))}</td><td><a href="/check/${c.id}">${esc(c.planLabel)}</a></td>
-<td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
+<td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td
+class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
     )
     .join('');
   return page(
     'Checked plans',
     `<p class="counts">${counts}</p>${filters}
-<table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
-<h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system; the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
+<table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully
+verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
+<h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system;
+the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
 ${trendCharts(trend)}`,
   );
 }
@@ -83,33 +86,55 @@ export function trendCharts(points: readonly TrendPoint[]): string {
       const x = (t: number) => pad + ((t - t0) / span) * (w - 2 * pad);
       const y = (v: number) => h - pad / 2 - ((v - lo) / (hi - lo)) * (h - pad);
       const line = (v: number, label: string, dash: string, left = false) =>
-        `<line class="limit" x1="${pad}" x2="${w - pad}" y1="${y(v).toFixed(1)}" y2="${y(v).toFixed(1)}" stroke="#555" stroke-dasharray="${dash}"/><text x="${left ? 2 : w - pad + 4}" y="${(y(v) + 4).toFixed(1)}">${esc(label)}</text>`;
+        `<line class="limit" x1="${pad}" x2="${w - pad}" y1="${y(v).toFixed(1)}" y2="${y(v).toFixed(1)}" stroke="#555" ` +
+        `stroke-dasharray="${dash}"/><text x="${left ? 2 : w - pad + 4}" y="${(y(v) + 4).toFixed(1)}">${esc(label)}</text>`;
       const summary = lim
         ? `mean ${lim.mean.toFixed(2)} %, σ ${lim.sigma.toFixed(2)} %, limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`
         : 'fewer than two points: no control limits';
       const outside = lim ? pts.filter((p) => p.deviationPercent < lim.lower || p.deviationPercent > lim.upper).length : 0;
-      return `<figure class="trend" data-series="${esc(name)}"><figcaption>${esc(name)}: ${pts.length} beam(s); ${esc(summary)}${outside ? `; ${outside} outside the limits` : ''}</figcaption>
+      return (
+        `<figure class="trend" data-series="${esc(name)}"><figcaption>${esc(name)}: ${pts.length} beam(s); ` +
+        `${esc(summary)}${outside ? `; ${outside} outside the limits` : ''}</figcaption>
 <svg role="img" aria-label="${esc(`deviation trend ${name}`)}" width="${w + 80}" height="${h}" viewBox="0 0 ${w + 80} ${h}">
-${line(0, '0 %', '1 3', true)}${lim ? line(lim.mean, `mean ${lim.mean.toFixed(1)} %`, '6 3') + line(lim.upper, `+3σ ${lim.upper.toFixed(1)} %`, '2 2') + line(lim.lower, `−3σ ${lim.lower.toFixed(1)} %`, '2 2') : ''}
-${pts.map((p) => `<circle class="point" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.deviationPercent).toFixed(1)}" r="3" fill="#1b1b1b"><title>${esc(`${new Date(p.atMs).toISOString().slice(0, 16)}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`).join('')}
-</svg></figure>`;
+${line(0, '0 %', '1 3', true)}${
+  lim
+    ? line(lim.mean, `mean ${lim.mean.toFixed(1)} %`, '6 3') +
+      line(lim.upper, `+3σ ${lim.upper.toFixed(1)} ` + `%`, '2 2') +
+      line(lim.lower, `−3σ ${lim.lower.toFixed(1)} %`, '2 2')
+    : ''
+}
+${pts
+  .map(
+    (p) =>
+      `<circle class="point" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.deviationPercent).toFixed(1)}" r="3" ` +
+      `fill="#1b1b1b"><title>${esc(`${new Date(p.atMs).toISOString().slice(0, 16)}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`,
+  )
+  .join('')}
+</svg></figure>`
+      );
     })
     .join('');
 }
 
 /** One check: its summary, the reviews so far, the review form, and the report itself (as `check --html` writes it). */
+/** One review as a list item: when, who, the decision and the comment. */
+function reviewItem(r: ReviewRecord): string {
+  const comment = r.comment ? ` — ${esc(r.comment)}` : '';
+  return `<li>${esc(r.reviewedAt.replace('T', ' ').slice(0, 16))} — ${esc(r.reviewer)}: <b>${r.accepted ? 'accepted' : 'not accepted'}</b>${comment}</li>`;
+}
+
 export function checkPage(record: CheckRecord, result: StoredResult, reviews: readonly ReviewRecord[]): string {
-  const list = reviews.length
-    ? `<ul id="reviews">${reviews.map((r) => `<li>${esc(r.reviewedAt.replace('T', ' ').slice(0, 16))} — ${esc(r.reviewer)}: <b>${r.accepted ? 'accepted' : 'not accepted'}</b>${r.comment ? ` — ${esc(r.comment)}` : ''}</li>`).join('')}</ul>`
-    : '<p id="reviews">No review yet.</p>';
+  const list = reviews.length ? `<ul id="reviews">${reviews.map(reviewItem).join('')}</ul>` : '<p id="reviews">No review yet.</p>';
   return page(
     `${result.planLabel}: ${result.verdict}`,
     `<p>Recorded ${esc(record.recordedAt)}; patient ${esc(record.patientId ?? '—')}; machine ${esc(record.machine ?? '—')};
-${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; beam data ${esc(record.beamDataVersion ?? '—')}; plumbline ${esc(record.toolVersion)}.</p>
+${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; beam data ${esc(record.beamDataVersion ?? '—')}; plumbline
+${esc(record.toolVersion)}.</p>
 <h2>Reviews</h2>${list}
 <form id="review" method="post" action="/check/${record.id}/review">
 <label>reviewer <input name="reviewer" required maxlength="64"></label>
-<label><input type="radio" name="accepted" value="yes" required> accepted</label> <label><input type="radio" name="accepted" value="no"> not accepted</label><br>
+<label><input type="radio" name="accepted" value="yes" required> accepted</label> <label><input type="radio" name="accepted" value="no"> not
+accepted</label><br>
 <label>comment <input name="comment" size="60" maxlength="500"></label> <button type="submit">add review</button></form>
 <p>A review is added as a new record; nothing already recorded is ever changed.</p>
 <h2>Report</h2><iframe title="report" src="/check/${record.id}/report"></iframe>`,

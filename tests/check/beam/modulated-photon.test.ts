@@ -6,14 +6,8 @@
  * depth, so the arc gives the static dose at that depth; with a CT of a water cylinder, traced per
  * control point, to within the voxel size).
  */
-import { mkdirSync, mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { writeCtPhantom } from '../../../scripts/fixtures/ct-phantom.js';
-import { loadDensityTable } from '../../../src/beamdata/index.js';
-import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
-import { readCtSeries } from '../../../src/dicom/index.js';
+import { checkPlan, DEFAULT_POLICY } from '../../../src/check/index.js';
 import {
   type BeamSpec,
   type ControlPointSpec,
@@ -24,9 +18,10 @@ import {
   staticBeam,
 } from '../../../scripts/fixtures/plan-parts.js';
 import type { BeamCheck } from '../../../src/model/index.js';
+import { phantomCt } from '../../helpers/phantom-ct.js';
 import { beams, check, importOrThrow, planFromSpec } from '../../helpers/check-run.js';
 import { demoPlan } from '../../helpers/fixtures.js';
-import { DEMO_MANIFEST, beam as dataBeam, machine, manifestPath } from '../../helpers/machines.js';
+import { DEMO_MANIFEST, beam as dataBeam, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
@@ -133,29 +128,20 @@ describe('modulated beams (modified Clarkson integration)', () => {
       doseCoefficient: j / (n - 1),
     }));
     const { plan } = planFromSpec(spec('cylinder-arc-ct', { ...field, dynamic: true, controlPoints: cps }));
-    const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-cyl-')), 'ct');
-    mkdirSync(dir);
     // Voxel centres at odd millimetres, so the cylinder's surface falls between them within 1 mm.
-    const files = writeCtPhantom(dir, {
-      name: 'cyl',
-      columns: 128,
-      rows: 128,
-      slices: 40,
-      spacingMm: [2, 2, 2],
-      originMm: [-127, -127, -39],
-      frameOfReferenceUid: plan.frameOfReferenceUid!,
-      hu: (x, y) => (x * x + y * y <= 100 * 100 ? 0 : -1000),
-    });
-    const volume = readCtSeries(files);
-    const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
-    if (!volume.ok || !table.ok) throw new Error('phantom');
-    const ct: PatientCt = {
-      volume: volume.value,
-      density: table.value.density,
-      densityTable: 'demo',
-      bodyThresholdHu: -400,
-      bodySource: 'HU >= -400',
-    };
+    const ct = phantomCt(
+      {
+        name: 'cyl',
+        columns: 128,
+        rows: 128,
+        slices: 40,
+        spacingMm: [2, 2, 2],
+        originMm: [-127, -127, -39],
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        hu: (x, y) => (x * x + y * y <= 100 * 100 ? 0 : -1000),
+      },
+      -400,
+    );
     const r = beams(
       checkPlan(plan, { path: 'arc.dcm', sha256: '' }, { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct }),
     )[0]!;

@@ -4,18 +4,13 @@
  * Check values: the TPR-ratio correction's definition, CF = TPR(d_eff)/TPR(d) (common practice, no
  * source); the phantom's depths follow from its geometry.
  */
-import { mkdirSync, mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { writeCtPhantom } from '../../../scripts/fixtures/ct-phantom.js';
 import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
-import { loadDensityTable } from '../../../src/beamdata/index.js';
-import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
-import { readCtSeries } from '../../../src/dicom/index.js';
+import { checkPlan, DEFAULT_POLICY } from '../../../src/check/index.js';
 import type { LookupLog, MachineModel } from '../../../src/model/index.js';
+import { phantomCt } from '../../helpers/phantom-ct.js';
 import { beams, planFromSpec } from '../../helpers/check-run.js';
-import { DEMO_MANIFEST, machine, manifestPath } from '../../helpers/machines.js';
+import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 
@@ -51,29 +46,20 @@ describe('a static photon beam through the CT', () => {
       fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
       beams: [staticBeam(1, 'AP', 6, 0, 900, iso, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } })],
     });
-    const dir = join(mkdtempSync(join(tmpdir(), 'plumbline-half-')), 'ct');
-    mkdirSync(dir);
     // A box of density about 0.5 from 100 mm above the isocenter down: geometric depth 10 cm, radiological about 5 cm.
-    const files = writeCtPhantom(dir, {
-      name: 'half',
-      columns: 64,
-      rows: 64,
-      slices: 20,
-      spacingMm: [4, 4, 4],
-      originMm: [-126, -126, -38],
-      frameOfReferenceUid: plan.frameOfReferenceUid!,
-      hu: (_x, y) => (y >= -100 && y <= 100 ? -500 : -1000),
-    });
-    const volume = readCtSeries(files);
-    const table = loadDensityTable(manifestPath('fixtures/demo/ct/hu-to-density.csv'));
-    if (!volume.ok || !table.ok) throw new Error('phantom');
-    const ct: PatientCt = {
-      volume: volume.value,
-      density: table.value.density,
-      densityTable: 'demo',
-      bodyThresholdHu: -600,
-      bodySource: 'HU >= -600',
-    };
+    const ct = phantomCt(
+      {
+        name: 'half',
+        columns: 64,
+        rows: 64,
+        slices: 20,
+        spacingMm: [4, 4, 4],
+        originMm: [-126, -126, -38],
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        hu: (_x, y) => (y >= -100 && y <= 100 ? -500 : -1000),
+      },
+      -600,
+    );
     const b = beams(
       checkPlan(
         plan,
