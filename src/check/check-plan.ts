@@ -1,5 +1,6 @@
 import type { HeterogeneityMethod } from '../physics/index.js';
 import {
+  type BeamCheck,
   type CalculatedBeam,
   type DoseGrid,
   type FractionGroup,
@@ -12,7 +13,7 @@ import {
   type Plan,
   type PlanCheck,
   type ReferencedBeam,
-  type Verdict,
+  type PlanVerdict,
 } from '../model/index.js';
 import { isSupportedPosition, unsupportedReason } from './beam-support.js';
 import { checkBeam, notCheckedBeam } from './beam/index.js';
@@ -40,12 +41,29 @@ export interface CheckOptions {
   readonly heterogeneity?: HeterogeneityMethod;
 }
 
+/** The plan's file as read: where, its hash, and what its import warned of (carried into the result). */
+export interface PlanFile {
+  readonly path: string;
+  readonly sha256: string;
+  readonly importWarnings?: readonly Issue[];
+}
+
+/**
+ * The worst beam verdict; "not verified" in place of any milder one when a beam that delivers dose
+ * went unchecked or none was checked (a beam beyond its action level stays the headline).
+ */
+function planVerdict(beams: readonly BeamCheck[], fullyVerified: boolean): PlanVerdict {
+  let verdict: PlanVerdict = 'within tolerance';
+  for (const b of beams) if (b.status === 'checked') verdict = worst<PlanVerdict>(verdict, b.verdict);
+  return fullyVerified ? verdict : worst<PlanVerdict>(verdict, 'not verified');
+}
+
 /**
  * The independent check of one plan: every beam of every fraction group gets a dose or a reason
  * why not, a deviation from the planning system and a verdict; then the totals per point, per
  * fraction and over the course. A deviation beyond a level is a result, never an exception.
  */
-export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o: CheckOptions): PlanCheck {
+export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanCheck {
   const issues: Issue[] = [];
   const ctFrame = o.ct?.volume.frameOfReferenceUid;
   if (o.ct && ctFrame !== plan.frameOfReferenceUid) {
@@ -81,15 +99,12 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
   );
   const groups = attachDoseGrids(checkedGroups, grids);
   const all = groups.flatMap((g) => g.beams);
-  const notChecked = all.filter((b) => b.status !== 'checked').length;
-  const checked = all.length - notChecked;
-  let verdict: Verdict = 'within tolerance';
-  for (const b of all) if (b.status === 'checked') verdict = worst(verdict, b.verdict);
+  // A setup beam delivers no dose: it needs no check and leaves the plan verified.
+  const notChecked = all.filter((b) => b.status !== 'checked' && b.reason.code !== 'setup-beam').length;
+  const checked = all.filter((b) => b.status === 'checked').length;
+  const fullyVerified = notChecked === 0 && issues.length === 0 && checked > 0;
   const warnings: Note[] = [];
-  if (notChecked) {
-    verdict = worst(verdict, 'needs review');
-    warnings.push(note('beams-not-checked', { count: notChecked }));
-  }
+  if (notChecked) warnings.push(note('beams-not-checked', { count: notChecked }));
   if (checked === 0) warnings.push(note('no-beam-checked'));
   if (plan.approvalStatus !== 'APPROVED') warnings.push(note('approval-status', { status: plan.approvalStatus }));
   return {
@@ -108,9 +123,10 @@ export function checkPlan(plan: Plan, file: { path: string; sha256: string }, o:
         grids.find((g) => g.summationType === 'PLAN'),
       ),
     ),
-    verdict,
-    fullyVerified: notChecked === 0 && issues.length === 0 && checked > 0,
+    verdict: planVerdict(all, fullyVerified),
+    fullyVerified,
     issues,
+    importWarnings: [...(file.importWarnings ?? [])],
     warnings,
   };
 }

@@ -1,7 +1,7 @@
-import { Verdict } from '../model/index.js';
+import { PlanVerdict, type Verdict } from '../model/index.js';
 
-/** The model lists the verdicts in order of severity. */
-const ORDER: readonly Verdict[] = Verdict.options;
+/** The model lists the verdicts in order of severity; a beam's verdicts are a plan's but one. */
+const ORDER: readonly PlanVerdict[] = PlanVerdict.options;
 
 /** Within the tolerance; beyond the action level; or between the two. */
 export function verdictFor(deviationPercent: number, tolerancePercent: number, actionPercent: number): Verdict {
@@ -10,6 +10,6 @@ export function verdictFor(deviationPercent: number, tolerancePercent: number, a
   return d > actionPercent ? 'beyond action level' : 'needs review';
 }
 
-export function worst(a: Verdict, b: Verdict): Verdict {
+export function worst<V extends PlanVerdict>(a: V, b: V): V {
   return ORDER.indexOf(a) >= ORDER.indexOf(b) ? a : b;
 }

@@ -4,6 +4,7 @@ import type { Issue } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
 import { checkHtml } from '../report/check-html.js';
 import { checkText } from '../report/check-text.js';
+import { needsAttention } from '../report/plan-headline.js';
 import { beamDataStamp, checkDocument, checkFiles, collectFiles, loadCheckInputs } from '../run/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import type { CommandOutcome } from './outcome.js';
@@ -80,7 +81,7 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
     }
   }
   const inputError = refused.length > 0 || plans.some((p) => p.issues.length > 0);
-  const review = plans.some((p) => p.verdict !== 'within tolerance' || !p.fullyVerified);
+  const review = plans.some(needsAttention);
   const exitCode = inputError ? 2 : review ? 1 : 0;
   return {
     stdout: o.json ? [JSON.stringify(doc, null, 2)] : checkText(doc, { factors: o.factors }),

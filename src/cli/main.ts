@@ -138,7 +138,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     .description('the recorded checks, newest first')
     .requiredOption('--config <file>', configOption)
     .option('--since <date>', 'only checks recorded at or after this date (YYYY-MM-DD)')
-    .option('--verdict <verdict...>', "only these verdicts: 'within tolerance', 'needs review', 'beyond action level'")
+    .option('--verdict <verdict...>', "only these verdicts: 'within tolerance', 'needs review', 'not verified', 'beyond action level'")
     .option('--machine <name>', 'only this machine')
     .option('--json', 'print one versioned JSON document')
     .action(async (opts: Record<string, unknown>) => {

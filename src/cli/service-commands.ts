@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { formatIssue, Verdict } from '../model/index.js';
+import { formatIssue, PlanVerdict } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { fixed, textTable } from '../report/table.js';
 import { loadServiceConfig } from '../service/config.js';
@@ -56,7 +56,9 @@ export const HistoryOptions = z.object({
     .string()
     .regex(/^\d{4}-\d{2}-\d{2}(T[\d:.]+Z?)?$/, '--since must be a date (YYYY-MM-DD) or an ISO date-time')
     .optional(),
-  verdict: z.array(z.enum(Verdict.options, { message: "--verdict must be 'within tolerance', 'needs review' or 'beyond action level'" })).optional(),
+  verdict: z
+    .array(z.enum(PlanVerdict.options, { message: `--verdict must be one of ${PlanVerdict.options.map((v) => `'${v}'`).join(', ')}` }))
+    .optional(),
   machine: z.string().min(1).optional(),
   json: z.boolean().default(false),
 });

@@ -2,6 +2,7 @@ import type { DataSet, Element } from 'dicom-parser';
 import type { Issue, IssueCode, IssueSeverity } from '../model/issue.js';
 import { parseNumberBytes } from './decimal-string.js';
 import { ATTRIBUTES, type Keyword } from './dictionary.js';
+import { isPlausible, PLAUSIBLE, plausibleText } from './plausible-values.js';
 
 /** Where an item sits, for messages: the file, the attribute path, and the beam / control point. */
 export interface Scope {
@@ -37,9 +38,15 @@ export class ItemReader {
     return this.ds.elements[ATTRIBUTES[kw].tag] !== undefined;
   }
 
-  /** Present with a zero-length value (how DICOM writes an unknown type-2 attribute). */
+  /**
+   * Present with no value: zero-length (how DICOM writes an unknown type-2 attribute), or a text
+   * value of nothing but padding (spaces, NULs), which says no more.
+   */
   isEmpty(kw: Keyword): boolean {
-    return this.ds.elements[ATTRIBUTES[kw].tag]?.length === 0;
+    const el = this.ds.elements[ATTRIBUTES[kw].tag];
+    if (!el) return false;
+    if (el.length === 0) return true;
+    return STRING_VRS.has(el.vr ?? ATTRIBUTES[kw].vr) && this.rawText(el).replace(/[\s\0\\]/g, '') === '';
   }
 
   string(kw: Keyword): string | undefined {
@@ -103,7 +110,7 @@ export class ItemReader {
     if (vr === 'DS' || vr === 'IS') {
       const b = this.ds.byteArray;
       const parsed = parseNumberBytes(b, el.dataOffset, Math.min(el.dataOffset + el.length, b.length), vr === 'IS');
-      if (parsed.ok) return parsed.values;
+      if (parsed.ok) return this.plausible(kw, parsed.values);
       const where = parsed.count > 1 ? `value ${parsed.index + 1} of ${parsed.count}` : 'value';
       this.report(
         'error',
@@ -137,7 +144,17 @@ export class ItemReader {
       }
       out.push(v);
     }
-    return out;
+    return this.plausible(kw, out);
+  }
+
+  /** The values when each lies where a real plan's can (see plausible-values.ts), else an input error. */
+  private plausible(kw: Keyword, values: number[]): number[] | undefined {
+    const p = PLAUSIBLE[kw];
+    const bad = p ? values.findIndex((v) => !isPlausible(v, p)) : -1;
+    if (bad < 0) return values;
+    const where = values.length > 1 ? `value ${bad + 1} of ${values.length}` : 'the value';
+    this.report('error', 'physical-range', kw, `${where} is outside what a treatment can hold`, plausibleText(p!), `${values[bad]}`);
+    return undefined;
   }
 
   /** The items of a sequence; an absent or empty sequence gives []. */
@@ -162,6 +179,8 @@ export class ItemReader {
   report(severity: IssueSeverity, code: IssueCode, kw: Keyword | undefined, message: string, expected?: string, found?: string): void {
     const { file, path, beamNumber, beamName, controlPointIndex } = this.scope;
     const fullPath = kw ? `${path ? `${path}.` : ''}${kw}` : path;
+    // An attribute read twice (required, then carried) is one problem, said once.
+    if (this.issues.some((i) => i.path === fullPath && i.code === code && i.message === message && i.file === file)) return;
     const tag = kw ? ATTRIBUTES[kw].tag : undefined;
     const tagText = tag ? `(${tag.slice(1, 5).toUpperCase()},${tag.slice(5).toUpperCase()})` : undefined;
     this.issues.push({

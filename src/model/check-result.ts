@@ -6,6 +6,13 @@ import { IssueJson } from './issue-json.js';
 export const Verdict = z.enum(['within tolerance', 'needs review', 'beyond action level']);
 export type Verdict = z.infer<typeof Verdict>;
 
+/**
+ * A plan's headline, in order of severity: a beam's verdicts, and "not verified" when a beam that
+ * delivers dose could not be checked (or none was): such a plan is never called within tolerance.
+ */
+export const PlanVerdict = z.enum(['within tolerance', 'needs review', 'not verified', 'beyond action level']);
+export type PlanVerdict = z.infer<typeof PlanVerdict>;
+
 export const CaseCategory = z.enum(['on-axis-open', 'off-axis-or-wedged', 'irregular-or-small', 'large-ssd', 'heterogeneous', 'modulated']);
 export type CaseCategory = z.infer<typeof CaseCategory>;
 
@@ -215,9 +222,11 @@ export const PlanCheck = z.object({
   fractionGroups: z.array(FractionGroupCheck),
   /** Over the whole course, per point: Σ fractions × dose. */
   courseTotals: z.array(PointTotal),
-  verdict: Verdict,
+  verdict: PlanVerdict,
   fullyVerified: z.boolean(),
   issues: z.array(IssueJson),
+  /** What the import found questionable but not wrong (each also in the report). */
+  importWarnings: z.array(IssueJson),
   warnings: z.array(Note),
 });
 export type PlanCheck = z.infer<typeof PlanCheck>;

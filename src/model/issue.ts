@@ -18,7 +18,6 @@ export type IssueCode =
   | 'wrong-multiplicity'
   | 'unknown-reference'
   | 'duplicate'
-  | 'negative-meterset'
   | 'meterset-weight-decreasing'
   | 'jaws-crossed'
   | 'leaves-crossed'

@@ -1,7 +1,8 @@
-import type { BeamCheck, Calculation, CheckedBeam, PlanCheck } from '../model/index.js';
+import { type BeamCheck, type Calculation, type CheckedBeam, formatIssue, type PlanCheck } from '../model/index.js';
 import type { CheckDocument } from './check-json.js';
 import { escapeHtml as esc } from './html-escape.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
+import { planHeadline } from './plan-headline.js';
 import { planningDepthsText } from './planning-depths-text.js';
 import { fixed as n, pointMm as mm, signed } from './table.js';
 
@@ -108,7 +109,7 @@ planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationP
     .join('');
   return (
     `<section class="plan"><h2>RT Plan “${esc(p.planLabel)}”${p.planName ? ` (${esc(p.planName)})` : ''} — ` +
-    `${p.issues.length ? 'refused (input error)' : esc(p.verdict)}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}</h2>
+    `${esc(planHeadline(p))}</h2>
 <p>Patient ${esc(p.patientId ?? '—')}; SOP Instance UID ${esc(p.sopInstanceUid)}; file ${esc(p.file)}; SHA-256
 <code>${p.fileSha256}</code>${p.machine ? `; machine ${esc(p.machine.planName)} → ${esc(p.machine.dataName)} (${esc(p.machine.via)})` : ''}.</p>
 <table><thead><tr><th>FG</th><th>beam</th><th>name</th><th>energy</th><th>setup</th><th>depth cm</th><th>rc cm</th><th>irr cm</th><th>MU
@@ -117,6 +118,7 @@ ${totals ? `<ul>${totals}</ul>` : ''}
 ${deviationChart(beams.filter((b): b is CheckedBeam => b.status === 'checked'))}
 ${beams.map(handCalculation).join('\n')}
 ${p.warnings.length ? `<p class="note">${p.warnings.map((w) => esc(noteText(w))).join('<br>')}</p>` : ''}
+${p.importWarnings.length ? `<p class="note">${p.importWarnings.map((i) => esc(`import ${formatIssue(i)}`)).join('<br>')}</p>` : ''}
 ${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join('<br>')}</p>` : ''}</section>`
   );
 }
@@ -141,6 +143,7 @@ manifest ${esc(doc.beamData.manifest)}, SHA-256 of manifest and tables <code>${d
 Deviation = ${esc(doc.deviationDefinition)}. Policy: ${esc(doc.policy.description ?? 'custom')}.</p>
 <p>Summary: ${doc.summary.plans} plan(s), ${doc.summary.beamsChecked} beam(s) checked, ${doc.summary.beamsNotChecked} not checked;
 ${doc.summary.verdicts['within tolerance']} within tolerance, ${doc.summary.verdicts['needs review']} need review,
+${doc.summary.verdicts['not verified']} not verified,
 ${doc.summary.verdicts['beyond action level']} beyond action level; ${doc.summary.filesRefused} file(s) refused.</p>
 ${doc.plans.map(planSection).join('\n')}
 ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>${esc(i.file ?? '')}: ${esc(i.message)}</li>`).join('')}</ul>` : ''}

@@ -3,7 +3,7 @@ import { IssueJson, PlanCheck } from '../model/index.js';
 
 /** The `check --json` document. Bump schemaVersion on any change a consumer could notice. */
 export const CheckDocument = z.object({
-  schemaVersion: z.literal(2),
+  schemaVersion: z.literal(3),
   kind: z.literal('plumbline.check'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   createdAt: z.string(),
@@ -20,7 +20,12 @@ export const CheckDocument = z.object({
     beamsChecked: z.number(),
     beamsNotChecked: z.number(),
     filesRefused: z.number(),
-    verdicts: z.object({ 'within tolerance': z.number(), 'needs review': z.number(), 'beyond action level': z.number() }),
+    verdicts: z.object({
+      'within tolerance': z.number(),
+      'needs review': z.number(),
+      'not verified': z.number(),
+      'beyond action level': z.number(),
+    }),
   }),
   caution: z.string(),
 });

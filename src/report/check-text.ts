@@ -3,6 +3,7 @@ import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import { beamTable, FACTOR_LEGEND, factorTable } from './beam-tables.js';
 import type { CheckDocument } from './check-json.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
+import { needsAttention, planHeadline } from './plan-headline.js';
 import { planningDepthsText } from './planning-depths-text.js';
 import { pointMm as mm, signed, wrap } from './table.js';
 
@@ -22,10 +23,7 @@ const wrapped = (lines: readonly string[]) => lines.flatMap((l) => wrap(l, WIDTH
 /** One plan as a physicist reads it: a row per beam, the totals, the point used, the notes. */
 export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] {
   const out: string[] = [];
-  out.push(
-    `RT Plan "${p.planLabel}"${p.planName ? ` (${p.planName})` : ''}, patient ${p.patientId ?? '—'}: ` +
-      `${p.issues.length ? 'REFUSED (input error)' : p.verdict.toUpperCase()}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
-  );
+  out.push(`RT Plan "${p.planLabel}"${p.planName ? ` (${p.planName})` : ''}, patient ${p.patientId ?? '—'}: ` + planHeadline(p).toUpperCase());
   const machine = p.machine ? `; machine ${p.machine.planName} → beam data ${p.machine.dataName} (${p.machine.via})` : '';
   out.push(`  file ${p.file}, SHA-256 ${p.fileSha256.slice(0, 16)}…${machine}`);
   for (const g of p.fractionGroups) {
@@ -84,6 +82,7 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
   }
   if (notes.length) out.push('  notes:', ...notes.map((n) => `    - ${n}`));
   for (const w of p.warnings.map(noteText)) if (!o.saidOnce?.has(w)) out.push(`  warning: ${w}`);
+  for (const i of p.importWarnings) out.push(`  import ${formatIssue(i)}`);
   for (const i of p.issues) out.push(`  ${formatIssue(i)}`);
   return wrapped(out);
 }
@@ -105,21 +104,15 @@ export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors
   out.push(
     ...wrap(
       `summary: ${s.plans} plan(s), ${s.beamsChecked} beam(s) checked, ${s.beamsNotChecked} not checked; ${s.verdicts['within tolerance']} within tolerance, ` +
-        `${s.verdicts['needs review']} need review, ${s.verdicts['beyond action level']} beyond action level; ${s.filesRefused} file(s) refused`,
+        `${s.verdicts['needs review']} need review, ${s.verdicts['not verified']} not verified, ${s.verdicts['beyond action level']} beyond action level; ` +
+        `${s.filesRefused} file(s) refused`,
       WIDTH,
       '  ',
     ),
   );
-  const attention = doc.plans.filter((p) => p.issues.length || p.verdict !== 'within tolerance' || !p.fullyVerified);
+  const attention = doc.plans.filter(needsAttention);
   if (attention.length) {
-    out.push(
-      'to look at:',
-      ...attention.map(
-        (p) =>
-          `  "${p.planLabel}" (${p.file}): ` +
-          `${p.issues.length ? 'refused (input error)' : p.verdict}${p.fullyVerified || p.issues.length ? '' : ', not fully verified'}`,
-      ),
-    );
+    out.push('to look at:', ...attention.map((p) => `  "${p.planLabel}" (${p.file}): ${planHeadline(p)}`));
   }
   for (const i of doc.refused) out.push(...wrap(`refused: ${formatIssue(i)}`, WIDTH, '  '));
   out.push('', ...wrap(doc.caution, WIDTH, ''));

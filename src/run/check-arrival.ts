@@ -62,7 +62,7 @@ export function checkArrivedPlan(
   const ct = companions.ct && companions.ct.volume.frameOfReferenceUid === plan.frameOfReferenceUid ? companions.ct : undefined;
   const result = checkPlan(
     plan,
-    { path: `sha256:${sha256}`, sha256 },
+    { path: `sha256:${sha256}`, sha256, importWarnings: imported.warnings ?? [] },
     {
       machine: machine.machine,
       policy,

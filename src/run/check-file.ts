@@ -41,7 +41,7 @@ export function checkFile(
   const { cts, singlePlan, ...options } = o;
   const own =
     cts.find((c) => c.volume.frameOfReferenceUid === r.value.plan.frameOfReferenceUid) ?? (cts.length === 1 && singlePlan ? cts[0] : undefined);
-  const checked = checkPlan(r.value.plan, { path: f.path, sha256 }, { ...options, ...(own ? { ct: own } : {}) });
+  const checked = checkPlan(r.value.plan, { path: f.path, sha256, importWarnings: r.warnings ?? [] }, { ...options, ...(own ? { ct: own } : {}) });
   const planWarnings = cts.length && !own ? [note('no-ct-in-frame')] : [];
   return { plan: withWarnings(checked, planWarnings), refused: [] };
 }

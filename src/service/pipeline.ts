@@ -13,6 +13,7 @@ import {
   VERSION,
 } from '../run/index.js';
 import { checkHtml } from '../report/check-html.js';
+import { planHeadline } from '../report/plan-headline.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
 
@@ -139,7 +140,7 @@ function checkGroup(
       inputs,
       html: checkHtml(doc),
     });
-    ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${result.verdict}${result.fullyVerified ? '' : ', not fully verified'}`);
+    ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${planHeadline(result)}`);
     checked++;
   }
   return { checked, duplicates, refused };

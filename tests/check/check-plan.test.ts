@@ -96,3 +96,46 @@ describe('the calculation point', () => {
     expect(beams(r).every((b) => b.status === 'not checked')).toBe(true);
   });
 });
+
+describe('a plan is within tolerance only when every beam that delivers dose was checked', () => {
+  // Common practice, no source: an independent check that could not judge a beam has not verified the plan.
+  const brain = importOrThrow(clinic('brain-laterals.dcm'));
+
+  it('is within tolerance when both beams were checked and agree', () => {
+    const r = check(brain, demo);
+    expect([r.verdict, r.fullyVerified]).toEqual(['within tolerance', true]);
+  });
+
+  it('is "not verified" when it has no fraction group, so no beam could be checked', () => {
+    const r = check({ ...brain, fractionGroups: [] }, demo);
+    expect([r.verdict, r.fullyVerified]).toEqual(['not verified', false]);
+    expect(r.warnings.map((w) => w.code)).toContain('no-beam-checked');
+  });
+
+  it('is "not verified" when one beam could not be checked and the other agrees', () => {
+    const plan = { ...brain, beams: brain.beams.map((b, i) => (i === 1 ? { ...b, radiationType: 'PROTON' } : b)) };
+    const r = check(plan, demo);
+    expect(beams(r).map((b) => b.status)).toEqual(['checked', 'not checked']);
+    expect(r.verdict).toBe('not verified');
+  });
+
+  it('keeps "beyond action level" as the headline over "not verified"', () => {
+    const tangents = importOrThrow(clinic('breast-tangents.dcm'));
+    const plan = { ...tangents, beams: tangents.beams.map((b, i) => (i === 0 ? { ...b, radiationType: 'PROTON' } : b)) };
+    const r = check(plan, demo);
+    expect([r.verdict, r.fullyVerified]).toEqual(['beyond action level', false]);
+  });
+
+  it('a setup beam delivers no dose: it leaves the plan verified', () => {
+    const setup = { ...brain.beams[0]!, number: 99, name: 'SETUP', treatmentDeliveryType: 'SETUP' as const };
+    const g = brain.fractionGroups[0]!;
+    const plan = {
+      ...brain,
+      beams: [...brain.beams, setup],
+      fractionGroups: [{ ...g, beams: [...g.beams, { ...g.beams[0]!, beamNumber: 99, beamDoseGy: undefined }] }],
+    };
+    const r = check(plan, demo);
+    expect(beams(r).map((b) => b.status)).toEqual(['checked', 'checked', 'not checked']);
+    expect([r.verdict, r.fullyVerified]).toEqual(['within tolerance', true]);
+  });
+});

@@ -88,7 +88,7 @@ describe('missing and unreadable attributes', () => {
   });
   it('a negative Beam Meterset', () => {
     const f = writeVariant('wedged-pair.dcm', (ds) => (ds.FractionGroupSequence[0].ReferencedBeamSequence[0].BeamMeterset = '-188.3'));
-    expect(only(refused(f))).toMatchObject({ code: 'negative-meterset', beamNumber: 1, found: '-188.3' });
+    expect(only(refused(f))).toMatchObject({ code: 'physical-range', beamNumber: 1, found: '-188.3' });
   });
   it('a gantry angle that is not a number, deep in a control point', () => {
     const f = writeVariant('two-arc-vmat.dcm', (ds) => (ds.BeamSequence[0].ControlPointSequence[100].GantryAngle = '1O0.5'));

@@ -63,7 +63,7 @@ const KNOWN_CODES = new Set([
   'wrong-multiplicity',
   'unknown-reference',
   'duplicate',
-  'negative-meterset',
+  'physical-range',
   'meterset-weight-decreasing',
   'jaws-crossed',
   'leaves-crossed',

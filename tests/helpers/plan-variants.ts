@@ -12,7 +12,8 @@ let n = 0;
 export function writeVariant(planFile: string, mutate: (ds: any) => void): string {
   const spec = DEMO_PLAN_SPECS.find((p) => p.file === planFile);
   if (!spec) throw new Error(`no demo plan ${planFile}`);
-  const ds: Dataset = planDataset(spec);
+  // A copy: the specification's items are shared between calls, and one mutant must not leak into the next.
+  const ds: Dataset = structuredClone(planDataset(spec));
   mutate(ds);
   const out = join(work, `${n++}-${planFile}`);
   writeDataset(out, ds, RT_PLAN_STORAGE);

@@ -36,8 +36,6 @@ const REQUIRED_AT_FIRST: readonly (readonly [Keyword, string])[] = [
   ['PatientSupportAngle', 'the patient support (couch) angle (degrees)'],
 ];
 
-const ANGLES: readonly Keyword[] = ['GantryAngle', 'BeamLimitingDeviceAngle', 'PatientSupportAngle', 'TableTopEccentricAngle'];
-
 export interface BeamContext {
   readonly devices: readonly BeamLimitingDevice[];
   readonly wedgeNumbers: ReadonlySet<number>;
@@ -87,12 +85,6 @@ function readOne(cp: ItemReader, i: number, prev: ControlPoint | undefined, ctx:
   }
   if (i === 0) {
     for (const [kw, what] of REQUIRED_AT_FIRST) if (need(cp, kw, cp.number(kw), what) === undefined) ok = false;
-  }
-  for (const kw of ANGLES) {
-    const a = cp.number(kw);
-    if (a !== undefined && (a < 0 || a >= 360)) {
-      cp.report('warning', 'invalid-value', kw, 'is outside the range the standard defines', '0 <= angle < 360 degrees', `${a}`);
-    }
   }
 
   const values: Record<string, unknown> = {};

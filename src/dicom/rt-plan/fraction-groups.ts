@@ -57,13 +57,10 @@ function readGroup(g: ItemReader, treatmentBeams: ReadonlySet<number>): Fraction
 function readReferencedBeam(rb: ItemReader, treatmentBeams: ReadonlySet<number>): ReferencedBeam {
   const beamNumber = need(rb, 'ReferencedBeamNumber', rb.integer('ReferencedBeamNumber'), 'the number of a beam in the Beam Sequence') ?? -1;
   const r = rb.within({ beamNumber });
-  let meterset = r.number('BeamMeterset');
+  // A negative or absurd meterset is refused by the reader's plausible range.
+  const meterset = r.number('BeamMeterset');
   // Type 2: a setup beam may leave it empty; a treatment beam without it cannot be checked at all.
   if (treatmentBeams.has(beamNumber)) need(r, 'BeamMeterset', meterset, 'the beam meterset (MU)');
-  if (meterset !== undefined && meterset < 0) {
-    r.report('error', 'negative-meterset', 'BeamMeterset', 'is negative', 'MU >= 0', `${meterset}`);
-    meterset = undefined;
-  }
   const point = r.tuple('BeamDoseSpecificationPoint', 3);
   return {
     beamNumber,

@@ -61,6 +61,9 @@ export function readRtPlan(ds: DataSet, file: string): Result<Plan> {
 
   const beamItems = root.sequence('BeamSequence');
   const beams = beamItems.map(readBeam).filter((b): b is Beam => b !== undefined);
+  // Every beam dropped must have said why; one that did not is refused here, never left out unsaid.
+  if (beams.length < beamItems.length && !issues.some((i) => i.severity === 'error'))
+    root.report('error', 'unreadable', 'BeamSequence', `${beamItems.length - beams.length} beam(s) could not be read`);
   checkUnique(
     root,
     'BeamSequence',

@@ -2,7 +2,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import Database from 'better-sqlite3';
 import { z } from 'zod';
-import { type PlanCheck, Verdict } from '../../model/index.js';
+import { type PlanCheck, PlanVerdict } from '../../model/index.js';
 import { MIGRATIONS } from './migrations.js';
 
 /** One input of a check, by role, with its identity. */
@@ -17,7 +17,7 @@ export const CheckRecord = z.object({
   planLabel: z.string(),
   patientId: z.string().optional(),
   machine: z.string().optional(),
-  verdict: Verdict,
+  verdict: PlanVerdict,
   fullyVerified: z.boolean(),
   toolVersion: z.string(),
   beamDataVersion: z.string().optional(),
@@ -32,7 +32,7 @@ export type CheckRecord = z.infer<typeof CheckRecord>;
  */
 export const StoredResult = z.object({
   planLabel: z.string(),
-  verdict: Verdict,
+  verdict: PlanVerdict,
   fullyVerified: z.boolean(),
   fractionGroups: z.array(
     z.object({
@@ -74,7 +74,7 @@ export interface NewCheck {
 export interface CheckFilter {
   /** ISO date or date-time: records at or after it. */
   readonly since?: string;
-  readonly verdicts?: readonly Verdict[];
+  readonly verdicts?: readonly PlanVerdict[];
   readonly machine?: string;
 }
 

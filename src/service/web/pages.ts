@@ -1,15 +1,15 @@
-import { Verdict } from '../../model/index.js';
+import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
 import type { CheckRecord, ReviewRecord, StoredResult } from '../history/store.js';
 import { controlLimits } from './control-limits.js';
 
 /** The verdicts in order of severity, as the model defines them. */
-export const VERDICTS: readonly Verdict[] = Verdict.options;
+export const VERDICTS: readonly PlanVerdict[] = PlanVerdict.options;
 
 const STYLE = `body{font:15px/1.45 system-ui,sans-serif;margin:1.5rem auto;max-width:72rem;padding:0 1rem;color:#1b1b1b}
 table{border-collapse:collapse;width:100%}th,td{text-align:left;padding:.3rem .5rem;border-bottom:1px solid #ddd;vertical-align:top}
-.v-needs-review{font-weight:600}.v-beyond-action-level{font-weight:700;text-decoration:underline}
+.v-needs-review{font-weight:600}.v-not-verified{font-weight:700}.v-beyond-action-level{font-weight:700;text-decoration:underline}
 .caution{border:1px solid #888;padding:.6rem .8rem;margin:1rem 0;background:#f6f6f6}form.filters label{margin-right:1rem}
 .counts span{margin-right:1.5rem}iframe{width:100%;height:60rem;border:1px solid #ccc}svg text{font:11px system-ui,sans-serif}`;
 
@@ -23,7 +23,7 @@ const cls = (v: string) => `v-${v.replace(/ /g, '-')}`;
 export interface ListFilter {
   readonly since: string;
   readonly machine?: string;
-  readonly verdict?: Verdict;
+  readonly verdict?: PlanVerdict;
 }
 
 /** One point of the trend: a checked beam's dose deviation at a time, per machine and energy. */

@@ -1,7 +1,7 @@
 import http from 'node:http';
 import type net from 'node:net';
 import { z } from 'zod';
-import { Verdict } from '../../model/index.js';
+import { PlanVerdict } from '../../model/index.js';
 import type { HistoryStore } from '../history/store.js';
 import { checkPage, listPage, notFoundPage, type TrendPoint } from './pages.js';
 
@@ -15,7 +15,7 @@ const ListQuery = z.object({
     .optional()
     .catch(undefined),
   machine: z.string().min(1).max(64).optional().catch(undefined),
-  verdict: Verdict.optional().catch(undefined),
+  verdict: PlanVerdict.optional().catch(undefined),
 });
 const ReviewForm = z.object({
   reviewer: z.string().trim().min(1, "give the reviewer's name").max(64),
