@@ -122,6 +122,7 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     invented: m.invented,
     ...(m.description ? { description: m.description } : {}),
     ...(m.wedgeHeel ? { wedgeHeel: m.wedgeHeel } : {}),
+    ...(m.limits ? { limits: m.limits } : {}),
     version: manifest.dataVersion,
     beams,
     electronBeams,

@@ -162,6 +162,16 @@ export const ElectronBeamEntry = z
     path: ['calibration', 'referenceApplicator'],
   });
 
+/** The machine's own limits, in the isocenter plane (IEC 61217 BEAM LIMITING DEVICE positions). */
+export const MachineLimits = z
+  .object({
+    maxFieldSideCm: positive.describe('the largest opening of either jaw pair (cm at the isocenter plane)'),
+    maxJawPositionCm: positive.describe('the largest distance of a jaw edge from the central axis, on either side (cm)'),
+    maxLeafPositionCm: positive.describe('the largest distance of an MLC leaf end from the central axis, on either side (cm)'),
+    maxMuPerBeam: positive.describe('the largest meterset one beam may deliver (MU)'),
+  })
+  .strict();
+
 export const Manifest = z
   .object({
     $schema: z.string().optional().describe('path of the JSON Schema, for editors'),
@@ -183,6 +193,9 @@ export const Manifest = z
             "where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, " +
               'as the clinic verified with its planning system; needed by wedge profiles',
           ),
+        limits: MachineLimits.optional().describe(
+          'what the machine can deliver (from its specification, as the clinic accepted it): a plan beyond them is refused as an input error',
+        ),
       })
       .strict(),
     beams: z.array(PhotonBeamEntry).default([]),

@@ -20,6 +20,7 @@ import { checkBeam, notCheckedBeam } from './beam/index.js';
 import { choosePoint } from './choose-point.js';
 import { attachDoseGrids, withGrid } from './dose-grids.js';
 import { judge } from './judge.js';
+import { machineLimitIssues } from './machine-limits.js';
 import { matchMachine } from './match-machine.js';
 import type { PatientCt } from './patient-ct.js';
 import { planningSystemDepths } from './planning-system-depths.js';
@@ -151,6 +152,9 @@ function checkEntry(
     return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: m.issues.map((i) => i.message).join('; ') }), issues };
   }
   const machine = { planName: beam.machineName!, dataName: o.machine.name, via: m.value };
+  const beyond = machineLimitIssues(beam, entry, o.machine);
+  if (beyond.length)
+    return { beam: notCheckedBeam(beam, entry, 'input-refused', { message: beyond.map((i) => i.message).join('; ') }), issues: beyond, machine };
   const point = choosePoint(plan, g, entry, beam, o.pointPatientMm);
   if (!point) return { beam: notCheckedBeam(beam, entry, 'no-point'), machine };
   if (o.ctRefused) return { beam: notCheckedBeam(beam, entry, 'ct-not-this-plan'), machine };

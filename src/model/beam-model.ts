@@ -131,6 +131,13 @@ export interface MachineModel {
   readonly description?: string;
   /** Where a wedge's heel points in the BEAM LIMITING DEVICE frame at Wedge Orientation 0 and 90 degrees. */
   readonly wedgeHeel?: { readonly atOrientation0: '+Y' | '-Y'; readonly atOrientation90: '+X' | '-X' };
+  /** What the machine can deliver, when the beam data declare it (cm at the isocenter plane, MU). */
+  readonly limits?: {
+    readonly maxFieldSideCm: number;
+    readonly maxJawPositionCm: number;
+    readonly maxLeafPositionCm: number;
+    readonly maxMuPerBeam: number;
+  };
   readonly version: string;
   readonly beams: readonly PhotonBeamModel[];
   readonly electronBeams: readonly ElectronBeamModel[];
