@@ -18,6 +18,7 @@ import {
 import { isSupportedPosition, unsupportedReason } from './beam-support.js';
 import { checkBeam, notCheckedBeam } from './beam/index.js';
 import { choosePoint } from './choose-point.js';
+import { atUserPoint } from './dose-at-user-point.js';
 import { attachDoseGrids, withGrid } from './dose-grids.js';
 import { judge } from './judge.js';
 import { machineLimitIssues } from './machine-limits.js';
@@ -79,13 +80,16 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
     });
   }
   const ct = issues.length ? undefined : o.ct;
+  const grids = (o.doseGrids ?? []).filter(
+    (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
+  );
   let machine: PlanCheck['machine'];
   const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry) => {
       const r = checkEntry(plan, g, entry, { ...o, ct, ctRefused: !!o.ct && !ct });
       for (const i of r.issues ?? []) issues.push({ ...i, file: file.path });
       machine ??= r.machine;
-      return r.beam;
+      return atUserPoint(r.beam, grids);
     });
     const judged = judge(beams, o.policy);
     return {
@@ -95,9 +99,6 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       totals: groupTotals(plan, g, judged),
     };
   });
-  const grids = (o.doseGrids ?? []).filter(
-    (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
-  );
   const groups = attachDoseGrids(checkedGroups, grids);
   const all = groups.flatMap((g) => g.beams);
   // A setup beam delivers no dose: it needs no check and leaves the plan verified.
@@ -107,6 +108,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
   const warnings: Note[] = [];
   if (notChecked) warnings.push(note('beams-not-checked', { count: notChecked }));
   if (checked === 0) warnings.push(note('no-beam-checked'));
+  if (o.doseGrids?.length && !grids.length) warnings.push(note('dose-not-this-plan', { files: o.doseGrids.map((g) => g.file).join(', ') }));
   if (plan.approvalStatus !== 'APPROVED') warnings.push(note('approval-status', { status: plan.approvalStatus }));
   return {
     file: file.path,

@@ -1,4 +1,4 @@
-import { type BeamCheck, type CalculatedBeam, type CheckedBeam, note, type Note, type NotCheckedBeam, type Verdict } from '../model/index.js';
+import { type BeamCheck, type CalculatedBeam, type CheckedBeam, note, type Note, type NotCheckedBeam, type PlanVerdict } from '../model/index.js';
 import { percentOf } from './deviation.js';
 import type { Policy } from './policy.js';
 import { pointKey } from './totals.js';
@@ -24,10 +24,15 @@ function judgeBeam(b: CalculatedBeam, pointTotalCGy: number, policy: Policy): Ch
   const reasons: Note[] = [];
   const tps = b.planningSystemDoseCGy;
   const share = tps !== undefined && pointTotalCGy > 0 ? tps / pointTotalCGy : undefined;
-  let verdict: Verdict;
+  let verdict: PlanVerdict;
   let judgedDeviationPercent: number | undefined;
   let judgedOn: CheckedBeam['judgedOn'];
-  if (tps === undefined || !(tps > 0) || b.calculation.doseDeviationPercent === undefined) {
+  const userPointAlone = b.point.source === 'user' && !b.point.planningSystemDoseHere && tps === undefined;
+  if (userPointAlone) {
+    // Our dose at a point of the user's, with no dose of the planning system known there: nothing to judge.
+    verdict = 'not verified';
+    reasons.push(note('no-dose-at-point'));
+  } else if (tps === undefined || !(tps > 0) || b.calculation.doseDeviationPercent === undefined) {
     verdict = 'needs review';
     reasons.push(note('no-beam-dose'));
   } else if (share !== undefined && share < policy.lowContributionShare) {
@@ -41,9 +46,11 @@ function judgeBeam(b: CalculatedBeam, pointTotalCGy: number, policy: Policy): Ch
     judgedOn = 'beam dose';
     verdict = verdictFor(judgedDeviationPercent, b.tolerancePercent, b.actionPercent);
   }
-  if (!b.point.planningSystemDoseHere) {
+  if (b.planningSystemDoseFrom === 'dose grid') reasons.push(note('compared-with-dose-grid'));
+  else if (!b.point.planningSystemDoseHere && !userPointAlone) {
+    // The Beam Dose of a plan that does not say where it applies may or may not be at our point.
     verdict = worst(verdict, 'needs review');
-    reasons.push(note(b.point.source === 'user' ? 'dose-at-other-point' : 'dose-point-unstated'));
+    reasons.push(note('dose-point-unstated'));
   }
   if (b.fitness.flags.length) {
     verdict = worst(verdict, 'needs review');

@@ -72,7 +72,8 @@ export const NOTE_CODES = [
   // Why a verdict is what it is.
   'no-beam-dose',
   'judged-on-share',
-  'dose-at-other-point',
+  'no-dose-at-point',
+  'compared-with-dose-grid',
   'dose-point-unstated',
   'point-unfit',
   'ct-correction',
@@ -88,6 +89,7 @@ export const NOTE_CODES = [
   'no-beam-checked',
   'approval-status',
   'no-ct-in-frame',
+  'dose-not-this-plan',
   'ct-without-density',
   'ct-unusable',
   'dose-unreadable',

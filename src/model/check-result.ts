@@ -59,7 +59,10 @@ const BeamIdentity = {
   radiationType: z.string(),
   nominalEnergy: z.number().optional(),
   plannedMu: z.number().optional(),
+  /** The planning system's dose for the beam at the point: its Beam Dose, or at a point of the user's its RT Dose grid there. */
   planningSystemDoseCGy: z.number().optional(),
+  /** Where that dose came from; absent for the Beam Dose (as before this field). */
+  planningSystemDoseFrom: z.enum(['beam dose', 'dose grid']).optional(),
   /** A per-beam RT Dose grid at the point (summation BEAM), beside the Beam Dose and our dose. */
   doseGridCGy: z.number().optional(),
 };
@@ -173,7 +176,8 @@ export const CheckedBeam = z.object({
       clamps: z.array(Clamp),
     })
     .optional(),
-  verdict: Verdict,
+  /** "not verified" when there was nothing to compare with at the point (a point of the user's, no dose grid there). */
+  verdict: PlanVerdict,
   verdictReasons: z.array(Note),
   /** The deviation the verdict was judged on, and on what basis. */
   judgedDeviationPercent: z.number().optional(),

@@ -144,7 +144,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
     `the point lies on the steep fall-off of the depth dose (PDD ${n(v, 'pddPercent').toFixed(0)} % < ${n(v, 'thresholdPercent')} %)`,
   'no-beam-dose': () => 'the plan gives no Beam Dose for this beam, so there is nothing to compare with',
   'judged-on-share': (v) => `the beam gives ${f1(v, 'sharePercent')} % of the point's dose, so it is judged on its share of the point dose`,
-  'dose-at-other-point': () => "the planning system's Beam Dose refers to another point than --point",
+  'no-dose-at-point': () =>
+    'no dose of the planning system is known at --point (its Beam Dose applies elsewhere; no per-beam RT Dose given): our dose is shown, not judged',
+  'compared-with-dose-grid': () => "compared with the planning system's per-beam RT Dose grid at --point (its Beam Dose applies elsewhere)",
   'dose-point-unstated': () => 'the plan does not say where its Beam Dose applies',
   'point-unfit': () => 'the point is not fit for a point check',
   'ct-correction': (v) =>
@@ -162,6 +164,8 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'beams-not-checked': (v) => `${n(v, 'count')} beam(s) not checked: the plan is not fully verified`,
   'no-beam-checked': () => 'no beam of this plan could be checked',
   'approval-status': (v) => `the plan's approval status is ${s(v, 'status', 'not given')}`,
+  'dose-not-this-plan': (v) =>
+    `none of the RT Dose given (${s(v, 'files')}) references this plan or its frame of reference: no dose grid was compared`,
   'no-ct-in-frame': () => "no CT series in this plan's frame of reference among --ct: checked without CT",
   'ct-without-density': () => 'a CT arrived but the service has no density table (ct.density): checked without CT',
   'ct-unusable': (v) => `the CT could not be used (${s(v, 'message')}): checked without CT`,
