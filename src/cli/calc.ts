@@ -86,12 +86,17 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
     return {
       stdout: o.json ? [JSON.stringify(electronCalcDocument(r.value, VERSION), null, 2)] : electronCalcText(r.value),
       stderr: warnings,
-      exitCode: 0,
+      // A flagged point (steep depth dose, MU beyond the machine) needs a physicist's look: as check, exit 1.
+      exitCode: r.value.flags.length ? 1 : 0,
     };
   }
   const r = photonCalc(machine, { ...o, setup: o.setup!, field: o.field!, depth: o.depth! });
   if (!r.ok) return refuse(r.issues);
-  return { stdout: o.json ? [JSON.stringify(calcDocument(r.value, VERSION), null, 2)] : calcText(r.value), stderr: warnings, exitCode: 0 };
+  return {
+    stdout: o.json ? [JSON.stringify(calcDocument(r.value, VERSION), null, 2)] : calcText(r.value),
+    stderr: warnings,
+    exitCode: r.value.flags.length ? 1 : 0,
+  };
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

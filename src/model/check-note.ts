@@ -90,6 +90,7 @@ export const NOTE_CODES = [
   'approval-status',
   'no-ct-in-frame',
   'dose-not-this-plan',
+  'mu-beyond-machine',
   'ct-without-density',
   'ct-unusable',
   'dose-unreadable',

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import {
   factorLabel,
   type LookupNote,
+  Note,
   type MachineModel,
   type PhotonBeamModel,
   type PhotonPointInput,
@@ -9,6 +10,7 @@ import {
 } from '../model/index.js';
 
 import { CAUTION } from './caution.js';
+import { noteText } from './note-text.js';
 import { handCalculation } from './hand-calculation.js';
 
 export interface CalcReport {
@@ -21,6 +23,8 @@ export interface CalcReport {
   /** Which of the two was given; the other is computed. */
   readonly given: 'mu' | 'dose';
   readonly ssdNote: string;
+  /** What makes this point or these MU unfit to rely on (steep depth dose, beyond the machine). */
+  readonly flags: readonly Note[];
 }
 
 const note = (n: LookupNote) =>
@@ -43,12 +47,13 @@ export function calcText(r: CalcReport): string[] {
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
   ];
   if (r.result.clamps.length) out.push('', ...r.result.clamps.map((n) => `  note: ${note(n)}`));
+  if (r.flags.length) out.push('', ...r.flags.map((f) => `  FLAG: ${noteText(f)}`));
   out.push('', CAUTION);
   return out;
 }
 
 export const CalcDocument = z.object({
-  schemaVersion: z.literal(1),
+  schemaVersion: z.literal(2),
   kind: z.literal('plumbline.calc'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   machine: z.object({ name: z.string(), dataVersion: z.string(), invented: z.boolean() }),
@@ -87,13 +92,14 @@ export const CalcDocument = z.object({
       unit: z.string(),
     }),
   ),
+  flags: z.array(Note),
   caution: z.string(),
 });
 export type CalcDocument = z.infer<typeof CalcDocument>;
 
 export function calcDocument(r: CalcReport, version: string): CalcDocument {
   return CalcDocument.parse({
-    schemaVersion: 1,
+    schemaVersion: 2,
     kind: 'plumbline.calc',
     tool: { name: 'plumbline', version },
     machine: { name: r.machine.name, dataVersion: r.machine.version, invented: r.machine.invented },
@@ -106,6 +112,7 @@ export function calcDocument(r: CalcReport, version: string): CalcDocument {
     mu: r.mu,
     doseCGy: r.doseCGy,
     given: r.given,
+    flags: [...r.flags],
     clamps: r.result.clamps,
     caution: CAUTION,
   });

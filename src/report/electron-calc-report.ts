@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { type ElectronBeamModel, type ElectronPointInput, type ElectronPointResult, factorLabel, type MachineModel } from '../model/index.js';
+import { Note, type ElectronBeamModel, type ElectronPointInput, type ElectronPointResult, factorLabel, type MachineModel } from '../model/index.js';
 import { CAUTION } from './caution.js';
-import { clampText } from './note-text.js';
+import { clampText, noteText } from './note-text.js';
 import { handCalculation } from './hand-calculation.js';
 
 export interface ElectronCalcReport {
@@ -14,6 +14,8 @@ export interface ElectronCalcReport {
   readonly mu: number;
   readonly doseCGy: number;
   readonly given: 'mu' | 'dose';
+  /** What makes this point or these MU unfit to rely on (steep depth dose, beyond the machine). */
+  readonly flags: readonly Note[];
 }
 
 const fieldText = (f: ElectronPointInput['field']) =>
@@ -34,13 +36,14 @@ export function electronCalcText(r: ElectronCalcReport): string[] {
     '',
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
     ...r.result.clamps.map((n) => `  note: ${clampText(n)}, as the beam data allow`),
+    ...r.flags.map((f) => `  FLAG: ${noteText(f)}`),
     '',
     CAUTION,
   ];
 }
 
 export const ElectronCalcDocument = z.object({
-  schemaVersion: z.literal(1),
+  schemaVersion: z.literal(2),
   kind: z.literal('plumbline.electron-calc'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   machine: z.object({ name: z.string(), dataVersion: z.string(), invented: z.boolean() }),
@@ -62,12 +65,13 @@ export const ElectronCalcDocument = z.object({
   mu: z.number(),
   doseCGy: z.number(),
   given: z.enum(['mu', 'dose']),
+  flags: z.array(Note),
   caution: z.string(),
 });
 
 export function electronCalcDocument(r: ElectronCalcReport, version: string): z.infer<typeof ElectronCalcDocument> {
   return ElectronCalcDocument.parse({
-    schemaVersion: 1,
+    schemaVersion: 2,
     kind: 'plumbline.electron-calc',
     tool: { name: 'plumbline', version },
     machine: { name: r.machine.name, dataVersion: r.machine.version, invented: r.machine.invented },
@@ -81,6 +85,7 @@ export function electronCalcDocument(r: ElectronCalcReport, version: string): z.
     mu: r.mu,
     doseCGy: r.doseCGy,
     given: r.given,
+    flags: [...r.flags],
     caution: CAUTION,
   });
 }

@@ -139,7 +139,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'ssd-differs-some-angle': (v) =>
     `the SSD from the CT differs from the plan's by up to ${f1(v, 'maxDifferenceMm')} mm at some control point (tolerance ${n(v, 'toleranceMm')} mm): ` +
     'bolus missing, wrong CT or wrong isocenter?',
-  'electron-build-up': (v) => `the point is in the build-up region (${f1(v, 'depthCm')} cm, shallower than this field's dmax ${f1(v, 'dmaxCm')} cm)`,
+  'electron-build-up': (v) =>
+    `the point is in the build-up region (${f1(v, 'depthCm')} cm, shallower than this field's dmax ${f1(v, 'dmaxCm')} cm, ` +
+    `PDD ${f1(v, 'pddPercent')} % < ${n(v, 'thresholdPercent')} %)`,
   'steep-fall-off': (v) =>
     `the point lies on the steep fall-off of the depth dose (PDD ${n(v, 'pddPercent').toFixed(0)} % < ${n(v, 'thresholdPercent')} %)`,
   'no-beam-dose': () => 'the plan gives no Beam Dose for this beam, so there is nothing to compare with',
@@ -164,6 +166,7 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'beams-not-checked': (v) => `${n(v, 'count')} beam(s) not checked: the plan is not fully verified`,
   'no-beam-checked': () => 'no beam of this plan could be checked',
   'approval-status': (v) => `the plan's approval status is ${s(v, 'status', 'not given')}`,
+  'mu-beyond-machine': (v) => `${f1(v, 'mu')} MU is more than machine ${s(v, 'machine')} delivers in one beam (${n(v, 'maxMu')} MU, its beam data)`,
   'dose-not-this-plan': (v) =>
     `none of the RT Dose given (${s(v, 'files')}) references this plan or its frame of reference: no dose grid was compared`,
   'no-ct-in-frame': () => "no CT series in this plan's frame of reference among --ct: checked without CT",

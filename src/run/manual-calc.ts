@@ -1,10 +1,26 @@
 import { findElectronBeam, findPhotonBeam } from '../beamdata/index.js';
-import type { ElectronPointInput, Issue, MachineModel, PhotonPointInput, Refused, Result } from '../model/index.js';
-import { electronDosePerMu, electronIsodoseDepthCm, muForDose, photonDosePerMu } from '../physics/index.js';
+import { buildUpFlags, electronDepthFlags } from '../check/index.js';
+import {
+  type ElectronPointInput,
+  type Issue,
+  type MachineModel,
+  note,
+  type Note,
+  type PhotonPointInput,
+  type Refused,
+  type Result,
+} from '../model/index.js';
+import { electronDmaxCm, electronDosePerMu, electronIsodoseDepthCm, muForDose, photonDosePerMu } from '../physics/index.js';
 import type { CalcReport } from '../report/calc-report.js';
 import type { ElectronCalcReport } from '../report/electron-calc-report.js';
 
 const refuse = (issues: readonly Issue[]): Refused => ({ ok: false, issues });
+
+/** MU beyond what the machine delivers in one beam (its beam data's limits), as `check` refuses them. */
+const muFlags = (machine: MachineModel, mu: number): Note[] =>
+  machine.limits && mu > machine.limits.maxMuPerBeam
+    ? [note('mu-beyond-machine', { mu, maxMu: machine.limits.maxMuPerBeam, machine: machine.name })]
+    : [];
 
 /** A manual photon calculation, as `calc` is asked for it (lengths in cm; exactly one of MU and dose). */
 export interface PhotonCalcRequest {
@@ -69,7 +85,8 @@ export function photonCalc(machine: MachineModel, o: PhotonCalcRequest): Result<
   if (!r.ok) return refuse(r.issues);
   const mu = o.mu ?? muForDose(r.value, o.dose!);
   const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
-  return { ok: true, value: { machine, beam, input, result: r.value, mu, doseCGy, given: o.mu !== undefined ? 'mu' : 'dose', ssdNote } };
+  const flags = [...buildUpFlags(o.depth, beam.calibration.dmaxCm), ...muFlags(machine, mu)];
+  return { ok: true, value: { machine, beam, input, result: r.value, mu, doseCGy, given: o.mu !== undefined ? 'mu' : 'dose', ssdNote, flags } };
 }
 
 /** A manual electron calculation: applicator and cutout, the depth given or that of a stated isodose. */
@@ -117,9 +134,12 @@ export function electronCalc(machine: MachineModel, o: ElectronCalcRequest): Res
   if (!r.ok) return refuse(r.issues);
   const mu = o.mu ?? o.dose! / r.value.dosePerMuCGy;
   const doseCGy = o.dose ?? o.mu! * r.value.dosePerMuCGy;
+  const pddPercent = 100 * (r.value.factors.find((f) => f.key === 'PDD')?.value ?? Number.NaN);
+  const flags = [...electronDepthFlags(depthCm, electronDmaxCm(beam, field), pddPercent), ...muFlags(machine, mu)];
   return {
     ok: true,
     value: {
+      flags,
       machine,
       beam,
       input,

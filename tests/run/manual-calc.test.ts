@@ -34,3 +34,17 @@ describe('the manual calculation', () => {
     expect(e.ok && e.value.isodosePercent).toBe(90);
   });
 });
+
+describe('the manual calculation flags what check flags', () => {
+  it('an electron point on the fall-off, and MU beyond the machine (the demo machine declares 999 MU per beam)', () => {
+    const r = electronCalc(demo, { energy: 9, applicator: 'A10', depth: 5, dose: 200 });
+    if (!r.ok) throw new Error('refused');
+    expect(r.value.flags.map((f) => f.code)).toEqual(['steep-fall-off', 'mu-beyond-machine']);
+  });
+  it('an electron point at dmax, and a photon point at 10 cm for 100 MU, are not flagged', () => {
+    const e = electronCalc(demo, { energy: 9, applicator: 'A10', isodose: 100, mu: 100 });
+    expect(e.ok && e.value.flags).toEqual([]);
+    const p = photonCalc(demo, { ...base, mu: 100 });
+    expect(p.ok && p.value.flags).toEqual([]);
+  });
+});

@@ -8,10 +8,9 @@ import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, stopN
 import { ctSummary, type Traced, traceToPoint } from './ct-trace.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
 import { type ElectronField, electronField } from './electron-field.js';
-import { edgeFlags } from './point-fitness.js';
+import { edgeFlags, electronDepthFlags } from './point-fitness.js';
 
 /** Beyond dmax, a point where the depth dose has fallen below this lies on its steep fall-off. */
-const FALL_OFF_PERCENT = 80;
 
 /**
  * One electron beam's independent dose at its point (AAPM TG-71): the applicator and cutout, the
@@ -94,7 +93,10 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
         },
       },
       ...levelsOf(policy, category),
-      fitness: { edgeDistanceCm, flags: [...edgeFlags(edgeDistanceCm, policy), ...depthFlags(data, ef, lookupDepthCm, pddPercent)] },
+      fitness: {
+        edgeDistanceCm,
+        flags: [...edgeFlags(edgeDistanceCm, policy), ...electronDepthFlags(lookupDepthCm, electronDmaxCm(data, ef.field), pddPercent)],
+      },
     },
   };
 }
@@ -118,13 +120,6 @@ function electronApproximations(
 
 /** The field side, effective SSD and air gap the electron dose was found with. */
 const electronParts = (r: ElectronPointResult) => ({ fieldSideCm: r.fieldSideCm, effectiveSsdCm: r.effectiveSsdCm, airGapCm: r.airGapCm });
-
-/** A point in this field's build-up, or on the steep fall-off of its depth dose (depth at which the PDD was looked up). */
-function depthFlags(data: ElectronBeamModel, ef: ElectronField, lookupDepthCm: number, pddPercent: number): Note[] {
-  const dmaxCm = electronDmaxCm(data, ef.field) ?? 0;
-  if (lookupDepthCm < dmaxCm - 0.05) return [note('electron-build-up', { depthCm: lookupDepthCm, dmaxCm })];
-  return pddPercent < FALL_OFF_PERCENT ? [note('steep-fall-off', { pddPercent, thresholdPercent: FALL_OFF_PERCENT })] : [];
-}
 
 /** With the CT: the PDD at the radiological depth against the homogeneous dose at the geometric depth. */
 function electronCt(
