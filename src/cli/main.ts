@@ -4,6 +4,7 @@ import { runCalc } from './calc.js';
 import { runCheck } from './check.js';
 import { runDepth } from './depth.js';
 import { runInspect } from './inspect.js';
+import { printableLines } from '../model/index.js';
 import type { CommandOutcome } from './outcome.js';
 import { DEFAULT_POLICY, resolveServiceConfig, VERSION } from '../run/index.js';
 
@@ -165,7 +166,8 @@ export async function main(argv: readonly string[]): Promise<number> {
     return 3;
   }
   if (!outcome) return 0;
-  if (outcome.stdout.length) process.stdout.write(`${outcome.stdout.join('\n')}\n`);
-  if (outcome.stderr.length) process.stderr.write(`${outcome.stderr.join('\n')}\n`);
+  // File names and anything else from outside: no control character reaches the terminal.
+  if (outcome.stdout.length) process.stdout.write(`${printableLines(outcome.stdout.join('\n'))}\n`);
+  if (outcome.stderr.length) process.stderr.write(`${printableLines(outcome.stderr.join('\n'))}\n`);
   return outcome.exitCode;
 }

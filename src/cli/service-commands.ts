@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { formatIssue, PlanVerdict } from '../model/index.js';
+import { formatIssue, PlanVerdict, printable } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { fixed, textTable } from '../report/table.js';
 import { loadServiceConfig } from '../service/config.js';
@@ -9,7 +9,8 @@ import { startWebServer } from '../service/web/server.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from '../run/index.js';
 
-const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()} ${line}\n`);
+// Calling AE titles, file names and plan labels come from outside: shown, never interpreted by the terminal.
+const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()} ${printable(line)}\n`);
 
 /** `plumbline receive` / `plumbline watch <folder>`: intake until SIGINT or SIGTERM. */
 export async function runIntake(configFile: string, o: { receive: boolean; watch?: string }): Promise<CommandOutcome> {

@@ -1,5 +1,6 @@
 import type { DataSet, Element } from 'dicom-parser';
 import type { Issue, IssueCode, IssueSeverity } from '../model/issue.js';
+import { printable } from '../model/printable.js';
 import { parseNumberBytes } from './decimal-string.js';
 import { ATTRIBUTES, type Keyword } from './dictionary.js';
 import { isPlausible, PLAUSIBLE, plausibleText } from './plausible-values.js';
@@ -65,10 +66,11 @@ export class ItemReader {
     const raw = this.rawText(el);
     // LT, ST, UT keep backslashes and leading spaces; the others are multi-valued and padded.
     if (vr === 'LT' || vr === 'ST' || vr === 'UT') {
-      const v = raw.replace(/[\s\0]+$/, '');
+      const v = printable(raw.replace(/[\s\0]+$/, ''));
       return v ? [v] : undefined;
     }
-    const values = raw.split('\\').map((v) => v.replace(/^[ ]+|[\s\0]+$/g, ''));
+    // Padding trimmed; any control character left (ESC, CR, a NUL inside) is shown, never passed on to a terminal.
+    const values = raw.split('\\').map((v) => printable(v.replace(/^[ ]+|[\s\0]+$/g, '')));
     return values.length === 1 && values[0] === '' ? undefined : values;
   }
 

@@ -17,3 +17,4 @@ export * from './dose-grid.js';
 export * from './structure.js';
 export * from './units.js';
 export * from './beam-depth.js';
+export * from './printable.js';

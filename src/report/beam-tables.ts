@@ -1,5 +1,5 @@
 import type { BeamCheck, CheckedBeam, FractionGroupCheck } from '../model/index.js';
-import { fixed, signed, textTable } from './table.js';
+import { deviationText, fixed, textTable } from './table.js';
 
 /** A beam's name cut to a column's width. */
 const NAME_WIDTH = 12;
@@ -24,7 +24,7 @@ export function beamTable(g: FractionGroupCheck): string[] {
         fixed(c?.independentMu, 1),
         fixed(b.planningSystemDoseCGy, 1),
         fixed(c?.independentDoseCGy, 1),
-        signed(c?.doseDeviationPercent),
+        deviationText(b),
         b.status === 'checked' ? b.verdict : 'not checked',
       ];
     }),

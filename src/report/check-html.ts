@@ -4,7 +4,7 @@ import { escapeHtml as esc } from './html-escape.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { planHeadline } from './plan-headline.js';
 import { planningDepthsText } from './planning-depths-text.js';
-import { fixed as n, pointMm as mm, signed } from './table.js';
+import { deviationText, fixed as n, pointMm as mm, signed } from './table.js';
 
 /** Deviation of each checked beam against its tolerance and action-level bands, as inline SVG. */
 function deviationChart(beams: readonly CheckedBeam[]): string {
@@ -89,7 +89,7 @@ function summaryRow(group: number, b: BeamCheck): string {
 <td>${b.nominalEnergy ?? '—'} ${b.radiationType === 'PHOTON' ? 'MV' : 'MeV'}</td><td>${c?.setup ?? '—'}</td><td class="num">${n(c?.depthCm, 2)}</td>
 <td class="num">${n(c?.collimatorSquareCm, 2)}</td><td class="num">${n(c?.irradiatedSquareCm, 2)}</td><td class="num">${n(b.plannedMu, 1)}</td>
 <td class="num">${n(c?.independentMu, 1)}</td><td class="num">${n(b.planningSystemDoseCGy, 1)}</td><td class="num">${n(c?.independentDoseCGy, 1)}</td>
-<td class="num">${signed(c?.doseDeviationPercent)}</td><td>${b.status === 'checked' ? esc(b.verdict) : `not checked: ${esc(noteText(b.reason))}`}</td></tr>`;
+<td class="num">${deviationText(b)}</td><td>${b.status === 'checked' ? esc(b.verdict) : `not checked: ${esc(noteText(b.reason))}`}</td></tr>`;
 }
 
 function planSection(p: PlanCheck): string {

@@ -1,3 +1,5 @@
+import type { BeamCheck } from '../model/index.js';
+
 /** Left-aligned text columns; the widest cell sets each column's width. */
 export function textTable(header: readonly string[], rows: readonly (readonly string[])[]): string[] {
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
@@ -17,6 +19,17 @@ export function fixed(v: number | undefined, decimals: number): string {
 /** A signed number (+1.2), or an em dash when absent. */
 export function signed(v: number | undefined, decimals = 1): string {
   return v === undefined ? '—' : `${v >= 0 ? '+' : ''}${v.toFixed(decimals)}`;
+}
+
+/**
+ * A beam's deviation with the decimals its verdict needs: one, or two where one would round onto a
+ * level (2.974 % beside an action level of 3 reads "+2.97", never "+3.0" labelled "needs review").
+ */
+export function deviationText(b: BeamCheck): string {
+  const v = b.status === 'checked' ? b.calculation.doseDeviationPercent : undefined;
+  if (v === undefined || b.status !== 'checked') return signed(v);
+  const near = [b.tolerancePercent, b.actionPercent].some((level) => Math.abs(Math.abs(v) - level) < 0.05);
+  return signed(v, near ? 2 : 1);
 }
 
 /** A patient point as (x, y, z) mm. */

@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { unwrapped } from '../helpers/text.js';
 import { CheckDocument } from '../../src/report/check-json.js';
 import { runPython } from '../../scripts/lib/find-python.js';
+import { writeVariant } from '../helpers/plan-variants.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const CLINIC = join(ROOT, 'fixtures/demo/clinic');
@@ -78,5 +79,16 @@ describe('plumbline check', () => {
   it('refuses bad options', () => {
     expect(plumbline('check', CLINIC, '--beam-data', 'demo', '--point', '1,2').stderr).toMatch(/--point must be x,y,z/);
     expect(plumbline('check', CLINIC, '--beam-data', 'demo', '--machine-alias', 'X').stderr).toMatch(/PLANNAME=DATANAME/);
+  });
+});
+
+describe('strings from the plan reach the terminal shown, not obeyed', () => {
+  it('a plan label with ESC, CR and BEL cannot hide the verdict', () => {
+    const f = writeVariant('wedged-pair.dcm', (ds) => {
+      ds.RTPlanLabel = 'X\u001b[2K\rOK: WITHIN\u0007';
+    });
+    const r = plumbline('check', f, '--beam-data', 'demo');
+    expect(r.stdout + r.stderr).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/);
+    expect(r.stdout).toContain('X\ufffd[2K\ufffdOK: WITHIN\ufffd');
   });
 });
