@@ -58,13 +58,13 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
       ? new cliProgress.SingleBar({ stream: process.stderr, format: 'checking {bar} {value}/{total} files' }, cliProgress.Presets.shades_classic)
       : undefined;
   bar?.start(files.length, 0);
-  const { plans, refused } = await checkFiles(files, inputs.value, o, () => bar?.increment());
+  const { plans, refused, skipped } = await checkFiles(files, inputs.value, o, () => bar?.increment());
   bar?.stop();
   if (plans.length === 0 && refused.length === 0)
     refused.push({ severity: 'error', code: 'missing-attribute', message: `no RT Plan found in ${paths.join(', ')}` });
 
   const doc = checkDocument(plans, refused, beamDataStamp(inputs.value.machine), inputs.value.policy, new Date());
-  const stderr = inputs.value.warnings.map(formatIssue);
+  const stderr = [...inputs.value.warnings.map(formatIssue), ...skippedLines(skipped)];
   if (o.html) {
     try {
       writeFileAtomic(o.html, checkHtml(doc));
@@ -88,6 +88,15 @@ export async function runCheck(paths: readonly string[], raw: Record<string, unk
     stderr: [...stderr, ...refused.map(formatIssue)],
     exitCode,
   };
+}
+
+/** The files left aside in folders, one line per reason, naming the first few. */
+function skippedLines(skipped: readonly { file: string; reason: string }[]): string[] {
+  const byReason = new Map<string, string[]>();
+  for (const s of skipped) byReason.set(s.reason, [...(byReason.get(s.reason) ?? []), s.file]);
+  return [...byReason].map(
+    ([reason, files]) => `skipped ${files.length} file(s), ${reason}: ${files.slice(0, 3).join(', ')}${files.length > 3 ? ', …' : ''}`,
+  );
 }
 
 function refuse(issues: readonly Issue[]): CommandOutcome {

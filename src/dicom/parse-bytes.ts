@@ -152,9 +152,10 @@ function describeParseFailure(e: unknown, bytes: Uint8Array, file: string): Pars
         severity: 'error',
         code: truncated ? 'truncated' : 'unreadable',
         file,
+        // The parser's own words name its internals (function names, offsets): ours say what is wrong with the file.
         message: truncated
-          ? `the file (${bytes.length} bytes) ends before the data it declares${lastElementText(partial)} (${detail.trim()})`
-          : `the dataset cannot be parsed (${detail.trim()})`,
+          ? `the file (${bytes.length} bytes) ends before the data it declares${lastElementText(partial)}`
+          : `the dataset cannot be parsed: an element's tag, value representation or length is corrupt${lastElementText(partial)}`,
       },
     ],
   };

@@ -27,7 +27,7 @@ export function importPlanBytes(bytes: Uint8Array, file: string, options: ParseO
     // dicom-parser reads values lazily; a corrupt element can still throw here.
     return {
       ok: false,
-      issues: [{ severity: 'error', code: 'unreadable', file, message: `the dataset cannot be read (${String((e as Error)?.message ?? e)})` }],
+      issues: [{ severity: 'error', code: 'unreadable', file, message: 'the dataset cannot be read: a value is corrupt where it is stored' }],
     };
   }
   if (!plan.ok) return plan;

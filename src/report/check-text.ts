@@ -105,7 +105,7 @@ export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors
     ...wrap(
       `summary: ${s.plans} plan(s), ${s.beamsChecked} beam(s) checked, ${s.beamsNotChecked} not checked; ${s.verdicts['within tolerance']} within tolerance, ` +
         `${s.verdicts['needs review']} need review, ${s.verdicts['not verified']} not verified, ${s.verdicts['beyond action level']} beyond action level; ` +
-        `${s.filesRefused} file(s) refused`,
+        `${s.filesRefused} file(s) refused${doc.refused.length ? ' (each on stderr)' : ''}`,
       WIDTH,
       '  ',
     ),
@@ -114,7 +114,6 @@ export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors
   if (attention.length) {
     out.push('to look at:', ...attention.map((p) => `  "${p.planLabel}" (${p.file}): ${planHeadline(p)}`));
   }
-  for (const i of doc.refused) out.push(...wrap(`refused: ${formatIssue(i)}`, WIDTH, '  '));
   out.push('', ...wrap(doc.caution, WIDTH, ''));
   return out;
 }

@@ -1,15 +1,30 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { checkPlan, type CheckOptions } from '../check/index.js';
-import { importPlanBytes } from '../dicom/index.js';
+import { importPlanBytes, SOP_CLASS_NAMES } from '../dicom/index.js';
 import { type Issue, note, type PlanCheck } from '../model/index.js';
 import type { CollectedFile } from './collect-files.js';
 import { withWarnings } from './with-warnings.js';
 
-/** A file's plan result, or why it was refused (nothing: a non-plan found in a folder). */
+/** A file's plan result, or why it was refused, or why a file found in a folder was left aside. */
 export interface FileOutcome {
   readonly plan?: PlanCheck;
   readonly refused: Issue[];
+  readonly skipped?: { readonly file: string; readonly reason: string };
+}
+
+/**
+ * In a folder, other objects of a study (CT, structures, RT Dose, any storage class the standard
+ * names) and files that are plainly no DICOM (notes, spreadsheets) are left aside, each said; a
+ * `.dcm` file that is no readable DICOM, or DICOM of no class the standard names, is refused.
+ */
+function leftAside(f: CollectedFile, issues: readonly Issue[]): FileOutcome | undefined {
+  if (f.explicit || issues.length !== 1) return undefined;
+  const i = issues[0]!;
+  if (i.code === 'not-rt-plan' && i.found && SOP_CLASS_NAMES[i.found])
+    return { refused: [], skipped: { file: f.path, reason: `not an RT Plan (${SOP_CLASS_NAMES[i.found]})` } };
+  if (i.code === 'not-dicom' && !/\.dcm$/i.test(f.path)) return { refused: [], skipped: { file: f.path, reason: 'not a DICOM file' } };
+  return undefined;
 }
 
 /**
@@ -21,6 +36,8 @@ export function checkFile(
   f: CollectedFile,
   o: Omit<CheckOptions, 'ct'> & { cts: readonly NonNullable<CheckOptions['ct']>[]; singlePlan: boolean },
 ): FileOutcome {
+  if (f.problem?.kind === 'skip') return { refused: [], skipped: { file: f.path, reason: f.problem.reason } };
+  if (f.problem) return { refused: [{ severity: 'error', code: 'unreadable', file: f.path, message: f.problem.reason }] };
   let bytes: Buffer;
   try {
     bytes = readFileSync(f.path);
@@ -33,9 +50,7 @@ export function checkFile(
   }
   const r = importPlanBytes(bytes, f.path);
   if (!r.ok) {
-    // In a folder, other DICOM objects (CT, structures) and non-DICOM files are not plans: skip them.
-    if (!f.explicit && r.issues.every((i) => i.code === 'not-rt-plan' || i.code === 'not-dicom')) return { refused: [] };
-    return { refused: [...r.issues] };
+    return leftAside(f, r.issues) ?? { refused: [...r.issues] };
   }
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const { cts, singlePlan, ...options } = o;

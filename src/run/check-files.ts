@@ -23,7 +23,7 @@ export async function checkFiles(
   inputs: CheckInputs,
   o: CheckRequest,
   onFile: () => void,
-): Promise<{ plans: PlanCheck[]; refused: Issue[] }> {
+): Promise<{ plans: PlanCheck[]; refused: Issue[]; skipped: NonNullable<FileOutcome['skipped']>[] }> {
   const threads = Math.min(o.threads ?? Math.min(availableParallelism(), MAX_THREADS), files.length);
   const pooled = !inputs.cts.length && !inputs.doseGrids.length && files.length >= POOL_FROM_FILES && threads > 1;
   const results = pooled
@@ -43,7 +43,11 @@ export async function checkFiles(
         onFile();
         return r;
       });
-  return { plans: results.flatMap((r) => (r.plan ? [r.plan] : [])), refused: results.flatMap((r) => r.refused) };
+  return {
+    plans: results.flatMap((r) => (r.plan ? [r.plan] : [])),
+    refused: results.flatMap((r) => r.refused),
+    skipped: results.flatMap((r) => (r.skipped ? [r.skipped] : [])),
+  };
 }
 
 /** The files dealt in turn to the threads, so long plans (arcs) are shared too; results go back into file order. */

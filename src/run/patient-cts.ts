@@ -26,7 +26,10 @@ export function loadPatientCts(
   }
   const table = loadDensityTable(density === 'demo' ? resolveDemoFile('ct/hu-to-density.csv') : density);
   if (!table.ok) return table;
-  const files = collectFiles(ctPaths).map((f) => f.path);
+  // Links to nothing and special files are never opened (a FIFO would never end); the rest are read.
+  const files = collectFiles(ctPaths)
+    .filter((f) => !f.problem)
+    .map((f) => f.path);
   const { volumes, issues } = readCtVolumes(files);
   if (issues.length) return { ok: false, issues };
   if (!volumes.length)

@@ -19,6 +19,14 @@ export function readPlans(paths: readonly string[]): ReadPlans {
   const notes: string[] = [];
   let notDicom = 0;
   for (const f of collectFiles(paths)) {
+    if (f.problem?.kind === 'skip') {
+      notes.push(`skipped ${f.path}: ${f.problem.reason}`);
+      continue;
+    }
+    if (f.problem) {
+      problems.push({ severity: 'error', code: 'unreadable', file: f.path, message: f.problem.reason });
+      continue;
+    }
     const r = importPlanFile(f.path);
     if (r.ok) plans.push({ imported: r.value, warnings: r.warnings ?? [] });
     else if (!f.explicit && r.issues.every((i) => i.code === 'not-dicom')) notDicom++;

@@ -92,3 +92,30 @@ describe('strings from the plan reach the terminal shown, not obeyed', () => {
     expect(r.stdout).toContain('X\ufffd[2K\ufffdOK: WITHIN\ufffd');
   });
 });
+
+describe('a folder: every file read, refused with its reason, or left aside with a line', () => {
+  it('empty, 100-byte and mistyped-class .dcm files are refused; a FIFO and a note are skipped, said on stderr', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-folder-'));
+    copyFileSync(join(CLINIC, 'brain-laterals.dcm'), join(dir, 'brain.dcm'));
+    writeFileSync(join(dir, 'empty.dcm'), '');
+    writeFileSync(join(dir, 'short.dcm'), readFileSync(join(CLINIC, 'spine-ssd.dcm')).subarray(0, 100));
+    writeFileSync(join(dir, 'notes.txt'), 'chart rounds on Friday\n');
+    spawnSync('mkfifo', [join(dir, 'pipe.dcm')]); // coreutils
+    const mistyped = writeVariant('four-field-box.dcm', (ds) => {
+      ds.SOPClassUID = '1.2.840.10008.5.1.4.1.1.481.55';
+    });
+    copyFileSync(mistyped, join(dir, 'mistyped.dcm'));
+    const r = spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'check', dir, '--beam-data', 'demo'], {
+      cwd: ROOT,
+      encoding: 'utf8',
+      timeout: 20_000,
+    });
+    expect(r.status).toBe(2);
+    for (const f of ['empty.dcm', 'short.dcm', 'mistyped.dcm']) expect(r.stderr).toMatch(new RegExp(`error: .*${f}`));
+    expect(r.stderr).toMatch(/skipped 1 file\(s\), not a regular file \(a FIFO\), never opened: .*pipe\.dcm/);
+    expect(r.stderr).toMatch(/skipped 1 file\(s\), not a DICOM file: .*notes\.txt/);
+    expect(r.stdout).toMatch(/3 file\(s\) refused \(each on stderr\)/);
+    // Each problem once: the report on stdout counts them, the lines are on stderr.
+    expect(r.stdout).not.toMatch(/empty\.dcm/);
+  });
+});
