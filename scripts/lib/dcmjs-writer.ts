@@ -34,6 +34,14 @@ function assertKnownKeywords(obj: unknown, path = ''): void {
 
 /** Writes a naturalized dataset as a Part-10 file in explicit VR little endian, atomically. */
 export function writeDataset(file: string, dataset: Record<string, unknown>, sopClassUid: string): void {
+  mkdirSync(dirname(file), { recursive: true });
+  const tmp = `${file}.tmp`;
+  writeFileSync(tmp, datasetBytes(dataset, sopClassUid));
+  renameSync(tmp, file);
+}
+
+/** A naturalized dataset as the bytes of a Part-10 file in explicit VR little endian. */
+export function datasetBytes(dataset: Record<string, unknown>, sopClassUid: string): Buffer {
   assertKnownKeywords(dataset);
   const meta = {
     FileMetaInformationVersion: new Uint8Array([0, 1]).buffer,
@@ -45,10 +53,7 @@ export function writeDataset(file: string, dataset: Record<string, unknown>, sop
   };
   const dict = new DicomDict(DicomMetaDictionary.denaturalizeDataset(meta));
   dict.dict = DicomMetaDictionary.denaturalizeDataset(dataset);
-  mkdirSync(dirname(file), { recursive: true });
-  const tmp = `${file}.tmp`;
-  writeFileSync(tmp, Buffer.from(dict.write() as ArrayBuffer));
-  renameSync(tmp, file);
+  return Buffer.from(dict.write() as ArrayBuffer);
 }
 
 /**

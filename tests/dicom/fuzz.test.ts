@@ -8,7 +8,12 @@ import dicomParser from 'dicom-parser';
 import { describe, expect, it } from 'vitest';
 import { importPlanBytes } from '../../src/dicom/index.js';
 import { Plan } from '../../src/model/index.js';
+import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
 import { demoPlan } from '../helpers/fixtures.js';
+import { INTERNALS } from '../helpers/internals.js';
+import { DEMO_MANIFEST, machine } from '../helpers/machines.js';
+
+const CHECK_OPTIONS = { machine: machine(DEMO_MANIFEST), policy: DEFAULT_POLICY, aliases: new Map<string, string>(), suggestPoint: false };
 
 /** mulberry32: a small, well-known seeded PRNG, so a failure can be replayed from its seed. */
 function prng(seed: number): () => number {
@@ -126,12 +131,17 @@ describe('seeded mutation of the demo plans', () => {
       if (r.ok) {
         tally.accepted++;
         expect(Plan.safeParse(r.value.plan).success).toBe(true);
+        // What imports is checked: the check and its verdict never throw on a plan the reader accepted.
+        const checked = checkPlan(r.value.plan, { path: `mutant-${n}.dcm`, sha256: '0' }, CHECK_OPTIONS);
+        expect(checked.verdict, `mutant ${n}`).toBeDefined();
+        for (const i of checked.issues) expect(i.message, `mutant ${n}`).not.toMatch(INTERNALS);
       } else {
         tally.refused++;
         expect(r.issues.length).toBeGreaterThan(0);
         for (const i of r.issues) {
           expect(KNOWN_CODES.has(i.code), `mutant ${n}: code ${i.code}`).toBe(true);
           expect(i.message.length).toBeGreaterThan(0);
+          expect(i.message, `mutant ${n}`).not.toMatch(INTERNALS);
           expect(i.severity === 'error' || i.severity === 'warning').toBe(true);
         }
         expect(r.issues.some((i) => i.severity === 'error')).toBe(true);
