@@ -37,6 +37,7 @@ export const NOTE_CODES = [
   'collimator-or-couch-turns',
   'energy-changes',
   'no-meterset-delivered',
+  'aperture-closed',
   'segment-no-ssd',
   'segment-no-aperture',
   'electron-no-applicator',

@@ -86,6 +86,7 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'collimator-or-couch-turns': () => 'the collimator or the couch turns during the beam: not supported',
   'energy-changes': () => 'the energy changes during the beam',
   'no-meterset-delivered': () => 'no control point delivers any meterset',
+  'aperture-closed': () => 'every leaf pair is closed at every control point: the beam delivers only transmission, there is no field to check',
   'segment-no-ssd': (v) => `${where(v)}the plan gives no SSD there and no CT was given, so the depth at that gantry angle cannot be found`,
   'segment-no-aperture': (v) => `${where(v)}no aperture (no jaws and no leaves along an axis)`,
   'electron-no-applicator': () => 'an electron beam without an applicator in the plan',

@@ -1,4 +1,6 @@
 /** pydicom's rtdose.dcm (Debian python3-pydicom test files) read and interpolated, against pydicom and numpy. */
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readRtDose } from '../../src/dicom/index.js';
@@ -46,4 +48,20 @@ print(json.dumps({"max": g.max(), "shape": list(g.shape), "summation": d.DoseSum
     for (const b of ref.blocks) expect(doseAtPointGy(r.value, b.point)).toBeCloseTo(b.mean, 6);
     expect(doseAtPointGy(r.value, [1e4, 0, 0])).toBeUndefined();
   });
+});
+
+describe("pydicom's rtdose.dcm with a nonsense Dose Grid Scaling", () => {
+  // Written by pydicom (the reference tool), so the file is well-formed DICOM with one value no planning system writes.
+  const scaled = (value: string) => {
+    const out = join(mkdtempSync(join(tmpdir(), 'plumbline-rtdose-')), 'scaled.dcm');
+    runPython(`import sys, pydicom; d = pydicom.dcmread(sys.argv[1]); d.DoseGridScaling = sys.argv[3]; d.save_as(sys.argv[2])`, [file, out, value]);
+    return out;
+  };
+  for (const value of ['-1e-3', '1e300', '0']) {
+    it(`${value} is refused naming the attribute, never a dose of −3 000 cGy or 1e300`, () => {
+      const r = readRtDose(scaled(value));
+      expect(r.ok).toBe(false);
+      if (!r.ok) expect(r.issues).toContainEqual(expect.objectContaining({ code: 'physical-range', path: 'DoseGridScaling' }));
+    });
+  }
 });

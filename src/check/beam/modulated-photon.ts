@@ -32,6 +32,8 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   const doses = segmentDoses(ctx, data, segments, sadMm);
   if (isStopped(doses)) return doses.stopped;
   const w = weighted(doses);
+  // Every leaf pair closed at every control point: the beam delivers only transmission, no field to check.
+  if (w.openShare === 0) return stopNotChecked(ctx, 'aperture-closed').stopped;
   const mu = ctx.entry.beamMeterset!;
   const identity = beamIdentity(beam, ctx.entry);
   const ranges = segmentRanges(doses);
@@ -172,6 +174,8 @@ function weighted(doses: readonly SegmentDose[]) {
     collimatorSquareCm: 0,
     irradiatedSquareCm: 0,
     edgeDistanceCm: 0,
+    /** The MU share of segments with an opening (a closed one has no edge to be near). */
+    openShare: 0,
     coveredShare: 0,
     clarksonShare: 0,
   };
@@ -186,10 +190,14 @@ function weighted(doses: readonly SegmentDose[]) {
     w.collimatorYCm += s * d.collimatorFieldCm.y;
     w.collimatorSquareCm += s * d.collimatorSquareCm;
     w.irradiatedSquareCm += s * d.irradiatedSquareCm;
-    w.edgeDistanceCm += (s * d.edgeDistanceMm * d.depthScale) / MM_PER_CM;
+    if (Number.isFinite(d.edgeDistanceMm)) {
+      w.edgeDistanceCm += (s * d.edgeDistanceMm * d.depthScale) / MM_PER_CM;
+      w.openShare += s;
+    }
     if (d.covered) w.coveredShare += s;
     if (d.clarkson) w.clarksonShare += s;
   }
+  if (w.openShare > 0) w.edgeDistanceCm /= w.openShare;
   return w;
 }
 

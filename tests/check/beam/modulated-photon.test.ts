@@ -175,3 +175,37 @@ describe('modulated beams (modified Clarkson integration)', () => {
     }
   });
 });
+
+describe('closed leaves in an arc', () => {
+  const arc = importOrThrow(demoPlan('two-arc-vmat.dcm'));
+  const closeLeaves = (every: (index: number) => boolean) => ({
+    ...arc,
+    beams: arc.beams.map((b) => ({
+      ...b,
+      controlPoints: b.controlPoints.map((cp) => ({
+        ...cp,
+        devices: cp.devices.map((d) => (d.type === 'MLCX' && every(cp.index) ? { ...d, positionsMm: d.positionsMm.map(() => 0) } : d)),
+      })),
+    })),
+  });
+
+  it('all leaves closed at every control point: not checked, the beam has no field (never a crash on an empty aperture)', () => {
+    const r = check(
+      closeLeaves(() => true),
+      demo,
+    );
+    expect(beams(r).map((b) => (b.status === 'checked' ? 'checked' : b.reason.code))).toEqual(['aperture-closed', 'aperture-closed']);
+    expect(r.verdict).toBe('not verified');
+  });
+
+  it('closed at every other control point: checked, the edge distance taken over the open segments only', () => {
+    const b = beams(
+      check(
+        closeLeaves((i) => i % 2 === 0),
+        demo,
+      ),
+    )[0]!;
+    if (b.status !== 'checked') throw new Error('not checked');
+    expect(Number.isFinite(b.fitness.edgeDistanceCm)).toBe(true);
+  });
+});
