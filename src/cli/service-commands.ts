@@ -31,7 +31,17 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
   if (!opened.ok) return refuse(opened.issues.map(formatIssue));
   if (opened.value.machines.some((m) => m.machine.invented)) stamp('beam data of an INVENTED demo machine: never for a patient');
   stamp(CAUTION);
-  const service = await runService(opened.value, { receive: o.receive, ...(o.watch ? { watch: o.watch } : {}), log: stamp });
+  const rc = config.value.receiver;
+  const service = await listening(
+    () => runService(opened.value, { receive: o.receive, ...(o.watch ? { watch: o.watch } : {}), log: stamp }),
+    configFile,
+    'receiver',
+    rc ? `${rc.host}:${rc.port}` : '',
+  );
+  if ('exitCode' in service) {
+    opened.value.history.close();
+    return service;
+  }
   if (o.watch) stamp(`watching ${o.watch}`);
   await untilStopped();
   await service.stop();
@@ -44,11 +54,43 @@ export async function runServe(configFile: string): Promise<CommandOutcome> {
   if (!config.ok) return refuse(config.issues.map(formatIssue));
   const history = new HistoryStore(config.value.history.database);
   stamp(CAUTION);
-  const web = await startWebServer({ host: config.value.serve.host, port: config.value.serve.port, history, log: stamp });
+  const { host, port } = config.value.serve;
+  const web = await listening(() => startWebServer({ host, port, history, log: stamp }), configFile, 'serve', `${host}:${port}`);
+  if ('exitCode' in web) {
+    history.close();
+    return web;
+  }
   await untilStopped();
   await web.close();
   history.close();
   return { stdout: [], stderr: ['stopped'], exitCode: 0 };
+}
+
+/**
+ * Starts a listener; an address already in use or not available here is the configuration's
+ * problem, said as such (exit 2), never an internal error.
+ */
+async function listening<T extends object>(
+  start: () => Promise<T>,
+  configFile: string,
+  section: string,
+  address: string,
+): Promise<T | CommandOutcome> {
+  try {
+    return await start();
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why =
+      code === 'EADDRINUSE'
+        ? `${address} is already in use (another plumbline, or another program, listens there)`
+        : code === 'EADDRNOTAVAIL' || code === 'EACCES'
+          ? `cannot listen on ${address} (${code === 'EACCES' ? 'no permission for this port' : 'no such address on this machine'})`
+          : undefined;
+    if (!why) throw e;
+    return refuse([
+      formatIssue({ severity: 'error', code: 'invalid-option', file: configFile, path: section, message: `${why}: choose another host or port` }),
+    ]);
+  }
 }
 
 export const HistoryOptions = z.object({

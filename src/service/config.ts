@@ -12,6 +12,14 @@ const AeTitle = z
  * The service's configuration file: where objects arrive and go, who may send, which beam data
  * check which machine, the policy and the settle time. Paths are relative to the file.
  */
+/** One object's largest size (bytes): 1 GiB by default, never beyond what one read can hold (2 GiB − 1). */
+const MaxObjectBytes = z
+  .number()
+  .int()
+  .positive()
+  .max(2 ** 31 - 1)
+  .default(1024 ** 3);
+
 export const ServiceConfig = z
   .object({
     format: z.literal('plumbline.service'),
@@ -26,11 +34,7 @@ export const ServiceConfig = z
         /** Calling AE titles allowed to associate; any other is rejected at association. */
         allowedCallingAeTitles: z.array(AeTitle).min(1),
         /** Objects larger than this are refused (bytes). */
-        maxObjectBytes: z
-          .number()
-          .int()
-          .positive()
-          .default(2 * 1024 ** 3),
+        maxObjectBytes: MaxObjectBytes,
       })
       .strict()
       .optional(),
@@ -52,6 +56,8 @@ export const ServiceConfig = z
       .object({ density: z.string().min(1), bodyThresholdHu: z.number().int().optional() })
       .strict()
       .optional(),
+    /** Files in the inbox larger than this are refused unread (bytes): none may stop intake by its size. */
+    maxObjectBytes: MaxObjectBytes,
     /** Seconds without a new object in a frame of reference before its plans are checked. */
     settleSeconds: z.number().nonnegative().default(30),
     /** Hours a group without any plan (a CT, structures or dose alone) waits for its plan before it is archived unchecked. */

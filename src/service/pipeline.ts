@@ -1,6 +1,6 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import {
   beamDataStamp,
   checkArrivedPlan,
@@ -25,6 +25,8 @@ export interface PipelineContext {
   readonly log: (line: string) => void;
   /** Milliseconds since the epoch (a parameter, so tests need not wait). */
   readonly now: () => number;
+  /** What earlier passes read of each inbox file, kept while its name, size and time stay the same. */
+  readonly seen?: Map<string, Entry>;
 }
 
 export interface PipelineRound {
@@ -37,6 +39,7 @@ export interface PipelineRound {
 
 interface Entry {
   readonly file: string;
+  readonly size: number;
   readonly summary: ObjectSummary;
   readonly sha256: string;
   readonly mtimeMs: number;
@@ -55,19 +58,18 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
   mkdirSync(inbox, { recursive: true });
   let refused = 0;
   const entries: Entry[] = [];
-  for (const name of readdirSync(inbox)) {
+  const names = readdirSync(inbox);
+  for (const name of names) {
     if (name.startsWith('.')) continue;
-    const file = join(inbox, name);
-    const st = statSync(file, { throwIfNoEntry: false });
-    if (!st?.isFile()) continue;
-    const s = readObjectSummary(file);
-    if (!s.ok) {
-      refuse(ctx, file, s.issues.map((i) => i.message).join('; '));
+    const e = entryOf(ctx, join(inbox, name));
+    if (e === undefined) continue;
+    if ('reason' in e) {
+      ctx.history.recordIntakeOutcome({ recordedAt: new Date(ctx.now()).toISOString(), outcome: 'refused', fileName: name, reason: e.reason });
+      setAside(ctx, [join(inbox, name)], e.reason, 'refused');
       refused++;
-      continue;
-    }
-    entries.push({ file, summary: s.value, sha256: sha256Of(file), mtimeMs: st.mtimeMs });
+    } else entries.push(e);
   }
+  for (const k of ctx.seen?.keys() ?? []) if (!names.includes(k)) ctx.seen!.delete(k);
   const groups = new Map<string, Entry[]>();
   for (const e of entries) {
     const key = e.summary.frameOfReferenceUid ?? e.summary.studyInstanceUid ?? e.summary.sopInstanceUid;
@@ -92,25 +94,57 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
       waiting += group.length;
       continue;
     }
-    const r = checkGroup(ctx, group, plans);
-    checked += r.checked;
-    duplicates += r.duplicates;
-    refused += r.refused;
-    for (const e of group) archive(ctx, e);
+    // One group's failure is that group's record: the pass goes on with the next.
+    try {
+      const r = checkGroup(ctx, group, plans);
+      checked += r.checked;
+      duplicates += r.duplicates;
+      refused += r.refused;
+      for (const e of group) if (!r.setAside.has(e)) archive(ctx, e);
+    } catch (err) {
+      const reason = `the check failed (an error of plumbline's, not of the plan): ${(err as Error)?.message ?? String(err)}`;
+      for (const p of plans) recordOutcome(ctx, p, 'failed', reason);
+      setAside(ctx, group.map((e) => e.file).filter(existsSync), reason, 'failed');
+      refused += plans.length;
+    }
   }
   return { checked, duplicates, refused, waiting };
+}
+
+/**
+ * An inbox file as an entry (read and hashed once while its name, size and time stay the same),
+ * the reason it is refused, or undefined for what is no regular file (or is gone).
+ */
+function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string } | undefined {
+  const st = statSync(file, { throwIfNoEntry: false });
+  if (!st?.isFile()) return undefined;
+  const name = basename(file);
+  const known = ctx.seen?.get(name);
+  if (known && known.size === st.size && known.mtimeMs === st.mtimeMs) return known;
+  const limit = ctx.config.maxObjectBytes;
+  if (st.size > limit) return { reason: `${st.size} bytes, larger than the largest object accepted (${limit} bytes, maxObjectBytes): not read` };
+  try {
+    const s = readObjectSummary(file);
+    if (!s.ok) return { reason: s.issues.map((i) => i.message).join('; ') };
+    const e: Entry = { file, size: st.size, summary: s.value, sha256: sha256Of(file), mtimeMs: st.mtimeMs };
+    ctx.seen?.set(name, e);
+    return e;
+  } catch (err) {
+    return { reason: `cannot be read (${(err as NodeJS.ErrnoException).code ?? String(err)})` };
+  }
 }
 
 function checkGroup(
   ctx: PipelineContext,
   group: readonly Entry[],
   plans: readonly Entry[],
-): { checked: number; duplicates: number; refused: number } {
+): { checked: number; duplicates: number; refused: number; setAside: Set<Entry> } {
   const of = (kind: string) => group.filter((e) => e.summary.kind === kind).map((e) => e.file);
   const companions = loadCompanions({ ctFiles: of('ct'), structuresFile: of('structures')[0], doseFiles: of('dose') }, ctx.config.ct, ctx.policy);
   let checked = 0;
   let duplicates = 0;
   let refused = 0;
+  const aside = new Set<Entry>();
   for (const p of plans) {
     if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256)) {
       ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
@@ -119,7 +153,11 @@ function checkGroup(
     }
     const r = checkArrivedPlan(readFileSync(p.file), p.file, p.sha256, ctx.machines, ctx.policy, companions);
     if (!r.ok) {
-      ctx.log(`refused plan ${p.summary.sopInstanceUid}: ${r.issues.map((i) => i.message).join('; ')}`);
+      // Acknowledged to the sender, so never dropped: recorded as refused, the file kept with its reason.
+      const reason = r.issues.map((i) => i.message).join('; ');
+      recordOutcome(ctx, p, 'refused', reason);
+      setAside(ctx, [p.file], reason, 'refused');
+      aside.add(p);
       refused++;
       continue;
     }
@@ -143,7 +181,7 @@ function checkGroup(
     ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${planHeadline(result)}`);
     checked++;
   }
-  return { checked, duplicates, refused };
+  return { checked, duplicates, refused, setAside: aside };
 }
 
 /** Into archive/<date>/<sha256>.dcm; a second copy of the same content is simply removed. */
@@ -153,15 +191,32 @@ function archive(ctx: PipelineContext, e: Entry): void {
   const target = join(dir, `${e.sha256}.dcm`);
   if (existsSync(target)) rmSync(e.file);
   else renameSync(e.file, target);
+  ctx.seen?.delete(basename(e.file));
 }
 
-function refuse(ctx: PipelineContext, file: string, why: string): void {
+/** Into refused/: each file under a new name, with a note of its original name and the reason; the refusal logged. */
+function setAside(ctx: PipelineContext, files: readonly string[], why: string, outcome: 'refused' | 'failed'): void {
   const dir = ctx.config.folders.refused;
   mkdirSync(dir, { recursive: true });
-  const name = `${randomUUID()}`;
-  renameSync(file, join(dir, `${name}.bin`));
-  writeFileSync(join(dir, `${name}.txt`), `${why}\n`);
-  ctx.log(`refused a file: ${why}`);
+  for (const file of files) {
+    const name = randomUUID();
+    renameSync(file, join(dir, `${name}.bin`));
+    writeFileSync(join(dir, `${name}.txt`), `${outcome}: ${basename(file)}\n${why}\n`);
+    ctx.seen?.delete(basename(file));
+    ctx.log(`${outcome} ${basename(file)} (kept as ${name}.bin): ${why}`);
+  }
+}
+
+/** A plan that arrived and was not checked, in the history with the reason. */
+function recordOutcome(ctx: PipelineContext, p: Entry, outcome: 'refused' | 'failed', reason: string): void {
+  ctx.history.recordIntakeOutcome({
+    recordedAt: new Date(ctx.now()).toISOString(),
+    outcome,
+    fileName: basename(p.file),
+    sopInstanceUid: p.summary.sopInstanceUid,
+    sha256: p.sha256,
+    reason,
+  });
 }
 
 function sha256Of(file: string): string {

@@ -45,7 +45,7 @@ export async function runService(
   base: Omit<PipelineContext, 'log' | 'now'>,
   o: { receive: boolean; watch?: string; log: (line: string) => void },
 ): Promise<RunningService> {
-  const ctx: PipelineContext = { ...base, log: o.log, now: () => Date.now() };
+  const ctx: PipelineContext = { ...base, log: o.log, now: () => Date.now(), seen: new Map() };
   let busy = false;
   const pass = () => {
     if (busy) return;

@@ -1,6 +1,7 @@
 /** The service commands from the command line: a configuration refused with the path of what is wrong; history as text and JSON. */
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
+import { type AddressInfo, createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -59,5 +60,36 @@ describe('plumbline history and the service configuration', () => {
     const doc = HistoryDocument.parse(JSON.parse(run('history', '--config', file, '--verdict', 'beyond action level', '--json').stdout));
     expect(doc.checks.map((c) => c.planLabel)).toEqual(['L BREAST TG']);
     expect(run('history', '--config', file, '--verdict', 'fine').stderr).toMatch(/--verdict must be/);
+  });
+});
+
+describe('a port already in use', () => {
+  it('serve: a clear message naming the configuration, exit 2, not an internal error', async () => {
+    const blocker = createServer();
+    await new Promise<void>((done) => blocker.listen(0, '127.0.0.1', done));
+    const port = (blocker.address() as AddressInfo).port;
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-port-'));
+    const file = join(dir, 'service.json');
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { database: 'h.sqlite' },
+        beamData: ['demo'],
+        serve: { host: '127.0.0.1', port },
+      }),
+    );
+    const r = await new Promise<{ status: number | null; stderr: string }>((done) => {
+      const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'serve', '--config', file], { cwd: ROOT });
+      let stderr = '';
+      child.stderr.on('data', (d) => (stderr += d));
+      child.on('close', (status) => done({ status, stderr }));
+    });
+    blocker.close();
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(new RegExp(`serve: 127\\.0\\.0\\.1:${port} is already in use.*choose another host or port`));
+    expect(r.stderr).not.toMatch(/internal error|EADDRINUSE/);
   });
 });

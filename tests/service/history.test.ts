@@ -23,7 +23,7 @@ describe('the history store', () => {
   });
 
   it('keeps every check with its inputs and full result, and finds a duplicate by SOP instance and content', () => {
-    expect(store.schemaVersion()).toBe(1);
+    expect(store.schemaVersion()).toBe(2);
     const [r] = store.listChecks();
     expect(r).toMatchObject({ id, planLabel: 'BRAIN LATS', verdict: result.verdict, fullyVerified: true });
     expect(beams(store.result(id)!)).toHaveLength(2);
@@ -40,10 +40,41 @@ describe('the history store', () => {
     raw.close();
   });
 
+  it('refuses every statement form that would rewrite a record: UPDATE, DELETE, REPLACE, INSERT OR REPLACE, UPSERT', () => {
+    // The statement forms of SQLite's documentation (sqlite.org, lang_insert and lang_upsert); REPLACE deletes the old row
+    // without firing a DELETE trigger, so each form is tried on each table.
+    const raw = new Database(file);
+    const review = store.addReview({ checkId: id, reviewer: 'Physicist R', reviewedAt: '2026-12-02T08:00:00.000Z', accepted: true, comment: '' });
+    const outcome = store.recordIntakeOutcome({ recordedAt: '2026-12-02T08:00:00.000Z', outcome: 'refused', fileName: 'x.dcm', reason: 'test' });
+    const rows = {
+      checks: `(id, recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, verdict, fully_verified, tool_version, inputs_json, result_json, html)
+        VALUES (${id}, 'x', 'x', 'x', 'x', 'within tolerance', 1, 'x', '[]', '{}', '')`,
+      reviews: `(id, check_id, reviewer, reviewed_at, accepted, comment) VALUES (${review}, ${id}, 'Someone Else', 'x', 1, '')`,
+      intake_outcomes: `(id, recorded_at, outcome, file_name, reason) VALUES (${outcome}, 'x', 'failed', 'y', 'z')`,
+    };
+    for (const [table, values] of Object.entries(rows)) {
+      const first = Object.values(raw.prepare(`SELECT * FROM ${table} ORDER BY id LIMIT 1`).get() as object);
+      for (const sql of [
+        `UPDATE ${table} SET id = id`,
+        `DELETE FROM ${table}`,
+        `REPLACE INTO ${table} ${values}`,
+        `INSERT OR REPLACE INTO ${table} ${values}`,
+        `INSERT INTO ${table} ${values} ON CONFLICT (id) DO UPDATE SET id = excluded.id`,
+        `INSERT OR IGNORE INTO ${table} ${values}`,
+      ]) {
+        expect(() => raw.prepare(sql).run(), sql).toThrow(/append-only/);
+      }
+      expect(Object.values(raw.prepare(`SELECT * FROM ${table} ORDER BY id LIMIT 1`).get() as object)).toEqual(first);
+    }
+    raw.close();
+    expect(store.listChecks()[0]).toMatchObject({ verdict: result.verdict });
+  });
+
   it('a review is a new record; a second review does not replace the first', () => {
     store.addReview({ checkId: id, reviewer: 'Physicist A', reviewedAt: '2026-12-02T09:00:00.000Z', accepted: false, comment: 'check the point' });
     store.addReview({ checkId: id, reviewer: 'Physicist B', reviewedAt: '2026-12-02T10:00:00.000Z', accepted: true, comment: '' });
     expect(store.reviews(id).map((r) => [r.reviewer, r.accepted])).toEqual([
+      ['Physicist R', true],
       ['Physicist A', false],
       ['Physicist B', true],
     ]);
@@ -55,7 +86,7 @@ describe('the history store', () => {
 
   it('opening the database again applies no migration twice', () => {
     const again = new HistoryStore(file);
-    expect(again.schemaVersion()).toBe(1);
+    expect(again.schemaVersion()).toBe(2);
     expect(again.listChecks()).toHaveLength(1);
     again.close();
   });

@@ -3,7 +3,7 @@
  * once settled (the pelvis plan with its own CT), recorded, archived by content hash; a second send of
  * the same plan is recognised and not checked twice; a file that is not DICOM goes to the refused folder.
  */
-import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -13,6 +13,7 @@ import { ServiceConfig } from '../../src/service/config.js';
 import { HistoryStore } from '../../src/service/history/store.js';
 import { processInbox } from '../../src/service/pipeline.js';
 import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
+import { writeVariant } from '../helpers/plan-variants.js';
 
 const machine = (() => {
   const m = loadMachine(DEMO_MANIFEST);
@@ -95,5 +96,63 @@ describe('the intake pipeline', () => {
     expect(s.history.listChecks()).toHaveLength(1);
     expect(readdirSync(s.config.folders.refused).sort()).toHaveLength(2);
     expect(s.lines.join('\n')).toMatch(/duplicate: plan .* was already checked/);
+  });
+});
+
+describe('every plan ends as a record, whatever else is in the inbox', () => {
+  it('100 plans behind two poison objects, a refused plan and a 2.2 GB sparse file: 100 checked, the rest recorded with reasons', () => {
+    const s = setup();
+    const uid = (k: number, what: string) => `2.25.${what === 'sop' ? 1 : 2}${String(k).padStart(6, '0')}`;
+    const plans = Array.from({ length: 102 }, (_, k) =>
+      writeVariant('four-field-box.dcm', (ds) => {
+        ds.SOPInstanceUID = uid(k, 'sop');
+        ds.FrameOfReferenceUID = uid(k, 'frame');
+      }),
+    );
+    plans.forEach((f, k) => put(s.config.folders.inbox, f, `plan-${k}.dcm`));
+    const refusedPlan = writeVariant('four-field-box.dcm', (ds) => {
+      ds.SOPInstanceUID = '2.25.3';
+      ds.FrameOfReferenceUID = '2.25.4';
+      ds.FractionGroupSequence[0].ReferencedBeamSequence[0].BeamMeterset = -50;
+    });
+    put(s.config.folders.inbox, refusedPlan, 'negative-mu.dcm');
+    const big = join(s.config.folders.inbox, 'huge.dcm');
+    writeFileSync(big, '');
+    truncateSync(big, 2.2e9); // sparse: no disk used, 2.2 GB by its size
+    // Two poison objects: processing their groups throws (here, the history's lookup for those two plans).
+    const poison = new Set([uid(7, 'sop'), uid(60, 'sop')]);
+    const history = new Proxy(s.history, {
+      get(target, prop, receiver) {
+        if (prop === 'alreadyChecked')
+          return (sop: string, sha: string) => {
+            if (poison.has(sop)) throw new Error('poisoned for the test');
+            return target.alreadyChecked(sop, sha);
+          };
+        const v = Reflect.get(target, prop, receiver);
+        return typeof v === 'function' ? v.bind(target) : v;
+      },
+    });
+    s.advance(60);
+    const round = processInbox({ ...s.ctx, history });
+    expect(round).toMatchObject({ checked: 100, waiting: 0 });
+    expect(s.history.listChecks()).toHaveLength(100);
+    const outcomes = s.history.intakeOutcomes();
+    expect(
+      outcomes
+        .filter((o) => o.outcome === 'failed')
+        .map((o) => o.sopInstanceUid)
+        .sort(),
+    ).toEqual([...poison].sort());
+    expect(
+      outcomes
+        .filter((o) => o.outcome === 'refused')
+        .map((o) => o.fileName)
+        .sort(),
+    ).toEqual(['huge.dcm', 'negative-mu.dcm']);
+    expect(outcomes.find((o) => o.fileName === 'huge.dcm')!.reason).toMatch(/larger than the largest object accepted/);
+    expect(readdirSync(s.config.folders.inbox)).toEqual([]);
+    // Each set-aside file kept under a new name beside a note naming the original and the reason.
+    const notes = readdirSync(s.config.folders.refused).filter((f) => f.endsWith('.txt'));
+    expect(notes).toHaveLength(4);
   });
 });

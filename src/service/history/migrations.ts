@@ -41,4 +41,29 @@ export const MIGRATIONS: readonly { readonly version: number; readonly sql: stri
       CREATE TRIGGER reviews_no_delete BEFORE DELETE ON reviews BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
     `,
   },
+  {
+    version: 2,
+    sql: `
+      -- Every object that arrived and was not checked ends here: refused (its input) or failed (our error), with the reason.
+      CREATE TABLE intake_outcomes (
+        id INTEGER PRIMARY KEY,
+        recorded_at TEXT NOT NULL,
+        outcome TEXT NOT NULL CHECK (outcome IN ('refused', 'failed')),
+        file_name TEXT NOT NULL,
+        sop_instance_uid TEXT,
+        sha256 TEXT,
+        reason TEXT NOT NULL
+      );
+      CREATE INDEX intake_outcomes_time ON intake_outcomes (recorded_at);
+      CREATE TRIGGER intake_outcomes_no_update BEFORE UPDATE ON intake_outcomes BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER intake_outcomes_no_delete BEFORE DELETE ON intake_outcomes BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      -- INSERT OR REPLACE (and REPLACE) deletes the old row without a DELETE trigger: refuse any insert onto an existing id.
+      CREATE TRIGGER checks_no_replace BEFORE INSERT ON checks WHEN EXISTS (SELECT 1 FROM checks WHERE id = NEW.id)
+        BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER reviews_no_replace BEFORE INSERT ON reviews WHEN EXISTS (SELECT 1 FROM reviews WHERE id = NEW.id)
+        BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+      CREATE TRIGGER intake_outcomes_no_replace BEFORE INSERT ON intake_outcomes WHEN EXISTS (SELECT 1 FROM intake_outcomes WHERE id = NEW.id)
+        BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
+    `,
+  },
 ];

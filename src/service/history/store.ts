@@ -59,6 +59,19 @@ export const ReviewRecord = z.object({
 });
 export type ReviewRecord = z.infer<typeof ReviewRecord>;
 
+/** An object that arrived and was not checked: refused for its input, or failed by an error of ours. */
+export const IntakeOutcome = z.object({
+  id: z.number(),
+  recordedAt: z.string(),
+  outcome: z.enum(['refused', 'failed']),
+  /** The name it arrived under (the watched folder's file name, or the inbox name the receiver gave it). */
+  fileName: z.string(),
+  sopInstanceUid: z.string().optional(),
+  sha256: z.string().optional(),
+  reason: z.string(),
+});
+export type IntakeOutcome = z.infer<typeof IntakeOutcome>;
+
 export interface NewCheck {
   readonly recordedAt: string;
   readonly result: PlanCheck;
@@ -210,6 +223,43 @@ export class HistoryStore {
       accepted: x.accepted === 1,
       comment: x.comment,
     }));
+  }
+
+  recordIntakeOutcome(o: Omit<IntakeOutcome, 'id'>): number {
+    const v = IntakeOutcome.omit({ id: true }).parse(o);
+    return Number(
+      this.db
+        .prepare('INSERT INTO intake_outcomes (recorded_at, outcome, file_name, sop_instance_uid, sha256, reason) VALUES (?, ?, ?, ?, ?, ?)')
+        .run(v.recordedAt, v.outcome, v.fileName, v.sopInstanceUid ?? null, v.sha256 ?? null, v.reason).lastInsertRowid,
+    );
+  }
+
+  /** Objects refused or failed at intake since a date (ISO), newest first. */
+  intakeOutcomes(since = ''): IntakeOutcome[] {
+    const rows = this.db
+      .prepare(
+        'SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason FROM intake_outcomes WHERE recorded_at >= ? ORDER BY id DESC',
+      )
+      .all(since) as {
+      id: number;
+      recorded_at: string;
+      outcome: string;
+      file_name: string;
+      sop_instance_uid: string | null;
+      sha256: string | null;
+      reason: string;
+    }[];
+    return rows.map((r) =>
+      IntakeOutcome.parse({
+        id: r.id,
+        recordedAt: r.recorded_at,
+        outcome: r.outcome,
+        fileName: r.file_name,
+        ...(r.sop_instance_uid !== null ? { sopInstanceUid: r.sop_instance_uid } : {}),
+        ...(r.sha256 !== null ? { sha256: r.sha256 } : {}),
+        reason: r.reason,
+      }),
+    );
   }
 
   close(): void {

@@ -1,7 +1,7 @@
 import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
-import type { CheckRecord, ReviewRecord, StoredResult } from '../history/store.js';
+import type { CheckRecord, IntakeOutcome, ReviewRecord, StoredResult } from '../history/store.js';
 import { controlLimits } from './control-limits.js';
 
 /** The verdicts in order of severity, as the model defines them. */
@@ -39,6 +39,7 @@ export function listPage(
   f: ListFilter,
   machines: readonly string[],
   trend: readonly TrendPoint[],
+  notChecked: readonly IntakeOutcome[] = [],
 ): string {
   const counts = VERDICTS.map(
     (v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`,
@@ -64,10 +65,25 @@ class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 
     `<p class="counts">${counts}</p>${filters}
 <table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully
 verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
+${intakeTable(notChecked)}
 <h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system;
 the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
 ${trendCharts(trend)}`,
   );
+}
+
+/** What arrived and was not checked: refused for its input or failed by an error of ours, each with its reason. */
+function intakeTable(outcomes: readonly IntakeOutcome[]): string {
+  if (!outcomes.length) return '';
+  const rows = outcomes
+    .map(
+      (o) =>
+        `<tr data-intake="${o.id}"><td>${esc(o.recordedAt.replace('T', ' ').slice(0, 16))}</td><td>${esc(o.outcome)}</td>` +
+        `<td>${esc(o.fileName)}</td><td>${esc(o.sopInstanceUid ?? '—')}</td><td>${esc(o.reason)}</td></tr>`,
+    )
+    .join('');
+  return `<h2>Arrived, not checked</h2><table id="intake"><thead><tr><th>recorded (UTC)</th><th>outcome</th><th>file</th>
+<th>SOP instance</th><th>reason</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
 
 /** One SVG per series: the deviations over time, the mean and the ±3σ limits. Text first; lines only as emphasis. */

@@ -82,7 +82,13 @@ export function startWebServer(o: {
       res,
       200,
       'text/html; charset=utf-8',
-      listPage(checks, { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) }, machines, trend),
+      listPage(
+        checks,
+        { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) },
+        machines,
+        trend,
+        o.history.intakeOutcomes(since),
+      ),
     );
   }
 
