@@ -58,6 +58,8 @@ export const ServiceConfig = z
       .optional(),
     /** Files in the inbox larger than this are refused unread (bytes): none may stop intake by its size. */
     maxObjectBytes: MaxObjectBytes,
+    /** Seconds a file in the watched folder must stay unchanged (size and time) before it is taken: the exporter has finished. */
+    watchStableSeconds: z.number().nonnegative().default(10),
     /** Seconds without a new object in a frame of reference before its plans are checked. */
     settleSeconds: z.number().nonnegative().default(30),
     /** Hours a group without any plan (a CT, structures or dose alone) waits for its plan before it is archived unchecked. */

@@ -16,6 +16,7 @@ import { checkHtml } from '../report/check-html.js';
 import { planHeadline } from '../report/plan-headline.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
+import { originalName } from './watch-folder.js';
 
 export interface PipelineContext {
   readonly config: ServiceConfig;
@@ -64,7 +65,12 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
     const e = entryOf(ctx, join(inbox, name));
     if (e === undefined) continue;
     if ('reason' in e) {
-      ctx.history.recordIntakeOutcome({ recordedAt: new Date(ctx.now()).toISOString(), outcome: 'refused', fileName: name, reason: e.reason });
+      ctx.history.recordIntakeOutcome({
+        recordedAt: new Date(ctx.now()).toISOString(),
+        outcome: 'refused',
+        fileName: originalName(name),
+        reason: e.reason,
+      });
       setAside(ctx, [join(inbox, name)], e.reason, 'refused');
       refused++;
     } else entries.push(e);
@@ -123,14 +129,16 @@ function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string }
   if (known && known.size === st.size && known.mtimeMs === st.mtimeMs) return known;
   const limit = ctx.config.maxObjectBytes;
   if (st.size > limit) return { reason: `${st.size} bytes, larger than the largest object accepted (${limit} bytes, maxObjectBytes): not read` };
+  // A file still being written reads as broken: refused only once it has been still for the settle time.
+  const settling = ctx.now() - st.mtimeMs < ctx.config.settleSeconds * 1000;
   try {
     const s = readObjectSummary(file);
-    if (!s.ok) return { reason: s.issues.map((i) => i.message).join('; ') };
+    if (!s.ok) return settling ? undefined : { reason: s.issues.map((i) => i.message).join('; ') };
     const e: Entry = { file, size: st.size, summary: s.value, sha256: sha256Of(file), mtimeMs: st.mtimeMs };
     ctx.seen?.set(name, e);
     return e;
   } catch (err) {
-    return { reason: `cannot be read (${(err as NodeJS.ErrnoException).code ?? String(err)})` };
+    return settling ? undefined : { reason: `cannot be read (${(err as NodeJS.ErrnoException).code ?? String(err)})` };
   }
 }
 
@@ -201,9 +209,9 @@ function setAside(ctx: PipelineContext, files: readonly string[], why: string, o
   for (const file of files) {
     const name = randomUUID();
     renameSync(file, join(dir, `${name}.bin`));
-    writeFileSync(join(dir, `${name}.txt`), `${outcome}: ${basename(file)}\n${why}\n`);
+    writeFileSync(join(dir, `${name}.txt`), `${outcome}: ${originalName(basename(file))}\n${why}\n`);
     ctx.seen?.delete(basename(file));
-    ctx.log(`${outcome} ${basename(file)} (kept as ${name}.bin): ${why}`);
+    ctx.log(`${outcome} ${originalName(basename(file))} (kept as ${name}.bin): ${why}`);
   }
 }
 
@@ -212,7 +220,7 @@ function recordOutcome(ctx: PipelineContext, p: Entry, outcome: 'refused' | 'fai
   ctx.history.recordIntakeOutcome({
     recordedAt: new Date(ctx.now()).toISOString(),
     outcome,
-    fileName: basename(p.file),
+    fileName: originalName(basename(p.file)),
     sopInstanceUid: p.summary.sopInstanceUid,
     sha256: p.sha256,
     reason,

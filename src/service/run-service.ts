@@ -14,8 +14,6 @@ export interface RunningService {
   readonly stop: () => Promise<void>;
 }
 
-/** A file in the watched folder is taken once unchanged for this long. */
-const STABLE_MS = 2000;
 const TICK_MS = 1000;
 
 /** The service's pieces from its configuration: beam data of every machine, the policy, the history. */
@@ -75,11 +73,11 @@ export async function runService(
           log: o.log,
         })
       : undefined;
-  const watchState: WatchState = { seen: new Map() };
+  const watchState: WatchState = { seen: new Map(), told: new Set() };
   const timer = setInterval(() => {
     if (o.watch) {
       try {
-        const n = takeStableFiles(o.watch, base.config.folders.inbox, watchState, Date.now(), STABLE_MS);
+        const n = takeStableFiles(o.watch, base.config.folders.inbox, watchState, Date.now(), base.config.watchStableSeconds * 1000, o.log);
         if (n) o.log(`took ${n} file(s) from ${o.watch}`);
       } catch (e) {
         o.log(`watch error (will retry): ${(e as Error).message}`);

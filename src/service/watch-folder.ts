@@ -1,10 +1,22 @@
 import { randomUUID } from 'node:crypto';
 import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 
 export interface WatchState {
   /** Per file seen: its size and modification time at the last look, and since when they have not changed. */
   readonly seen: Map<string, { size: number; mtimeMs: number; stableSinceMs: number }>;
+  /** Hidden files already said to be left alone (said once each). */
+  readonly told?: Set<string>;
+}
+
+/** The inbox name of a file taken from the watched folder: unique, and still naming the exported file. */
+export const inboxNameFor = (exported: string): string => `${randomUUID()}${ORIGIN}${basename(exported)}`;
+const ORIGIN = '--';
+
+/** The exported file's own name from its inbox name (the receiver's names are kept as they are). */
+export function originalName(inboxName: string): string {
+  const at = inboxName.indexOf(ORIGIN);
+  return at === 36 ? inboxName.slice(at + ORIGIN.length) : inboxName;
 }
 
 /**
@@ -13,10 +25,23 @@ export interface WatchState {
  * is then moved into the inbox under a new name (copied, fsynced and renamed when the two folders are
  * on different file systems). Returns the number of files taken.
  */
-export function takeStableFiles(folder: string, inbox: string, state: WatchState, nowMs: number, stableMs: number): number {
+export function takeStableFiles(
+  folder: string,
+  inbox: string,
+  state: WatchState,
+  nowMs: number,
+  stableMs: number,
+  log: (line: string) => void = () => {},
+): number {
   let taken = 0;
   const present = new Set<string>();
-  for (const file of listFiles(folder)) {
+  const { files, hidden } = listFiles(folder);
+  for (const h of hidden)
+    if (!state.told?.has(h)) {
+      state.told?.add(h);
+      log(`watch: ${h} is hidden (its name starts with a dot): left in the export folder, not taken`);
+    }
+  for (const file of files) {
     const st = statSync(file, { throwIfNoEntry: false });
     if (!st?.isFile()) continue;
     present.add(file);
@@ -25,7 +50,8 @@ export function takeStableFiles(folder: string, inbox: string, state: WatchState
       state.seen.set(file, { size: st.size, mtimeMs: st.mtimeMs, stableSinceMs: nowMs });
       continue;
     }
-    if (nowMs - before.stableSinceMs < stableMs || nowMs - st.mtimeMs < stableMs) continue;
+    // Our own observation only: a file dated in the future (a clock elsewhere) is taken once it stops changing.
+    if (nowMs - before.stableSinceMs < stableMs) continue;
     moveInto(file, inbox);
     state.seen.delete(file);
     taken++;
@@ -34,13 +60,12 @@ export function takeStableFiles(folder: string, inbox: string, state: WatchState
   return taken;
 }
 
-function listFiles(dir: string): string[] {
-  const out: string[] = [];
+function listFiles(dir: string, out = { files: [] as string[], hidden: [] as string[] }): { files: string[]; hidden: string[] } {
   for (const e of readdirSync(dir, { withFileTypes: true })) {
-    if (e.name.startsWith('.')) continue;
     const p = join(dir, e.name);
-    if (e.isDirectory()) out.push(...listFiles(p));
-    else if (e.isFile()) out.push(p);
+    if (e.name.startsWith('.')) out.hidden.push(p);
+    else if (e.isDirectory()) listFiles(p, out);
+    else if (e.isFile()) out.files.push(p);
   }
   return out;
 }
@@ -66,5 +91,5 @@ function moveInto(file: string, inbox: string): void {
   // Arrival time, not the export's: the settle time counts from when the object reached the inbox.
   const now = new Date();
   utimesSync(tmp, now, now);
-  renameSync(tmp, join(inbox, `${randomUUID()}.dcm`));
+  renameSync(tmp, join(inbox, inboxNameFor(file)));
 }

@@ -3,7 +3,7 @@
  * once settled (the pelvis plan with its own CT), recorded, archived by content hash; a second send of
  * the same plan is recognised and not checked twice; a file that is not DICOM goes to the refused folder.
  */
-import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, truncateSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -12,6 +12,7 @@ import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { HistoryStore } from '../../src/service/history/store.js';
 import { processInbox } from '../../src/service/pipeline.js';
+import { inboxNameFor } from '../../src/service/watch-folder.js';
 import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
 import { writeVariant } from '../helpers/plan-variants.js';
 
@@ -154,5 +155,18 @@ describe('every plan ends as a record, whatever else is in the inbox', () => {
     // Each set-aside file kept under a new name beside a note naming the original and the reason.
     const notes = readdirSync(s.config.folders.refused).filter((f) => f.endsWith('.txt'));
     expect(notes).toHaveLength(4);
+  });
+});
+
+describe('a file still being written', () => {
+  it('is refused only once it has been still for the settle time, under the name it was exported with', () => {
+    const s = setup();
+    const name = inboxNameFor('/export/RP.half.dcm');
+    writeFileSync(join(s.config.folders.inbox, name), readFileSync(clinic('brain-laterals.dcm')).subarray(0, 300));
+    expect(processInbox(s.ctx).refused).toBe(0);
+    expect(readdirSync(s.config.folders.inbox)).toEqual([name]);
+    s.advance(60);
+    expect(processInbox(s.ctx).refused).toBe(1);
+    expect(s.history.intakeOutcomes()).toEqual([expect.objectContaining({ outcome: 'refused', fileName: 'RP.half.dcm' })]);
   });
 });
