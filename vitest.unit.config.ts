@@ -13,6 +13,7 @@ export default defineConfig({
       'tests/service/crash.test.ts',
       'tests/service/receiver.test.ts',
       'tests/service/web.test.ts',
+      'tests/service/duplicates.test.ts',
       'tests/dicom/transfer-syntaxes.test.ts',
       'tests/dicom/dictionary.test.ts',
       'tests/geometry/ct-depth.test.ts',

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { LoadedMachine } from '../beamdata/index.js';
 import { checkPlan, chooseMachine, type PatientCt, type Policy } from '../check/index.js';
 import { importPlanBytes, readRtDose } from '../dicom/index.js';
@@ -73,4 +74,13 @@ export function checkArrivedPlan(
     },
   );
   return { ok: true, value: { result: withWarnings(result, companions.warnings), machine } };
+}
+
+/**
+ * The plan's content, whatever its encoding: the SHA-256 of what the importer read from it. The same
+ * plan sent again in another transfer syntax (other bytes, the same values) has the same content.
+ */
+export function planContentSha256(bytes: Uint8Array, file: string): string | undefined {
+  const imported = importPlanBytes(bytes, file);
+  return imported.ok ? createHash('sha256').update(JSON.stringify(imported.value.plan)).digest('hex') : undefined;
 }

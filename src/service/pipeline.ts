@@ -7,6 +7,7 @@ import {
   checkDocument,
   type LoadedMachine,
   loadCompanions,
+  planContentSha256,
   type ObjectSummary,
   type Policy,
   readObjectSummary,
@@ -154,12 +155,14 @@ function checkGroup(
   let refused = 0;
   const aside = new Set<Entry>();
   for (const p of plans) {
-    if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256)) {
+    const bytes = readFileSync(p.file);
+    const content = planContentSha256(bytes, p.file);
+    if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256, content)) {
       ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
       duplicates++;
       continue;
     }
-    const r = checkArrivedPlan(readFileSync(p.file), p.file, p.sha256, ctx.machines, ctx.policy, companions);
+    const r = checkArrivedPlan(bytes, p.file, p.sha256, ctx.machines, ctx.policy, companions);
     if (!r.ok) {
       // Acknowledged to the sender, so never dropped: recorded as refused, the file kept with its reason.
       const reason = r.issues.map((i) => i.message).join('; ');
@@ -180,6 +183,7 @@ function checkGroup(
       recordedAt: recordedAt.toISOString(),
       result,
       planSha256: p.sha256,
+      ...(content ? { planContentSha256: content } : {}),
       toolVersion: VERSION,
       beamDataVersion: stamp.dataVersion,
       beamDataSha256: stamp.sha256,

@@ -23,7 +23,7 @@ describe('the history store', () => {
   });
 
   it('keeps every check with its inputs and full result, and finds a duplicate by SOP instance and content', () => {
-    expect(store.schemaVersion()).toBe(2);
+    expect(store.schemaVersion()).toBe(3);
     const [r] = store.listChecks();
     expect(r).toMatchObject({ id, planLabel: 'BRAIN LATS', verdict: result.verdict, fullyVerified: true });
     expect(beams(store.result(id)!)).toHaveLength(2);
@@ -86,7 +86,7 @@ describe('the history store', () => {
 
   it('opening the database again applies no migration twice', () => {
     const again = new HistoryStore(file);
-    expect(again.schemaVersion()).toBe(2);
+    expect(again.schemaVersion()).toBe(3);
     expect(again.listChecks()).toHaveLength(1);
     again.close();
   });

@@ -3,54 +3,15 @@
  * once settled (the pelvis plan with its own CT), recorded, archived by content hash; a second send of
  * the same plan is recognised and not checked twice; a file that is not DICOM goes to the refused folder.
  */
-import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, truncateSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readdirSync, readFileSync, truncateSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { loadMachine } from '../../src/beamdata/index.js';
-import { DEFAULT_POLICY } from '../../src/check/index.js';
-import { ServiceConfig } from '../../src/service/config.js';
-import { HistoryStore } from '../../src/service/history/store.js';
 import { processInbox } from '../../src/service/pipeline.js';
 import { inboxNameFor } from '../../src/service/watch-folder.js';
-import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
+import { clinic, put, setup } from '../helpers/inbox.js';
+import { manifestPath } from '../helpers/machines.js';
 import { writeVariant } from '../helpers/plan-variants.js';
 
-const machine = (() => {
-  const m = loadMachine(DEMO_MANIFEST);
-  if (!m.ok) throw new Error('demo');
-  return m.value;
-})();
-
-function setup() {
-  const root = mkdtempSync(join(tmpdir(), 'plumbline-pipe-'));
-  const config = ServiceConfig.parse({
-    format: 'plumbline.service',
-    formatVersion: 1,
-    folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
-    history: { database: join(root, 'history.sqlite') },
-    beamData: [DEMO_MANIFEST],
-    ct: { density: manifestPath('fixtures/demo/ct/hu-to-density.csv') },
-    settleSeconds: 30,
-  });
-  mkdirSync(config.folders.inbox, { recursive: true });
-  const history = new HistoryStore(config.history.database);
-  const lines: string[] = [];
-  let now = Date.now();
-  const ctx = { config, machines: [machine], policy: DEFAULT_POLICY, history, log: (l: string) => lines.push(l), now: () => now };
-  return {
-    root,
-    config,
-    history,
-    lines,
-    ctx,
-    advance: (s: number) => {
-      now += s * 1000;
-    },
-  };
-}
-const put = (inbox: string, src: string, name = `${Math.random().toString(36).slice(2)}.dcm`) => copyFileSync(src, join(inbox, name));
-const clinic = (f: string) => manifestPath(`fixtures/demo/clinic/${f}`);
 const ctDir = manifestPath('fixtures/demo/clinic-ct/pelvis-box');
 
 describe('the intake pipeline', () => {
@@ -125,9 +86,9 @@ describe('every plan ends as a record, whatever else is in the inbox', () => {
     const history = new Proxy(s.history, {
       get(target, prop, receiver) {
         if (prop === 'alreadyChecked')
-          return (sop: string, sha: string) => {
+          return (sop: string, ...rest: [string, string?]) => {
             if (poison.has(sop)) throw new Error('poisoned for the test');
-            return target.alreadyChecked(sop, sha);
+            return target.alreadyChecked(sop, ...rest);
           };
         const v = Reflect.get(target, prop, receiver);
         return typeof v === 'function' ? v.bind(target) : v;

@@ -66,4 +66,12 @@ export const MIGRATIONS: readonly { readonly version: number; readonly sql: stri
         BEGIN SELECT RAISE(ABORT, 'the history is append-only'); END;
     `,
   },
+  {
+    version: 3,
+    sql: `
+      -- The plan's content whatever its encoding (the importer's reading of it): a plan sent again in another transfer syntax is the same plan.
+      ALTER TABLE checks ADD COLUMN plan_content_sha256 TEXT;
+      CREATE INDEX checks_plan_content ON checks (plan_sop_instance_uid, plan_content_sha256);
+    `,
+  },
 ];

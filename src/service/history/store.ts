@@ -76,6 +76,8 @@ export interface NewCheck {
   readonly recordedAt: string;
   readonly result: PlanCheck;
   readonly planSha256: string;
+  /** The plan's content whatever its encoding (see planContentSha256). */
+  readonly planContentSha256?: string;
   readonly toolVersion: string;
   readonly beamDataVersion?: string;
   readonly beamDataSha256?: string;
@@ -143,8 +145,8 @@ export class HistoryStore {
     const r = c.result;
     const info = this.db
       .prepare(`INSERT INTO checks (recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
-        beam_data_version, beam_data_sha256, inputs_json, result_json, html)
-        VALUES (@recordedAt, @sop, @sha, @label, @patient, @machine, @verdict, @full, @tool, @bdv, @bds, @inputs, @result, @html)`)
+        beam_data_version, beam_data_sha256, inputs_json, result_json, html, plan_content_sha256)
+        VALUES (@recordedAt, @sop, @sha, @label, @patient, @machine, @verdict, @full, @tool, @bdv, @bds, @inputs, @result, @html, @content)`)
       .run({
         recordedAt: c.recordedAt,
         sop: r.sopInstanceUid,
@@ -160,13 +162,16 @@ export class HistoryStore {
         inputs: JSON.stringify(c.inputs),
         result: JSON.stringify(r),
         html: c.html,
+        content: c.planContentSha256 ?? null,
       });
     return Number(info.lastInsertRowid);
   }
 
   /** Whether this plan (same SOP instance, same content) was already checked: a duplicate send. */
-  alreadyChecked(planSopInstanceUid: string, planSha256: string): boolean {
-    return !!this.db.prepare('SELECT 1 FROM checks WHERE plan_sop_instance_uid = ? AND plan_sha256 = ? LIMIT 1').get(planSopInstanceUid, planSha256);
+  alreadyChecked(planSopInstanceUid: string, planSha256: string, planContentSha256?: string): boolean {
+    return !!this.db
+      .prepare('SELECT 1 FROM checks WHERE plan_sop_instance_uid = ? AND (plan_sha256 = ? OR plan_content_sha256 = ?) LIMIT 1')
+      .get(planSopInstanceUid, planSha256, planContentSha256 ?? null);
   }
 
   listChecks(f: CheckFilter = {}): CheckRecord[] {
