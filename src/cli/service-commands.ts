@@ -54,8 +54,8 @@ export async function runServe(configFile: string): Promise<CommandOutcome> {
   if (!config.ok) return refuse(config.issues.map(formatIssue));
   const history = new HistoryStore(config.value.history.database);
   stamp(CAUTION);
-  const { host, port } = config.value.serve;
-  const web = await listening(() => startWebServer({ host, port, history, log: stamp }), configFile, 'serve', `${host}:${port}`);
+  const { host, port, hostNames } = config.value.serve;
+  const web = await listening(() => startWebServer({ host, port, hostNames, history, log: stamp }), configFile, 'serve', `${host}:${port}`);
   if ('exitCode' in web) {
     history.close();
     return web;

@@ -65,9 +65,14 @@ export const ServiceConfig = z
     /** Hours a group without any plan (a CT, structures or dose alone) waits for its plan before it is archived unchecked. */
     orphanHours: z.number().positive().default(72),
     serve: z
-      .object({ host: z.string().min(1).default('127.0.0.1'), port: z.number().int().min(1).max(65535).default(8470) })
+      .object({
+        host: z.string().min(1).default('127.0.0.1'),
+        port: z.number().int().min(1).max(65535).default(8470),
+        /** Other names the page is reached by (this machine's DNS name): any other Host header is refused. */
+        hostNames: z.array(z.string().min(1)).default([]),
+      })
       .strict()
-      .default({ host: '127.0.0.1', port: 8470 }),
+      .default({ host: '127.0.0.1', port: 8470, hostNames: [] }),
   })
   .strict();
 export type ServiceConfig = z.infer<typeof ServiceConfig>;

@@ -3,6 +3,7 @@
  * browser download), over a history filled by the intake pipeline from the demo clinic.
  */
 import { copyFileSync, mkdirSync, mkdtempSync } from 'node:fs';
+import { request as httpRequest } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type Browser, chromium } from 'playwright-core';
@@ -117,5 +118,46 @@ describe('the chart-round page', () => {
     });
     expect(empty.status).toBe(400);
     expect(history.reviews(id)).toHaveLength(0);
+  });
+
+  /** A raw request, so the Host header can be set as a rebinding page would send it (fetch fixes it). */
+  const raw = (method: string, path: string, headers: Record<string, string>, body = ''): Promise<{ status: number; text: string }> =>
+    new Promise((done, fail) => {
+      const req = httpRequest(`${base}${path}`, { method, headers }, (res) => {
+        let text = '';
+        res.on('data', (d) => (text += d));
+        res.on('end', () => done({ status: res.statusCode ?? 0, text }));
+      });
+      req.on('error', fail);
+      req.end(body);
+    });
+
+  it('answers only to its own host names: a DNS-rebinding request (another Host) reads nothing and reviews nothing', async () => {
+    const id = history.listChecks()[0]!.id;
+    expect((await raw('GET', '/', { host: 'attacker.example:80' })).status).toBe(421);
+    const post = await raw(
+      'POST',
+      `/check/${id}/review`,
+      { host: 'attacker.example', origin: 'http://attacker.example', 'content-type': 'application/x-www-form-urlencoded' },
+      'reviewer=x&accepted=yes',
+    );
+    expect(post.status).toBe(421);
+    expect(history.reviews(id)).toHaveLength(0);
+    expect((await raw('GET', '/', { host: new URL(base).host })).status).toBe(200);
+  });
+
+  it('forbids framing by other pages, answers HEAD, refuses an oversized review with 413, and says which filters it ignored', async () => {
+    const page = await fetch(`${base}/`);
+    expect(page.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
+    expect((await fetch(`${base}/`, { method: 'HEAD' })).status).toBe(200);
+    const id = history.listChecks()[0]!.id;
+    const big = await fetch(`${base}/check/${id}/review`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: `reviewer=x&accepted=yes&comment=${'a'.repeat(20_000)}`,
+    });
+    expect(big.status).toBe(413);
+    const filtered = await (await fetch(`${base}/?verdict=maybe&since=yesterday`)).text();
+    expect(filtered).toMatch(/Not understood, so not applied: verdict=maybe, since=yesterday/);
   });
 });

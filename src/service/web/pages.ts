@@ -40,6 +40,7 @@ export function listPage(
   machines: readonly string[],
   trend: readonly TrendPoint[],
   notChecked: readonly IntakeOutcome[] = [],
+  ignoredFilters: readonly string[] = [],
 ): string {
   const counts = VERDICTS.map(
     (v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`,
@@ -62,7 +63,9 @@ class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 
     .join('');
   return page(
     'Checked plans',
-    `<p class="counts">${counts}</p>${filters}
+    `<p class="counts">${counts}</p>${filters}${
+      ignoredFilters.length ? `<p class="note" id="ignored">Not understood, so not applied: ${esc(ignoredFilters.join(', '))}.</p>` : ''
+    }
 <table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully
 verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
 ${intakeTable(notChecked)}

@@ -31,12 +31,18 @@ export function startWebServer(o: {
   host: string;
   port: number;
   history: HistoryStore;
+  /** Further names the page may be reached by (a DNS name of this machine); the configured host always. */
+  hostNames?: readonly string[];
   now?: () => number;
   log: (l: string) => void;
 }): Promise<{ port: number; close: () => Promise<void> }> {
   const now = o.now ?? (() => Date.now());
+  let port = o.port;
   const server = http.createServer((req, res) => {
     try {
+      // A request naming another host (DNS rebinding: a page elsewhere resolving its name to this address) is refused.
+      if (!allowedHosts(o.host, port, o.hostNames ?? []).has((req.headers.host ?? '').toLowerCase()))
+        return send(res, 421, 'text/plain; charset=utf-8', 'this page answers only to its configured host names');
       route(req, res);
     } catch (e) {
       o.log(`web: ${(e as Error).message}`);
@@ -47,18 +53,28 @@ export function startWebServer(o: {
   function route(req: http.IncomingMessage, res: http.ServerResponse): void {
     const url = new URL(req.url ?? '/', 'http://localhost');
     const check = /^\/check\/(\d+)(\/report|\/review)?$/.exec(url.pathname);
-    if (req.method === 'GET' && url.pathname === '/') return list(url, res);
-    if (check && req.method === 'GET' && !check[2]) return one(Number(check[1]), res);
-    if (check && req.method === 'GET' && check[2] === '/report') {
+    // HEAD is GET without the body (Node leaves the body out of a HEAD response).
+    const read = req.method === 'GET' || req.method === 'HEAD';
+    if (read && url.pathname === '/') return list(url, res);
+    if (check && read && !check[2]) return one(Number(check[1]), res);
+    if (check && read && check[2] === '/report') {
       const html = o.history.html(Number(check[1]));
-      return html ? send(res, 200, 'text/html; charset=utf-8', html) : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
+      // The stored report is shown framed in its check's page, and nowhere else.
+      return html
+        ? send(res, 200, 'text/html; charset=utf-8', html, "'self'")
+        : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
     }
     if (check && req.method === 'POST' && check[2] === '/review') return review(Number(check[1]), req, res);
     send(res, 404, 'text/html; charset=utf-8', notFoundPage(`nothing at ${url.pathname}`));
   }
 
   function list(url: URL, res: http.ServerResponse): void {
-    const q = ListQuery.parse(Object.fromEntries(url.searchParams));
+    const raw = Object.fromEntries(url.searchParams);
+    const q = ListQuery.parse(raw);
+    // A filter that cannot be read is said on the page, never dropped unsaid.
+    const ignored = Object.entries(raw)
+      .filter(([k, v]) => v !== '' && (q as Record<string, unknown>)[k] === undefined)
+      .map(([k, v]) => `${k}=${v}`);
     const since = q.since ?? new Date(now() - 7 * DAY_MS).toISOString().slice(0, 10);
     const all = o.history.listChecks({ since });
     const machines = [...new Set(all.map((c) => c.machine).filter((m): m is string => !!m))].sort();
@@ -88,6 +104,7 @@ export function startWebServer(o: {
         machines,
         trend,
         o.history.intakeOutcomes(since),
+        ignored,
       ),
     );
   }
@@ -102,13 +119,21 @@ export function startWebServer(o: {
   function review(id: number, req: http.IncomingMessage, res: http.ServerResponse): void {
     // Only the page itself may post: a form from another origin is refused.
     const origin = req.headers.origin;
-    if (origin && origin !== `http://${req.headers.host}`) return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    if (origin && !allowedOrigins(o.host, port, o.hostNames ?? []).has(origin.toLowerCase()))
+      return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    if (Number(req.headers['content-length'] ?? 0) > MAX_FORM_BYTES) return tooLarge(res);
     let body = '';
+    let over = false;
     req.on('data', (d: Buffer) => {
+      if (over) return;
       body += d.toString('utf8');
-      if (body.length > MAX_FORM_BYTES) req.destroy();
+      if (body.length > MAX_FORM_BYTES) {
+        over = true;
+        tooLarge(res);
+      }
     });
     req.on('end', () => {
+      if (over) return;
       const form = ReviewForm.safeParse(Object.fromEntries(new URLSearchParams(body)));
       if (!form.success || !o.history.listChecks().some((c) => c.id === id)) {
         return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
@@ -129,8 +154,10 @@ export function startWebServer(o: {
   return new Promise((resolvePromise, reject) => {
     server.once('error', reject);
     server.listen(o.port, o.host, () => {
-      const port = (server.address() as net.AddressInfo).port;
+      port = (server.address() as net.AddressInfo).port;
       o.log(`chart-round page on http://${o.host}:${port}/`);
+      if (!isLoopback(o.host))
+        o.log(`WARNING: the page listens on ${o.host}, beyond this machine, without TLS or sign-in: anyone who reaches it can read and review`);
       resolvePromise({
         port,
         close: () =>
@@ -143,12 +170,31 @@ export function startWebServer(o: {
   });
 }
 
-function send(res: http.ServerResponse, status: number, type: string, body: string): void {
+function send(res: http.ServerResponse, status: number, type: string, body: string, frameAncestors = "'none'"): void {
   res.writeHead(status, {
     'content-type': type,
     'cache-control': 'no-store',
     'x-content-type-options': 'nosniff',
-    'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'",
+    'content-security-policy':
+      `default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'; ` + `frame-ancestors ${frameAncestors}`,
   });
   res.end(body);
 }
+
+/** A review body past the limit: answered 413, the rest of it not read. */
+function tooLarge(res: http.ServerResponse): void {
+  res.setHeader('connection', 'close');
+  send(res, 413, 'text/plain; charset=utf-8', `a review is at most ${MAX_FORM_BYTES} bytes`);
+}
+
+const LOOPBACK = new Set(['127.0.0.1', '::1', 'localhost']);
+const isLoopback = (host: string): boolean => LOOPBACK.has(host) || host.startsWith('127.');
+
+/** The Host headers the page answers to: its configured host (and, on loopback, the loopback names) with its port. */
+function allowedHosts(host: string, port: number, names: readonly string[]): Set<string> {
+  const hosts = [host, ...names, ...(isLoopback(host) ? ['127.0.0.1', 'localhost', '[::1]'] : [])];
+  return new Set(hosts.map((h) => `${h.includes(':') && !h.startsWith('[') ? `[${h}]` : h}:${port}`.toLowerCase()));
+}
+
+const allowedOrigins = (host: string, port: number, names: readonly string[]): Set<string> =>
+  new Set([...allowedHosts(host, port, names)].map((h) => `http://${h}`));
