@@ -35,6 +35,14 @@ export const ServiceConfig = z
         allowedCallingAeTitles: z.array(AeTitle).min(1),
         /** Objects larger than this are refused (bytes). */
         maxObjectBytes: MaxObjectBytes,
+        /** The longest PDU accepted (bytes): a longer one closes the association from its header. */
+        maxPduBytes: z
+          .number()
+          .int()
+          .min(16 * 1024)
+          .default(4 * 1024 ** 2),
+        /** Seconds of silence after which an association is closed. */
+        idleSeconds: z.number().positive().default(60),
       })
       .strict()
       .optional(),

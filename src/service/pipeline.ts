@@ -173,6 +173,15 @@ function checkGroup(
       continue;
     }
     const { result, machine } = r.value;
+    if (result.issues.length) {
+      // Refused by the check itself (a machine the beam data do not know, a field beyond the machine): as the CLI refuses it.
+      const reason = result.issues.map((i) => i.message).join('; ');
+      recordOutcome(ctx, p, 'refused', reason);
+      setAside(ctx, [p.file], reason, 'refused');
+      aside.add(p);
+      refused++;
+      continue;
+    }
     const recordedAt = new Date(ctx.now());
     const stamp = beamDataStamp(machine);
     const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);

@@ -6,6 +6,7 @@ import { Writable } from 'node:stream';
 import dimse from 'dcmjs-dimse';
 import { InternalError } from '../errors.js';
 import { STORAGE_CLASSES, VERSION } from '../run/index.js';
+import { PduGuard } from './pdu-guard.js';
 
 const { Scp, Dataset, constants, responses, log } = dimse;
 const { CEchoResponse, CStoreResponse } = responses;
@@ -17,6 +18,10 @@ export interface ReceiverOptions {
   readonly aeTitle: string;
   readonly allowedCallingAeTitles: readonly string[];
   readonly maxObjectBytes: number;
+  /** The longest PDU accepted (bytes); a longer one closes the association from its header. */
+  readonly maxPduBytes?: number;
+  /** An association silent this long is closed (seconds). */
+  readonly idleSeconds?: number;
   /** Objects land here, complete, before their success response is sent. */
   readonly inbox: string;
   readonly log: (line: string) => void;
@@ -189,6 +194,7 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
   const server = net.createServer((socket) => {
     // Small PDUs and responses: without this, Nagle's algorithm and delayed acknowledgements cost ~40 ms per object.
     socket.setNoDelay(true);
+    guard(socket, o);
     new StoreScp(socket);
   });
   return new Promise((resolvePromise, reject) => {
@@ -200,6 +206,28 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
     });
   });
 }
+
+/**
+ * Before the network library sees a byte: a PDU declaring more than the limit closes the association
+ * from its 6-byte header (the library would buffer whatever length is declared), and so does silence.
+ */
+function guard(socket: net.Socket, o: ReceiverOptions): void {
+  const pdus = new PduGuard(o.maxPduBytes ?? DEFAULT_MAX_PDU_BYTES);
+  socket.prependListener('data', (chunk: Buffer) => {
+    const length = pdus.tooLong(chunk);
+    if (length === undefined || socket.destroyed) return;
+    o.log(`association from ${socket.remoteAddress} closed: a PDU declares ${length} bytes, more than ${o.maxPduBytes ?? DEFAULT_MAX_PDU_BYTES}`);
+    socket.destroy();
+  });
+  socket.setTimeout((o.idleSeconds ?? DEFAULT_IDLE_SECONDS) * 1000, () => {
+    o.log(`association from ${socket.remoteAddress} closed: silent for ${o.idleSeconds ?? DEFAULT_IDLE_SECONDS} s`);
+    socket.destroy();
+  });
+}
+
+/** dcmtk's and most senders' PDUs are 16 KB to 128 KB; 4 MiB leaves room and bounds what one header can demand. */
+const DEFAULT_MAX_PDU_BYTES = 4 * 1024 ** 2;
+const DEFAULT_IDLE_SECONDS = 60;
 
 /** So the rename itself survives a crash. */
 function fsyncDirectory(dir: string): void {

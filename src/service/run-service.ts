@@ -69,6 +69,8 @@ export async function runService(
           aeTitle: rc.aeTitle,
           allowedCallingAeTitles: rc.allowedCallingAeTitles,
           maxObjectBytes: rc.maxObjectBytes,
+          maxPduBytes: rc.maxPduBytes,
+          idleSeconds: rc.idleSeconds,
           inbox: base.config.folders.inbox,
           log: o.log,
         })

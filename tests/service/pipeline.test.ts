@@ -66,7 +66,7 @@ describe('every plan ends as a record, whatever else is in the inbox', () => {
     const s = setup();
     const uid = (k: number, what: string) => `2.25.${what === 'sop' ? 1 : 2}${String(k).padStart(6, '0')}`;
     const plans = Array.from({ length: 102 }, (_, k) =>
-      writeVariant('four-field-box.dcm', (ds) => {
+      writeVariant('wedged-pair.dcm', (ds) => {
         ds.SOPInstanceUID = uid(k, 'sop');
         ds.FrameOfReferenceUID = uid(k, 'frame');
       }),
@@ -129,5 +129,21 @@ describe('a file still being written', () => {
     s.advance(60);
     expect(processInbox(s.ctx).refused).toBe(1);
     expect(s.history.intakeOutcomes()).toEqual([expect.objectContaining({ outcome: 'refused', fileName: 'RP.half.dcm' })]);
+  });
+});
+
+describe('a plan the check itself refuses', () => {
+  it('a machine no beam data know is recorded as refused, as the command line refuses it, not as a check', () => {
+    const s = setup();
+    const f = writeVariant('four-field-box.dcm', (ds) => {
+      for (const b of ds.BeamSequence) b.TreatmentMachineName = 'NO_SUCH_LINAC';
+    });
+    put(s.config.folders.inbox, f, 'unknown-machine.dcm');
+    s.advance(60);
+    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, refused: 1 });
+    expect(s.history.listChecks()).toEqual([]);
+    expect(s.history.intakeOutcomes()).toEqual([
+      expect.objectContaining({ outcome: 'refused', fileName: 'unknown-machine.dcm', reason: expect.stringMatching(/NO_SUCH_LINAC/) }),
+    ]);
   });
 });

@@ -7,6 +7,7 @@ import { spawn } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { connect } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
@@ -178,4 +179,18 @@ describe('the DICOM receiver', () => {
     expect(lines.join('\n')).toMatch(/refused an object of \d+ bytes/);
     expect(readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.'))).toEqual([]);
   }, 60_000);
+
+  it('an association request declaring a 48 MB PDU is closed from its 6-byte header, the body never awaited', async () => {
+    const header = Buffer.alloc(6);
+    header[0] = 0x01; // A-ASSOCIATE-RQ
+    header.writeUInt32BE(48 * 1024 ** 2, 2);
+    const closed = await new Promise<boolean>((done) => {
+      const s = connect(port, '127.0.0.1', () => s.write(Buffer.concat([header, Buffer.alloc(1024)])));
+      s.on('close', () => done(true));
+      s.on('error', () => {});
+      setTimeout(() => done(false), 3000);
+    });
+    expect(closed).toBe(true);
+    expect(lines.some((l) => /a PDU declares 50331648 bytes/.test(l))).toBe(true);
+  });
 });
