@@ -23,7 +23,7 @@ export function importPlanBytes(bytes: Uint8Array, file: string, options: ParseO
   let plan: Result<Plan>;
   try {
     plan = readRtPlan(dataSet, file);
-  } catch (e) {
+  } catch {
     // dicom-parser reads values lazily; a corrupt element can still throw here.
     return {
       ok: false,
