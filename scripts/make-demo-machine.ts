@@ -399,6 +399,7 @@ const manifest = {
   format: 'plumbline.beam-data',
   formatVersion: 1,
   dataVersion: 'demo-2026-12-02',
+  approval: { commissionedOn: '2026-12-02', approvedOn: '2026-12-02', approvedBy: 'nobody: INVENTED demo data, approved for the demo only' },
   machine: {
     name: 'NG_LINAC1',
     aliases: ['demo'],

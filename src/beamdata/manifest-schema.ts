@@ -162,6 +162,8 @@ export const ElectronBeamEntry = z
     path: ['calibration', 'referenceApplicator'],
   });
 
+const IsoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date as YYYY-MM-DD');
+
 /** The machine's own limits, in the isocenter plane (IEC 61217 BEAM LIMITING DEVICE positions). */
 export const MachineLimits = z
   .object({
@@ -178,6 +180,15 @@ export const Manifest = z
     format: z.literal('plumbline.beam-data'),
     formatVersion: z.literal(MANIFEST_FORMAT_VERSION),
     dataVersion: z.string().min(1).describe("the clinic's own version of this data set (shown with every result)"),
+    approval: z
+      .object({
+        commissionedOn: IsoDate.optional().describe('when the data were measured (commissioning), YYYY-MM-DD'),
+        approvedOn: IsoDate.describe('when a qualified medical physicist approved them for clinical use, YYYY-MM-DD'),
+        approvedBy: z.string().min(1).describe('who approved them (name and role)'),
+      })
+      .strict()
+      .optional()
+      .describe('who approved these data for use, and when: shown with every result'),
     machine: z
       .object({
         name: z.string().min(1),

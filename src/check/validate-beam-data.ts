@@ -13,6 +13,15 @@ const REFERENCE_TOLERANCE = 0.005;
  */
 export function validateBeamData(lm: LoadedMachine): Issue[] {
   const issues: Issue[] = [...validateTables(lm)];
+  if (!lm.manifest.approval)
+    issues.push({
+      severity: 'warning',
+      code: 'missing-attribute',
+      file: lm.manifestFile,
+      path: 'approval',
+      message: 'the beam data do not record who approved them for clinical use, and when: every report will say so',
+      expected: '{ "approvedOn": "YYYY-MM-DD", "approvedBy": "name, role" }',
+    });
   for (const [bi, beam] of lm.machine.beams.entries()) {
     const ref = referenceFieldFactors(beam, lm.machine.sadCm);
     for (const [name, side, v] of [

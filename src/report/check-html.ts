@@ -2,6 +2,7 @@ import { type BeamCheck, type Calculation, type CheckedBeam, formatIssue, type P
 import type { CheckDocument } from './check-json.js';
 import { escapeHtml as esc } from './html-escape.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
+import { beamDataText } from './beam-data-text.js';
 import { planHeadline } from './plan-headline.js';
 import { planningDepthsText } from './planning-depths-text.js';
 import { deviationText, fixed as n, pointMm as mm, signed } from './table.js';
@@ -137,8 +138,7 @@ section.plan, section.beam { break-inside: avoid-page; } code { font-size: 8pt; 
 </style></head><body>
 <h1>plumbline — independent MU check</h1>
 <p class="caution">${esc(doc.caution)}</p>
-<p>Created ${esc(doc.createdAt)} by plumbline ${esc(doc.tool.version)}. Beam data: ${esc(doc.beamData.machine)}, version
-${esc(doc.beamData.dataVersion)}${doc.beamData.invented ? ' — <b>INVENTED DEMO DATA, never for a patient</b>' : ''};
+<p>Created ${esc(doc.createdAt)} by plumbline ${esc(doc.tool.version)}. ${esc(beamDataText(doc.beamData))};
 manifest ${esc(doc.beamData.manifest)}, SHA-256 of manifest and tables <code>${doc.beamData.sha256}</code>.
 Deviation = ${esc(doc.deviationDefinition)}. Policy: ${esc(doc.policy.description ?? 'custom')}.</p>
 <p>Summary: ${doc.summary.plans} plan(s), ${doc.summary.beamsChecked} beam(s) checked, ${doc.summary.beamsNotChecked} not checked;

@@ -8,7 +8,18 @@ export const CheckDocument = z.object({
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   createdAt: z.string(),
   deviationDefinition: z.literal('(independent − planning system) / planning system'),
-  beamData: z.object({ manifest: z.string(), sha256: z.string(), machine: z.string(), dataVersion: z.string(), invented: z.boolean() }),
+  beamData: z.object({
+    manifest: z.string(),
+    sha256: z.string(),
+    machine: z.string(),
+    dataVersion: z.string(),
+    invented: z.boolean(),
+    /** Beam data are only ever used after their validation passed; the warnings it left. */
+    validationWarnings: z.number(),
+    approvedOn: z.string().optional(),
+    approvedBy: z.string().optional(),
+    commissionedOn: z.string().optional(),
+  }),
   policy: z.object({
     description: z.string().optional(),
     levels: z.record(z.string(), z.object({ tolerancePercent: z.number(), actionPercent: z.number() })),

@@ -1,6 +1,7 @@
 import type { PlanCheck } from '../model/index.js';
 import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import { beamTable, FACTOR_LEGEND, factorTable } from './beam-tables.js';
+import { beamDataText } from './beam-data-text.js';
 import type { CheckDocument } from './check-json.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { needsAttention, planHeadline } from './plan-headline.js';
@@ -89,9 +90,8 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
 
 /** The whole terminal report: each plan, the warnings every plan shares once, the summary naming the plans to look at, the caution. */
 export function checkText(doc: CheckDocument, o: Pick<CheckTextOptions, 'factors'> = {}): string[] {
-  const b = doc.beamData;
   const out: string[] = [
-    `plumbline check — beam data ${b.machine}, version ${b.dataVersion}${b.invented ? ' (INVENTED DEMO DATA, never for a patient)' : ''}`,
+    ...wrap(`plumbline check — ${beamDataText(doc.beamData)}`, WIDTH, '  '),
     `deviation = ${doc.deviationDefinition}`,
     "TPS cGy: the planning system's Beam Dose; MU indep: the MU that give it by our dose per MU",
   ];

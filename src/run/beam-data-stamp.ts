@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type { LoadedMachine } from '../beamdata/index.js';
+import { InternalError } from '../errors.js';
 
 /** What a result was computed from: the beam data's manifest, its hash, name and version. */
 export interface BeamDataStamp {
@@ -9,9 +10,27 @@ export interface BeamDataStamp {
   readonly machine: string;
   readonly dataVersion: string;
   readonly invented: boolean;
+  /** Every use of beam data follows their validation: how many warnings it left. */
+  readonly validationWarnings: number;
+  readonly approvedOn?: string;
+  readonly approvedBy?: string;
+  readonly commissionedOn?: string;
 }
 
 const stamps = new WeakMap<LoadedMachine, BeamDataStamp>();
+const validated = new WeakMap<LoadedMachine, number>();
+
+/** Marks loaded beam data as validated, with the number of warnings left (see loadBeamData). */
+export function markValidated(m: LoadedMachine, warnings: number): void {
+  validated.set(m, warnings);
+}
+
+function validationWarningsOf(m: LoadedMachine): number {
+  const n = validated.get(m);
+  // A stamp is only ever made for beam data loaded through the gate: anything else is a bug.
+  if (n === undefined) throw new InternalError('beam data used without validation');
+  return n;
+}
 
 /** The stamp of loaded beam data; its SHA-256 is taken over the manifest and every table it names, in a fixed order, once per load. */
 export function beamDataStamp(m: LoadedMachine): BeamDataStamp {
@@ -25,6 +44,9 @@ export function beamDataStamp(m: LoadedMachine): BeamDataStamp {
     machine: m.machine.name,
     dataVersion: m.machine.version,
     invented: m.machine.invented,
+    validationWarnings: validationWarningsOf(m),
+    ...(m.manifest.approval ? { approvedOn: m.manifest.approval.approvedOn, approvedBy: m.manifest.approval.approvedBy } : {}),
+    ...(m.manifest.approval?.commissionedOn ? { commissionedOn: m.manifest.approval.commissionedOn } : {}),
   };
   stamps.set(m, stamp);
   return stamp;

@@ -3,7 +3,7 @@
  * files (without CT or RT Dose: batches with them stay in one thread) and posts each result back.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { loadMachine } from '../beamdata/index.js';
+import { loadBeamData } from './beam-data.js';
 import { InternalError } from '../errors.js';
 import type { HeterogeneityMethod } from '../physics/index.js';
 import { checkFile, type FileOutcome } from './check-file.js';
@@ -24,7 +24,7 @@ export interface WorkerJob {
 export type WorkerMessage = { readonly done?: undefined; readonly k: number; readonly result: FileOutcome } | { readonly done: true };
 
 const job = workerData as WorkerJob;
-const machine = loadMachine(job.manifest);
+const machine = loadBeamData(job.manifest);
 const policy = loadPolicy(job.policyFile);
 // The main thread loaded the same files a moment ago: failing here is not an input problem.
 if (!machine.ok || !policy.ok) throw new InternalError('the beam data or policy could not be loaded in a worker');

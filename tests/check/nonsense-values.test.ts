@@ -70,7 +70,7 @@ function document(plans: CheckDocument['plans']): CheckDocument {
     tool: { name: 'plumbline', version: 'test' },
     createdAt: '2026-12-03T00:00:00Z',
     deviationDefinition: '(independent − planning system) / planning system',
-    beamData: { manifest: 'demo', sha256: '0', machine: demo.name, dataVersion: demo.version, invented: true },
+    beamData: { manifest: 'demo', sha256: '0', machine: demo.name, dataVersion: demo.version, invented: true, validationWarnings: 0 },
     policy: { levels: {} },
     plans,
     refused: [],

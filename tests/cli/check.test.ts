@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { copyFileSync, cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -118,5 +118,20 @@ describe('a folder: every file read, refused with its reason, or left aside with
     expect(r.stdout).toMatch(/3 file\(s\) refused \(each on stderr\)/);
     // Each problem once: the report on stdout counts them, the lines are on stderr.
     expect(r.stdout).not.toMatch(/empty\.dcm/);
+  });
+});
+
+describe('beam data that fail their validation are never used', () => {
+  it('Sc scaled by 1.02 in the 6 MV table: check refuses (exit 2), naming the problem and `beams validate`', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-sc-'));
+    cpSync(join(ROOT, 'fixtures/demo/beam-data'), dir, { recursive: true });
+    const sc = join(dir, '6x/sc.csv');
+    const scaled = readFileSync(sc, 'utf8').replace(/^(\d+(?:\.\d+)?),(\d\.\d+)$/gm, (_, f, v) => `${f},${(Number(v) * 1.02).toFixed(4)}`);
+    writeFileSync(sc, scaled);
+    const r = plumbline('check', join(CLINIC, 'brain-laterals.dcm'), '--beam-data', join(dir, 'manifest.json'));
+    expect(r.status).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toMatch(/6X: Sc of the reference field .* expected 1\.000 ± 0\.005, found 1\.0200/);
+    expect(r.stderr).toMatch(/run `plumbline beams validate .*manifest\.json` for the full list/);
   });
 });

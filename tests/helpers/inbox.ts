@@ -2,14 +2,14 @@
 import { copyFileSync, mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { loadMachine } from '../../src/beamdata/index.js';
+import { loadBeamData } from '../../src/run/index.js';
 import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { HistoryStore } from '../../src/service/history/store.js';
 import { DEMO_MANIFEST, manifestPath } from './machines.js';
 
 const machine = (() => {
-  const m = loadMachine(DEMO_MANIFEST);
+  const m = loadBeamData(DEMO_MANIFEST);
   if (!m.ok) throw new Error('demo');
   return m.value;
 })();

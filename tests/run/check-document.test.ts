@@ -7,7 +7,7 @@ import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { CheckDocument } from '../../src/report/check-json.js';
 import { checkDocument } from '../../src/run/check-document.js';
 
-const stamp = { manifest: 'm.json', sha256: 'ab'.repeat(32), machine: 'M', dataVersion: '1', invented: true };
+const stamp = { manifest: 'm.json', sha256: 'ab'.repeat(32), machine: 'M', dataVersion: '1', invented: true, validationWarnings: 0 };
 
 describe('the check document', () => {
   it('is built from what it is given, time included, and its schema accepts it', () => {

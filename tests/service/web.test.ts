@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type Browser, chromium } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadMachine } from '../../src/beamdata/index.js';
+import { loadBeamData } from '../../src/run/index.js';
 import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { HistoryStore } from '../../src/service/history/store.js';
@@ -33,7 +33,7 @@ let base = '';
 let close: () => Promise<void>;
 
 beforeAll(async () => {
-  const m = loadMachine(DEMO_MANIFEST);
+  const m = loadBeamData(DEMO_MANIFEST);
   if (!m.ok) throw new Error('demo');
   history = new HistoryStore(config.history.database);
   mkdirSync(config.folders.inbox, { recursive: true });

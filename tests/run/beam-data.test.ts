@@ -1,0 +1,63 @@
+/**
+ * Beam data are validated before any use: data with a transcription error are refused, never used
+ * to give plausible, wrong verdicts. Each mistake is one a physicist could make typing commissioning
+ * tables (common practice, no source): Sc scaled by 2 %, Sp typed in percent, PDD depths in mm
+ * under a header that says cm.
+ */
+import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { beamDataStamp, loadBeamData } from '../../src/run/index.js';
+import { manifestPath } from '../helpers/machines.js';
+
+/** A copy of the demo machine with one table's data rows rewritten (comment and header lines kept). */
+function demoWith(table: string, row: (cells: string[]) => string[]): string {
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-beamdata-'));
+  cpSync(manifestPath('fixtures/demo/beam-data'), dir, { recursive: true });
+  const file = join(dir, table);
+  const lines = readFileSync(file, 'utf8').split('\n');
+  let header = false;
+  const out = lines.map((l) => {
+    if (l.startsWith('#') || !l.trim()) return l;
+    if (!header) {
+      header = true;
+      return l;
+    }
+    return row(l.split(',')).join(',');
+  });
+  writeFileSync(file, out.join('\n'));
+  return join(dir, 'manifest.json');
+}
+const scaled = (f: number) => (cells: string[]) => [cells[0]!, ...cells.slice(1).map((c) => (Number(c) * f).toFixed(4))];
+
+describe('validation gates every use of beam data', () => {
+  it('the demo machine passes, and its stamp says so with its approval', () => {
+    const r = loadBeamData('demo');
+    expect(r.ok && r.warnings).toBeFalsy();
+    if (!r.ok) throw new Error('refused');
+    expect(beamDataStamp(r.value)).toMatchObject({ validationWarnings: 0, approvedOn: '2026-12-02' });
+  });
+
+  const cases: [string, string, (cells: string[]) => string[], RegExp][] = [
+    ['Sc scaled by 1.02', '6x/sc.csv', scaled(1.02), /Sc of the reference field/],
+    ['Sp typed in percent', '6x/sp.csv', scaled(100), /6X sp: value outside the physical range/],
+    ['PDD depths in mm declared as cm', '6x/pdd.csv', (c) => [String(Number(c[0]) * 10), ...c.slice(1)], /PDD|depth/],
+  ];
+  for (const [what, table, row, first] of cases) {
+    it(`${what}: refused, the first problems listed and \`beams validate\` named for the rest`, () => {
+      const manifest = demoWith(table, row);
+      const r = loadBeamData(manifest);
+      expect(r.ok).toBe(false);
+      if (r.ok) return;
+      expect(
+        r.issues
+          .slice(0, -1)
+          .map((i) => i.message)
+          .join('\n'),
+      ).toMatch(first);
+      expect(r.issues.length).toBeLessThanOrEqual(6);
+      expect(r.issues.at(-1)!.message).toMatch(/fail their validation .* run `plumbline beams validate .*manifest\.json` for the full list/);
+    });
+  }
+});
