@@ -4,6 +4,12 @@ import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
 
 /** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
 const PDD_TPR_TOLERANCE_PERCENT = 1;
+/**
+ * IEC 61217 turns the wedge filter frame counterclockwise about the beam axis seen from the source
+ * (x to the right, y up): 90 degrees takes −Y to +X and +Y to −X.
+ */
+const QUARTER_TURN = { '-Y': '+X', '+Y': '-X' } as const;
+
 /** Sc and Sp of the reference field must be 1 within this. */
 const REFERENCE_TOLERANCE = 0.005;
 
@@ -13,6 +19,19 @@ const REFERENCE_TOLERANCE = 0.005;
  */
 export function validateBeamData(lm: LoadedMachine): Issue[] {
   const issues: Issue[] = [...validateTables(lm)];
+  const heel = lm.machine.wedgeHeel;
+  if (heel && QUARTER_TURN[heel.atOrientation0] !== heel.atOrientation90)
+    issues.push({
+      severity: 'error',
+      code: 'inconsistent',
+      file: lm.manifestFile,
+      path: 'machine.wedgeHeel',
+      message:
+        'the heel at Wedge Orientation 90 must be a quarter turn counterclockwise (IEC 61217, seen from the source) from the heel at 0: ' +
+        'one of the two was read in another sense',
+      expected: `${heel.atOrientation0} at 0 with ${QUARTER_TURN[heel.atOrientation0]} at 90`,
+      found: `${heel.atOrientation0} with ${heel.atOrientation90}`,
+    });
   if (!lm.manifest.approval)
     issues.push({
       severity: 'warning',

@@ -61,3 +61,23 @@ describe('validation gates every use of beam data', () => {
     });
   }
 });
+
+describe('the wedge heel pair', () => {
+  // IEC 61217: positive rotations are counterclockwise seen from the positive end of the axis (here the source), so
+  // a quarter turn takes −Y to +X (the demo machine) and +Y to −X; +Y with +X reads one of them in the other sense.
+  const withHeel = (atOrientation0: string, atOrientation90: string) => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-heel-'));
+    cpSync(manifestPath('fixtures/demo/beam-data'), dir, { recursive: true });
+    const file = join(dir, 'manifest.json');
+    const m = JSON.parse(readFileSync(file, 'utf8'));
+    m.machine.wedgeHeel = { atOrientation0, atOrientation90 };
+    writeFileSync(file, JSON.stringify(m));
+    return loadBeamData(file);
+  };
+  it('+Y with +X is refused; −Y with +X and +Y with −X pass', () => {
+    const bad = withHeel('+Y', '+X');
+    expect(!bad.ok && bad.issues[0]).toMatchObject({ path: 'machine.wedgeHeel', found: '+Y with +X' });
+    expect(withHeel('-Y', '+X').ok).toBe(true);
+    expect(withHeel('+Y', '-X').ok).toBe(true);
+  });
+});
