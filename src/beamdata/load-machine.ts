@@ -13,6 +13,7 @@ import type {
 } from '../model/index.js';
 import { type CsvTable, parseCsvTable } from './csv-table.js';
 import { type ElectronBeamEntry, Manifest, type PhotonBeamEntry } from './manifest-schema.js';
+import { nearestKey } from './nearest-key.js';
 import { type ClampAllowance, makeTableLookup } from './table-lookup.js';
 
 /** One loaded table with what the validator needs: its CSV (with positions) and its lookup. */
@@ -43,7 +44,15 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
   const issues: Issue[] = [];
   let json: unknown;
   try {
-    const text = readFileSync(manifestFile, 'utf8');
+    const bytes = readFileSync(manifestFile);
+    if (bytes.length >= 132 && bytes.toString('latin1', 128, 132) === 'DICM')
+      return fail({
+        severity: 'error',
+        code: 'invalid-manifest',
+        file: manifestFile,
+        message: 'this is a DICOM file, not a beam-data manifest: --beam-data takes the JSON manifest of a machine (or demo)',
+      });
+    const text = bytes.toString('utf8');
     try {
       json = JSON.parse(text);
     } catch (e) {
@@ -77,7 +86,7 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
           .map((p) => (typeof p === 'number' ? `[${p}]` : `.${String(p)}`))
           .join('')
           .replace(/^\./, ''),
-        message: z.message,
+        message: guidedMessage(z),
       })),
     };
   }
@@ -324,4 +333,34 @@ function fail(issue: Issue): Result<never> {
 function lineColumn(text: string, position: number): { line: number; column: number } {
   const before = text.slice(0, position).split('\n');
   return { line: before.length, column: before[before.length - 1]!.length + 1 };
+}
+
+interface SchemaIssue {
+  readonly code: string;
+  readonly message: string;
+  readonly keys?: readonly string[];
+  readonly errors?: readonly (readonly SchemaIssue[])[];
+}
+
+/** The unknown keys of an issue, looking inside the branches of a union (an object among them is what was meant). */
+function unknownKeys(z: SchemaIssue): readonly string[] {
+  if (z.code === 'unrecognized_keys') return z.keys ?? [];
+  if (z.code !== 'invalid_union') return [];
+  for (const branch of z.errors ?? []) {
+    const keys = branch.flatMap(unknownKeys);
+    if (keys.length) return keys;
+  }
+  return [];
+}
+
+/** A schema complaint in words that guide: an unknown key with the known one it most likely meant. */
+function guidedMessage(z: SchemaIssue): string {
+  const keys = unknownKeys(z);
+  if (!keys.length) return z.message;
+  return keys
+    .map((k) => {
+      const near = nearestKey(k);
+      return `unknown key "${k}"${near ? `: did you mean "${near}"?` : ''}`;
+    })
+    .join('; ');
 }

@@ -42,7 +42,10 @@ export function validateTables(loaded: LoadedMachine): Issue[] {
   const issues: Issue[] = [];
   for (const t of loaded.tables) {
     const kind = kindOf(t.quantity);
-    checkRange(t, RANGES[kind]!, issues);
+    // A table in the wrong unit is one mistake, said once with its likely cause, not a complaint per cell.
+    const slip = unitSlip(t, kind);
+    if (slip) issues.push(slip);
+    else checkRange(t, RANGES[kind]!, issues);
     // An electron PDD falls steeply past its therapeutic range: its curvature there is physics, not noise.
     if (kind !== 'electron pdd')
       checkRoughness(t, issues, kind === 'pdd' || kind === 'tpr' || kind === 'tmr' ? buildUpEndCm(loaded, t.beamId) : -Infinity);
@@ -79,6 +82,39 @@ export function validateTables(loaded: LoadedMachine): Issue[] {
     }
   }
   return issues;
+}
+
+const PERCENT_KINDS = new Set(['pdd', 'electron pdd']);
+const FACTOR_KINDS = new Set(['tpr', 'tmr', 'sc', 'sp', 'scp', 'oar', 'wedge', 'swept wedge', 'se']);
+/** No water tank scans deeper than this, no field is wider (cm): larger axis values were written in mm. */
+const LARGEST_DEPTH_CM = 60;
+const LARGEST_SIDE_CM = 60;
+
+/** A whole table whose values or axes sit where another unit would put them: the likely slip, in one issue. */
+function unitSlip(t: LoadedTable, kind: string): Issue | undefined {
+  const values = t.csv.values.map((v) => v * t.valueScale).filter(Number.isFinite);
+  const lo = Math.min(...values);
+  const hi = Math.max(...values);
+  const at = { severity: 'error' as const, code: 'physical-range' as const, file: t.csv.file, ...t.csv.valuePositions[0]! };
+  const label = `${t.beamId} ${t.quantity}`;
+  if (PERCENT_KINDS.has(kind) && hi <= 1.2 && lo >= 0)
+    return { ...at, message: `${label}: values between ${lo} and ${hi} in a table declared as percent: fractions?`, expected: 'percent (0 to 100)' };
+  if (FACTOR_KINDS.has(kind) && lo >= 30 && hi <= 150)
+    return { ...at, message: `${label}: values between ${lo} and ${hi} in a table of factors: percent?`, expected: 'factors near 1' };
+  for (const axis of [t.lookup.rows, t.lookup.columns]) {
+    if (!axis || axis.unit !== 'cm') continue;
+    const largest = Math.max(...axis.values);
+    const limit = axis.name === 'depth' ? LARGEST_DEPTH_CM : LARGEST_SIDE_CM;
+    if (largest > limit)
+      return {
+        ...at,
+        ...(axis === t.lookup.rows ? t.csv.rowPositions.at(-1)! : t.csv.columnPositions!.at(-1)!),
+        message: `${label}: ${axis.name} up to ${largest} in a table declared in cm: millimetres?`,
+        expected: `${axis.name} within ${limit} cm`,
+        found: `${largest} cm`,
+      };
+  }
+  return undefined;
 }
 
 function buildUpEndCm(loaded: LoadedMachine, beamId: string): number {

@@ -41,8 +41,19 @@ describe('validation gates every use of beam data', () => {
 
   const cases: [string, string, (cells: string[]) => string[], RegExp][] = [
     ['Sc scaled by 1.02', '6x/sc.csv', scaled(1.02), /Sc of the reference field/],
-    ['Sp typed in percent', '6x/sp.csv', scaled(100), /6X sp: value outside the physical range/],
-    ['PDD depths in mm declared as cm', '6x/pdd.csv', (c) => [String(Number(c[0]) * 10), ...c.slice(1)], /PDD|depth/],
+    [
+      'a PDD typed as fractions',
+      '6x/pdd.csv',
+      (c) => [c[0]!, ...c.slice(1).map((v) => (Number(v) / 100).toFixed(4))],
+      /^6X pdd: values between .* declared as percent: fractions\?$/m,
+    ],
+    ['Sp typed in percent', '6x/sp.csv', scaled(100), /^6X sp: values between 95\.\d+ and 10\d\.\d+ in a table of factors: percent\?$/m],
+    [
+      'PDD depths in mm declared as cm',
+      '6x/pdd.csv',
+      (c) => [String(Number(c[0]) * 10), ...c.slice(1)],
+      /^6X pdd: depth up to 350 in a table declared in cm: millimetres\?$/m,
+    ],
   ];
   for (const [what, table, row, first] of cases) {
     it(`${what}: refused, the first problems listed and \`beams validate\` named for the rest`, () => {
@@ -79,5 +90,29 @@ describe('the wedge heel pair', () => {
     expect(!bad.ok && bad.issues[0]).toMatchObject({ path: 'machine.wedgeHeel', found: '+Y with +X' });
     expect(withHeel('-Y', '+X').ok).toBe(true);
     expect(withHeel('+Y', '-X').ok).toBe(true);
+  });
+});
+
+describe('messages that guide', () => {
+  const manifestWith = (edit: (m: any) => void) => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-keys-'));
+    cpSync(manifestPath('fixtures/demo/beam-data'), dir, { recursive: true });
+    const file = join(dir, 'manifest.json');
+    const m = JSON.parse(readFileSync(file, 'utf8'));
+    edit(m);
+    writeFileSync(file, JSON.stringify(m));
+    return file;
+  };
+  it('an unknown key names the known key it most likely meant', () => {
+    const file = manifestWith((m) => {
+      m.beams[0].pdd.normalisationDepthCm = m.beams[0].pdd.normalizationDepthCm;
+      delete m.beams[0].pdd.normalizationDepthCm;
+    });
+    const r = loadBeamData(file);
+    expect(!r.ok && r.issues.map((i) => i.message)).toContain('unknown key "normalisationDepthCm": did you mean "normalizationDepthCm"?');
+  });
+  it('a DICOM file passed as beam data is said to be one, its bytes never echoed', () => {
+    const r = loadBeamData(manifestPath('fixtures/demo/clinic/brain-laterals.dcm'));
+    expect(!r.ok && r.issues.map((i) => i.message)).toEqual([expect.stringMatching(/^this is a DICOM file, not a beam-data manifest/)]);
   });
 });
