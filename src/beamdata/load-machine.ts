@@ -356,7 +356,8 @@ function unknownKeys(z: SchemaIssue): readonly string[] {
 /** A schema complaint in words that guide: an unknown key with the known one it most likely meant. */
 function guidedMessage(z: SchemaIssue): string {
   const keys = unknownKeys(z);
-  if (!keys.length) return z.message;
+  // A null is a value `beams new` left for the physicist.
+  if (!keys.length) return /received null$/.test(z.message) ? `still to fill (${z.message.replace(/^Invalid input: /, '')})` : z.message;
   return keys
     .map((k) => {
       const near = nearestKey(k);

@@ -1,4 +1,5 @@
 import { Command, CommanderError } from 'commander';
+import { runBeamsNew } from './beams-new.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
 import { runCheck } from './check.js';
@@ -146,14 +147,24 @@ export async function main(argv: readonly string[]): Promise<number> {
       outcome = (await service()).runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
     });
 
-  program
-    .command('beams')
-    .description('commissioning beam data')
+  const beams = program.command('beams').description('commissioning beam data');
+  beams
     .command('validate')
     .description("check a machine's beam data: ranges, normalization, smoothness, PDD/TPR agreement")
     .argument('<manifest>', "the machine's manifest, or 'demo'")
     .action((manifest: string) => {
       outcome = runBeamsValidate(manifest);
+    });
+  beams
+    .command('new')
+    .description("write a new machine's manifest and CSV templates (headers, units and axes; the values left to fill)")
+    .requiredOption('--machine <name>', 'the Treatment Machine Name the plans use')
+    .option('--photons <MV,...>', 'photon energies, e.g. 6,10')
+    .option('--electrons <MeV,...>', 'electron energies, e.g. 6,9')
+    .option('--applicators <ID,...>', 'electron applicators, e.g. A10,A15 (or ID=side in cm)')
+    .option('--out <folder>', 'a new or empty folder (default: <machine>-beam-data)')
+    .action((opts: Record<string, unknown>) => {
+      outcome = runBeamsNew(opts);
     });
 
   try {

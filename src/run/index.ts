@@ -20,3 +20,4 @@ export * from './version.js';
 export type { LoadedMachine } from '../beamdata/index.js';
 export { DEFAULT_POLICY, type PatientCt, type Policy } from '../check/index.js';
 export { STORAGE_CLASSES, type ObjectSummary, readObjectSummary } from '../dicom/index.js';
+export * from './beam-data-template.js';

@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runBeamsValidate } from '../../src/cli/beams-validate.js';
+import { runBeamsNew } from '../../src/cli/beams-new.js';
 import { DEMO_BEAM_DATA_DIR } from '../helpers/fixtures.js';
 
 /** A copy of the demo beam data with `edit` applied to one file's text. */
@@ -114,5 +115,20 @@ describe('plumbline beams validate', () => {
     const schema = runBeamsValidate(faulty('manifest.json', (t) => t.replace('"referenceFieldAt": "surface"', '"referenceFieldAt": "skin"')));
     expect(lines(schema)).toMatch(/beams\[0\]\.calibration\.referenceFieldAt/);
     expect(schema.exitCode).toBe(2);
+  });
+});
+
+describe('plumbline beams new', () => {
+  it('writes a manifest and templates that validation refuses until filled, each null named as still to fill', () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'plumbline-new-cli-')), 'linac2');
+    const made = runBeamsNew({ machine: 'LINAC2', photons: '6,10', electrons: '9', applicators: 'A10,CONE6=6', out });
+    expect(made.exitCode).toBe(0);
+    expect(readFileSync(join(out, 'README.md'), 'utf8')).toMatch(/plumbline beams validate manifest\.json/);
+    expect(readFileSync(join(out, '9e/se-cone6.csv'), 'utf8')).toMatch(/^cutout_cm,se\n3,\n4,\n5,\n6,\n$/m);
+    const v = runBeamsValidate(join(out, 'manifest.json'));
+    expect(v.exitCode).toBe(2);
+    expect(v.stdout.join('\n')).toMatch(/beams\[0\]\.calibration\.doseCGyPerMu: still to fill \(expected number, received null\)/);
+    expect(runBeamsNew({ machine: 'LINAC2', photons: '6', out }).exitCode).toBe(2); // the folder now holds files
+    expect(runBeamsNew({ machine: 'LINAC2', electrons: '6', applicators: 'CONE', out: `${out}-2` }).stderr.join()).toMatch(/CONE=side in cm/);
   });
 });
