@@ -6,3 +6,4 @@ export * from './validate-tables.js';
 export * from './find-beam.js';
 export * from './manifest-json-schema.js';
 export * from './density-table.js';
+export * from './published-pdd.js';

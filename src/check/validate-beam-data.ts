@@ -1,4 +1,4 @@
-import { type LoadedMachine, validateTables } from '../beamdata/index.js';
+import { comparePublishedPdd, type LoadedMachine, PUBLISHED_TOLERANCE_PERCENT, validateTables } from '../beamdata/index.js';
 import type { Issue } from '../model/index.js';
 import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
 
@@ -42,6 +42,19 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
       expected: '{ "approvedOn": "YYYY-MM-DD", "approvedBy": "name, role" }',
     });
   for (const [bi, beam] of lm.machine.beams.entries()) {
+    // A transcription error shows against what a beam of that quality should look like.
+    for (const r of comparePublishedPdd(beam).rows.filter((x) => Math.abs(x.differencePercent) > PUBLISHED_TOLERANCE_PERCENT))
+      issues.push({
+        severity: 'warning',
+        code: 'physical-range',
+        file: lm.manifestFile,
+        path: `beams[${bi}].pdd`,
+        message:
+          `beam ${beam.id}: PDD(${r.depthCm} cm, 10 × 10, SSD 100) differs from the published data of the same beam quality ` +
+          `(BJR Supplement 25) by ${r.differencePercent.toFixed(1)} %: a shifted or mistyped column? (plumbline beams compare-published)`,
+        expected: `${r.publishedPercent.toFixed(1)} % ± ${PUBLISHED_TOLERANCE_PERCENT} %`,
+        found: `${r.clinicPercent.toFixed(1)} %`,
+      });
     const ref = referenceFieldFactors(beam, lm.machine.sadCm);
     for (const [name, side, v] of [
       ['Sc', ref.scCm, ref.sc],

@@ -1,4 +1,5 @@
 import { Command, CommanderError } from 'commander';
+import { runBeamsComparePublished } from './beams-compare.js';
 import { runBeamsNew } from './beams-new.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
@@ -154,6 +155,13 @@ export async function main(argv: readonly string[]): Promise<number> {
     .argument('<manifest>', "the machine's manifest, or 'demo'")
     .action((manifest: string) => {
       outcome = runBeamsValidate(manifest);
+    });
+  beams
+    .command('compare-published')
+    .description("compare each photon beam's 10 x 10 PDD at SSD 100 with published data of the same beam quality")
+    .argument('<manifest>', "the machine's manifest, or 'demo'")
+    .action((manifest: string) => {
+      outcome = runBeamsComparePublished(manifest);
     });
   beams
     .command('new')

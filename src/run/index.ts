@@ -21,3 +21,4 @@ export type { LoadedMachine } from '../beamdata/index.js';
 export { DEFAULT_POLICY, type PatientCt, type Policy } from '../check/index.js';
 export { STORAGE_CLASSES, type ObjectSummary, readObjectSummary } from '../dicom/index.js';
 export * from './beam-data-template.js';
+export { comparePublishedPdd, PUBLISHED_TOLERANCE_PERCENT, type PublishedComparison } from '../beamdata/index.js';
