@@ -1,6 +1,7 @@
 import { comparePublishedPdd, type LoadedMachine, PUBLISHED_TOLERANCE_PERCENT, validateTables } from '../beamdata/index.js';
 import type { Issue } from '../model/index.js';
 import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
+import { compareElectronEnergy, ELECTRON_ENERGY_TOLERANCE_PERCENT } from './electron-energy.js';
 
 /** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
 const PDD_TPR_TOLERANCE_PERCENT = 1;
@@ -91,6 +92,21 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
         found: `${d.differencePercent.toFixed(2)} %`,
       });
     }
+  }
+  for (const [bi, beam] of lm.machine.electronBeams.entries()) {
+    const e = compareElectronEnergy(beam);
+    if (e.differencePercent !== undefined && Math.abs(e.differencePercent) > ELECTRON_ENERGY_TOLERANCE_PERCENT)
+      issues.push({
+        severity: 'warning',
+        code: 'physical-range',
+        file: lm.manifestFile,
+        path: `electronBeams[${bi}].pdd`,
+        message:
+          `beam ${beam.id}: its PDD gives R50 ${e.r50Cm!.toFixed(2)} cm, so E0 ≈ ${e.e0MeV!.toFixed(1)} MeV (2.33 MeV/cm × R50), ` +
+          `${e.differencePercent.toFixed(0)} % from the nominal ${beam.nominalEnergyMeV} MeV: a table of another energy, or depths in another unit?`,
+        expected: `within ±${ELECTRON_ENERGY_TOLERANCE_PERCENT} % of ${beam.nominalEnergyMeV} MeV`,
+        found: `${e.e0MeV!.toFixed(1)} MeV`,
+      });
   }
   return issues;
 }

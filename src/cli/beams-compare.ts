@@ -1,6 +1,12 @@
 import { formatIssue } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
-import { comparePublishedPdd, loadBeamData, PUBLISHED_TOLERANCE_PERCENT } from '../run/index.js';
+import {
+  compareElectronEnergy,
+  comparePublishedPdd,
+  ELECTRON_ENERGY_TOLERANCE_PERCENT,
+  loadBeamData,
+  PUBLISHED_TOLERANCE_PERCENT,
+} from '../run/index.js';
 import type { CommandOutcome } from './outcome.js';
 
 /**
@@ -31,7 +37,19 @@ export function runBeamsComparePublished(manifestArg: string): CommandOutcome {
       );
     }
   }
-  for (const b of loaded.value.machine.electronBeams) out.push(`  ${b.id}: electron beams are not compared with published data`);
+  for (const b of loaded.value.machine.electronBeams) {
+    const e = compareElectronEnergy(b);
+    if (e.notCompared) {
+      out.push(`  ${b.id}: not compared: ${e.notCompared}`);
+      continue;
+    }
+    const flag = Math.abs(e.differencePercent!) > ELECTRON_ENERGY_TOLERANCE_PERCENT;
+    if (flag) flagged++;
+    out.push(
+      `  ${b.id}: R50 ${e.r50Cm!.toFixed(2)} cm (10 cm field), E0 ≈ 2.33 MeV/cm × R50 = ${e.e0MeV!.toFixed(1)} MeV, ` +
+        `nominal ${b.nominalEnergyMeV} MeV (${e.differencePercent! >= 0 ? '+' : ''}${e.differencePercent!.toFixed(0)} %)${flag ? '  <- look at this table' : ''}`,
+    );
+  }
   out.push(CAUTION);
   return { stdout: out, stderr: [], exitCode: flagged ? 1 : 0 };
 }

@@ -18,7 +18,7 @@ export * from './validate-machine.js';
 export * from './version.js';
 // Types and readers the front doors name, offered here so they need not reach below this layer.
 export type { LoadedMachine } from '../beamdata/index.js';
-export { DEFAULT_POLICY, type PatientCt, type Policy } from '../check/index.js';
+export { compareElectronEnergy, DEFAULT_POLICY, ELECTRON_ENERGY_TOLERANCE_PERCENT, type PatientCt, type Policy } from '../check/index.js';
 export { STORAGE_CLASSES, type ObjectSummary, readObjectSummary } from '../dicom/index.js';
 export * from './beam-data-template.js';
 export { comparePublishedPdd, PUBLISHED_TOLERANCE_PERCENT, type PublishedComparison } from '../beamdata/index.js';
