@@ -3,7 +3,7 @@ import type { Issue } from '../model/index.js';
 import { formatIssue } from '../model/index.js';
 import { calcDocument, calcText } from '../report/calc-report.js';
 import { electronCalcDocument, electronCalcText } from '../report/electron-calc-report.js';
-import { electronCalc, loadBeamData, photonCalc, VERSION } from '../run/index.js';
+import { beamDataStamp, electronCalc, loadBeamData, photonCalc, VERSION } from '../run/index.js';
 import type { CommandOutcome } from './outcome.js';
 
 /** A number option: finite, and > 0 (or >= 0 when zero is allowed), else a message naming the option. */
@@ -80,9 +80,11 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
   if (!loaded.ok) return refuse(loaded.issues);
   const warnings = (loaded.warnings ?? []).map(formatIssue);
   const { machine } = loaded.value;
+  const beamData = beamDataStamp(loaded.value);
   if (o.applicator !== undefined) {
-    const r = electronCalc(machine, { ...o, applicator: o.applicator });
-    if (!r.ok) return refuse(r.issues);
+    const e = electronCalc(machine, { ...o, applicator: o.applicator });
+    if (!e.ok) return refuse(e.issues);
+    const r = { ...e, value: { ...e.value, beamData } };
     return {
       stdout: o.json ? [JSON.stringify(electronCalcDocument(r.value, VERSION), null, 2)] : electronCalcText(r.value),
       stderr: warnings,
@@ -90,8 +92,9 @@ export function runCalc(raw: Record<string, unknown>): CommandOutcome {
       exitCode: r.value.flags.length ? 1 : 0,
     };
   }
-  const r = photonCalc(machine, { ...o, setup: o.setup!, field: o.field!, depth: o.depth! });
-  if (!r.ok) return refuse(r.issues);
+  const p = photonCalc(machine, { ...o, setup: o.setup!, field: o.field!, depth: o.depth! });
+  if (!p.ok) return refuse(p.issues);
+  const r = { ...p, value: { ...p.value, beamData } };
   return {
     stdout: o.json ? [JSON.stringify(calcDocument(r.value, VERSION), null, 2)] : calcText(r.value),
     stderr: warnings,

@@ -9,7 +9,9 @@ import {
   type PhotonPointResult,
 } from '../model/index.js';
 
+import { beamDataText } from './beam-data-text.js';
 import { CAUTION } from './caution.js';
+import type { CheckDocument } from './check-json.js';
 import { noteText } from './note-text.js';
 import { handCalculation } from './hand-calculation.js';
 
@@ -23,6 +25,8 @@ export interface CalcReport {
   /** Which of the two was given; the other is computed. */
   readonly given: 'mu' | 'dose';
   readonly ssdNote: string;
+  /** What the beam data are, validated and approved (see beamDataText), when the command knows it. */
+  readonly beamData?: CheckDocument['beamData'];
   /** What makes this point or these MU unfit to rely on (steep depth dose, beyond the machine). */
   readonly flags: readonly Note[];
 }
@@ -48,6 +52,7 @@ export function calcText(r: CalcReport): string[] {
   ];
   if (r.result.clamps.length) out.push('', ...r.result.clamps.map((n) => `  note: ${note(n)}`));
   if (r.flags.length) out.push('', ...r.flags.map((f) => `  FLAG: ${noteText(f)}`));
+  if (r.beamData) out.push('', `  ${beamDataText(r.beamData)}`);
   out.push('', CAUTION);
   return out;
 }
@@ -57,6 +62,7 @@ export const CalcDocument = z.object({
   kind: z.literal('plumbline.calc'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   machine: z.object({ name: z.string(), dataVersion: z.string(), invented: z.boolean() }),
+  beamData: z.string().optional(),
   beam: z.object({ id: z.string(), nominalEnergyMV: z.number(), fff: z.boolean() }),
   setup: z.enum(['SSD', 'SAD']),
   input: z.object({
@@ -103,6 +109,7 @@ export function calcDocument(r: CalcReport, version: string): CalcDocument {
     kind: 'plumbline.calc',
     tool: { name: 'plumbline', version },
     machine: { name: r.machine.name, dataVersion: r.machine.version, invented: r.machine.invented },
+    ...(r.beamData ? { beamData: beamDataText(r.beamData) } : {}),
     beam: { id: r.beam.id, nominalEnergyMV: r.beam.nominalEnergyMV, fff: r.beam.fff },
     setup: r.input.setup,
     input: r.input,

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { Note, type ElectronBeamModel, type ElectronPointInput, type ElectronPointResult, factorLabel, type MachineModel } from '../model/index.js';
+import { beamDataText } from './beam-data-text.js';
 import { CAUTION } from './caution.js';
+import type { CheckDocument } from './check-json.js';
 import { clampText, noteText } from './note-text.js';
 import { handCalculation } from './hand-calculation.js';
 
@@ -14,6 +16,8 @@ export interface ElectronCalcReport {
   readonly mu: number;
   readonly doseCGy: number;
   readonly given: 'mu' | 'dose';
+  /** What the beam data are, validated and approved (see beamDataText), when the command knows it. */
+  readonly beamData?: CheckDocument['beamData'];
   /** What makes this point or these MU unfit to rely on (steep depth dose, beyond the machine). */
   readonly flags: readonly Note[];
 }
@@ -37,6 +41,7 @@ export function electronCalcText(r: ElectronCalcReport): string[] {
     ...handCalculation(r.result.factors, r.result.dosePerMuCGy, r),
     ...r.result.clamps.map((n) => `  note: ${clampText(n)}, as the beam data allow`),
     ...r.flags.map((f) => `  FLAG: ${noteText(f)}`),
+    ...(r.beamData ? ['', `  ${beamDataText(r.beamData)}`] : []),
     '',
     CAUTION,
   ];
@@ -47,6 +52,7 @@ export const ElectronCalcDocument = z.object({
   kind: z.literal('plumbline.electron-calc'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   machine: z.object({ name: z.string(), dataVersion: z.string(), invented: z.boolean() }),
+  beamData: z.string().optional(),
   beam: z.object({ id: z.string(), nominalEnergyMeV: z.number() }),
   input: z.object({
     applicatorId: z.string(),
@@ -75,6 +81,7 @@ export function electronCalcDocument(r: ElectronCalcReport, version: string): z.
     kind: 'plumbline.electron-calc',
     tool: { name: 'plumbline', version },
     machine: { name: r.machine.name, dataVersion: r.machine.version, invented: r.machine.invented },
+    ...(r.beamData ? { beamData: beamDataText(r.beamData) } : {}),
     beam: { id: r.beam.id, nominalEnergyMeV: r.beam.nominalEnergyMeV },
     input: r.input,
     ...(r.isodosePercent !== undefined ? { isodosePercent: r.isodosePercent } : {}),

@@ -88,3 +88,11 @@ describe('plumbline calc for electrons', () => {
     expect(p.stderr).toMatch(/--cutout and --isodose are for electron beams/);
   });
 });
+
+describe('what the calculation rests on', () => {
+  it('names the beam data, their hash, that they passed validation and who approved them, as the check does', () => {
+    const r = calc('--energy', '6', '--setup', 'SAD', '--field', '10x10', '--depth', '10', '--mu', '100');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/beam data NG_LINAC1, version demo-2026-12-02 .*SHA-256 [0-9a-f]{16}…; validated, no warnings; approved 2026-12-02 by/);
+  });
+});
