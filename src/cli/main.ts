@@ -1,5 +1,6 @@
 import { Command, CommanderError } from 'commander';
 import { runBeamsComparePublished } from './beams-compare.js';
+import { runImportScans } from './beams-import.js';
 import { runBeamsNew } from './beams-new.js';
 import { runBeamsValidate } from './beams-validate.js';
 import { runCalc } from './calc.js';
@@ -162,6 +163,19 @@ export async function main(argv: readonly string[]): Promise<number> {
     .argument('<manifest>', "the machine's manifest, or 'demo'")
     .action((manifest: string) => {
       outcome = runBeamsComparePublished(manifest);
+    });
+  beams
+    .command('import-scans')
+    .description('build a PDD or TMR table from plain two-column scans (position, reading), one file per field side')
+    .argument('<FIELD=FILE...>', 'field side in cm and its scan file, e.g. 10=pdd-10x10.txt')
+    .requiredOption('--quantity <pdd|tmr>', 'what the scans are')
+    .requiredOption('--depths <cm,...>', "the table's depths (its rows)")
+    .requiredOption('--out <file>', 'the CSV table to write')
+    .option('--normalize <max|cm>', 'normalise each scan to its maximum (default) or to its reading at this depth')
+    .option('--columns <i,j>', '1-based columns of position and reading (default 1,2)')
+    .option('--position-unit <cm|mm>', 'unit of the positions in the files (default cm)')
+    .action((pairs: string[], opts: Record<string, unknown>) => {
+      outcome = runImportScans(pairs, opts);
     });
   beams
     .command('new')

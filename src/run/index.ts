@@ -22,3 +22,4 @@ export { compareElectronEnergy, DEFAULT_POLICY, ELECTRON_ENERGY_TOLERANCE_PERCEN
 export { STORAGE_CLASSES, type ObjectSummary, readObjectSummary } from '../dicom/index.js';
 export * from './beam-data-template.js';
 export { comparePublishedPdd, PUBLISHED_TOLERANCE_PERCENT, type PublishedComparison } from '../beamdata/index.js';
+export * from './import-scans.js';

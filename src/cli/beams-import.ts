@@ -1,0 +1,59 @@
+import { z } from 'zod';
+import { formatIssue } from '../model/index.js';
+import { importScans } from '../run/index.js';
+import { writeFileAtomic } from './atomic-write.js';
+import type { CommandOutcome } from './outcome.js';
+
+const numbers = (what: string) =>
+  z
+    .string()
+    .regex(/^-?\d+(\.\d+)?(,-?\d+(\.\d+)?)*$/, `${what} must be numbers separated by commas`)
+    .transform((s) => s.split(',').map(Number));
+
+export const ImportScansOptions = z.object({
+  quantity: z.enum(['pdd', 'tmr'], { message: "--quantity must be 'pdd' or 'tmr'" }),
+  depths: numbers('--depths'),
+  normalize: z
+    .union([
+      z.literal('max'),
+      z
+        .string()
+        .regex(/^\d+(\.\d+)?$/)
+        .transform(Number),
+    ])
+    .default('max'),
+  columns: numbers('--columns')
+    .refine((c) => c.length === 2 && c.every((x) => Number.isInteger(x) && x >= 1), '--columns must be two column numbers, e.g. 1,3')
+    .transform((c) => [c[0]!, c[1]!] as const)
+    .optional(),
+  positionUnit: z.enum(['cm', 'mm']).default('cm'),
+  out: z.string().min(1),
+});
+
+/** `plumbline beams import-scans FIELD=FILE…`: a PDD or TMR table from generic two-column scans. */
+export function runImportScans(pairs: readonly string[], raw: Record<string, unknown>): CommandOutcome {
+  const p = ImportScansOptions.safeParse(raw);
+  if (!p.success) return refuse(p.error.issues.map((i) => i.message));
+  const scans = pairs.map((s) => /^(\d+(?:\.\d+)?)=(.+)$/.exec(s));
+  if (scans.some((m) => !m)) return refuse(['each scan is FIELD=FILE, the field side in cm: 10=pdd-10x10.txt']);
+  const o = p.data;
+  const r = importScans({
+    quantity: o.quantity,
+    scans: scans.map((m) => ({ fieldCm: Number(m![1]), file: m![2]! })),
+    rowsCm: o.depths,
+    normalizeAt: o.normalize,
+    ...(o.columns ? { columns: o.columns } : {}),
+    positionUnit: o.positionUnit,
+  });
+  if (!r.ok) return { stdout: [], stderr: r.issues.map(formatIssue), exitCode: 2 };
+  writeFileAtomic(o.out, r.value);
+  return {
+    stdout: [`wrote ${o.out} from ${scans.length} scan(s); check it, then name it in the manifest and run plumbline beams validate`],
+    stderr: [],
+    exitCode: 0,
+  };
+}
+
+function refuse(messages: readonly string[]): CommandOutcome {
+  return { stdout: [], stderr: messages.map((message) => formatIssue({ severity: 'error', code: 'invalid-option', message })), exitCode: 2 };
+}
