@@ -45,9 +45,10 @@ export function runBeamsComparePublished(manifestArg: string): CommandOutcome {
     }
     const flag = Math.abs(e.differencePercent!) > ELECTRON_ENERGY_TOLERANCE_PERCENT;
     if (flag) flagged++;
+    const difference = `${e.differencePercent! >= 0 ? '+' : ''}${e.differencePercent!.toFixed(0)} %`;
     out.push(
       `  ${b.id}: R50 ${e.r50Cm!.toFixed(2)} cm (10 cm field), E0 ≈ 2.33 MeV/cm × R50 = ${e.e0MeV!.toFixed(1)} MeV, ` +
-        `nominal ${b.nominalEnergyMeV} MeV (${e.differencePercent! >= 0 ? '+' : ''}${e.differencePercent!.toFixed(0)} %)${flag ? '  <- look at this table' : ''}`,
+        `nominal ${b.nominalEnergyMeV} MeV (${difference})${flag ? '  <- look at this table' : ''}`,
     );
   }
   out.push(CAUTION);

@@ -3,6 +3,7 @@ import { formatIssue } from '../model/index.js';
 import { importScans } from '../run/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import type { CommandOutcome } from './outcome.js';
+import { refuseOptions } from './refuse.js';
 
 const numbers = (what: string) =>
   z
@@ -33,9 +34,9 @@ export const ImportScansOptions = z.object({
 /** `plumbline beams import-scans FIELD=FILE…`: a PDD or TMR table from generic two-column scans. */
 export function runImportScans(pairs: readonly string[], raw: Record<string, unknown>): CommandOutcome {
   const p = ImportScansOptions.safeParse(raw);
-  if (!p.success) return refuse(p.error.issues.map((i) => i.message));
+  if (!p.success) return refuseOptions(p.error.issues.map((i) => i.message));
   const scans = pairs.map((s) => /^(\d+(?:\.\d+)?)=(.+)$/.exec(s));
-  if (scans.some((m) => !m)) return refuse(['each scan is FIELD=FILE, the field side in cm: 10=pdd-10x10.txt']);
+  if (scans.some((m) => !m)) return refuseOptions(['each scan is FIELD=FILE, the field side in cm: 10=pdd-10x10.txt']);
   const o = p.data;
   const r = importScans({
     quantity: o.quantity,
@@ -52,8 +53,4 @@ export function runImportScans(pairs: readonly string[], raw: Record<string, unk
     stderr: [],
     exitCode: 0,
   };
-}
-
-function refuse(messages: readonly string[]): CommandOutcome {
-  return { stdout: [], stderr: messages.map((message) => formatIssue({ severity: 'error', code: 'invalid-option', message })), exitCode: 2 };
 }

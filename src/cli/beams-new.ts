@@ -6,6 +6,7 @@ import { CAUTION } from '../report/caution.js';
 import { beamDataTemplate } from '../run/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import type { CommandOutcome } from './outcome.js';
+import { refuseOptions } from './refuse.js';
 
 const energies = (what: string) =>
   z
@@ -39,12 +40,12 @@ export const BeamsNewOptions = z.object({
 /** `plumbline beams new`: a new machine's manifest and CSV templates, to fill and validate. */
 export function runBeamsNew(raw: Record<string, unknown>): CommandOutcome {
   const p = BeamsNewOptions.safeParse(raw);
-  if (!p.success) return refuse(p.error.issues.map((i) => i.message));
+  if (!p.success) return refuseOptions(p.error.issues.map((i) => i.message));
   const o = p.data;
-  if (!o.photons.length && !o.electrons.length) return refuse(['give at least one energy: --photons 6,10 and/or --electrons 6,9']);
-  if (o.electrons.length && !o.applicators.length) return refuse(['electron beams need their applicators: --applicators A10,A15']);
+  if (!o.photons.length && !o.electrons.length) return refuseOptions(['give at least one energy: --photons 6,10 and/or --electrons 6,9']);
+  if (o.electrons.length && !o.applicators.length) return refuseOptions(['electron beams need their applicators: --applicators A10,A15']);
   const out = o.out ?? `${o.machine}-beam-data`;
-  if (existsSync(out) && readdirSync(out).length) return refuse([`${out} already holds files: give a new or empty folder with --out`]);
+  if (existsSync(out) && readdirSync(out).length) return refuseOptions([`${out} already holds files: give a new or empty folder with --out`]);
   const files = beamDataTemplate({ machine: o.machine, photonsMV: o.photons, electronsMeV: o.electrons, applicators: o.applicators });
   for (const f of files) {
     const path = join(out, f.path);
@@ -60,8 +61,4 @@ export function runBeamsNew(raw: Record<string, unknown>): CommandOutcome {
     stderr: [],
     exitCode: 0,
   };
-}
-
-function refuse(messages: readonly string[]): CommandOutcome {
-  return { stdout: [], stderr: messages.map((message) => formatIssue({ severity: 'error', code: 'invalid-option', message })), exitCode: 2 };
 }
