@@ -1,7 +1,6 @@
 import { existsSync, mkdirSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { z } from 'zod';
-import { formatIssue } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { beamDataTemplate } from '../run/index.js';
 import { writeFileAtomic } from './atomic-write.js';
