@@ -101,19 +101,21 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
       waiting += group.length;
       continue;
     }
-    // One group's failure is that group's record: the pass goes on with the next.
+    // Each plan's failure is its own record (checkGroup); one here (the companions unreadable) is the
+    // group's, recorded for each of its plans: either way the pass goes on with the next group.
+    let r: ReturnType<typeof checkGroup>;
     try {
-      const r = checkGroup(ctx, group, plans);
-      checked += r.checked;
-      duplicates += r.duplicates;
-      refused += r.refused;
-      for (const e of group) if (!r.setAside.has(e)) archive(ctx, e);
+      r = checkGroup(ctx, group, plans);
     } catch (err) {
-      const reason = `the check failed (an error of plumbline's, not of the plan): ${(err as Error)?.message ?? String(err)}`;
-      for (const p of plans) recordOutcome(ctx, p, 'failed', reason);
-      setAside(ctx, group.map((e) => e.file).filter(existsSync), reason, 'failed');
+      for (const p of plans) recordOutcome(ctx, p, 'failed', failedReason(err));
+      setAside(ctx, group.map((e) => e.file).filter(existsSync), failedReason(err), 'failed');
       refused += plans.length;
+      continue;
     }
+    checked += r.checked;
+    duplicates += r.duplicates;
+    refused += r.refused;
+    for (const e of group) if (!r.setAside.has(e)) archive(ctx, e);
   }
   return { checked, duplicates, refused, waiting };
 }
@@ -143,6 +145,10 @@ function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string }
   }
 }
 
+/**
+ * A settled group's plans, each on its own: checked and recorded, a duplicate, or set aside as
+ * refused (its input) or failed (an error of ours while checking it), each with its record.
+ */
 function checkGroup(
   ctx: PipelineContext,
   group: readonly Entry[],
@@ -150,59 +156,64 @@ function checkGroup(
 ): { checked: number; duplicates: number; refused: number; setAside: Set<Entry> } {
   const of = (kind: string) => group.filter((e) => e.summary.kind === kind).map((e) => e.file);
   const companions = loadCompanions({ ctFiles: of('ct'), structuresFile: of('structures')[0], doseFiles: of('dose') }, ctx.config.ct, ctx.policy);
-  let checked = 0;
-  let duplicates = 0;
-  let refused = 0;
-  const aside = new Set<Entry>();
+  const tally = { checked: 0, duplicates: 0, refused: 0, setAside: new Set<Entry>() };
   for (const p of plans) {
-    const bytes = readFileSync(p.file);
-    const content = planContentSha256(bytes, p.file);
-    if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256, content)) {
-      ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
-      duplicates++;
-      continue;
+    let outcome: PlanOutcome;
+    try {
+      outcome = checkOnePlan(ctx, group, p, companions);
+    } catch (err) {
+      outcome = { failed: failedReason(err) };
     }
-    const r = checkArrivedPlan(bytes, p.file, p.sha256, ctx.machines, ctx.policy, companions);
-    if (!r.ok) {
-      // Acknowledged to the sender, so never dropped: recorded as refused, the file kept with its reason.
-      const reason = r.issues.map((i) => i.message).join('; ');
-      recordOutcome(ctx, p, 'refused', reason);
-      setAside(ctx, [p.file], reason, 'refused');
-      aside.add(p);
-      refused++;
-      continue;
+    if (outcome === 'checked') tally.checked++;
+    else if (outcome === 'duplicate') tally.duplicates++;
+    else {
+      // Acknowledged to the sender, so never dropped: recorded with its reason, the file kept beside it.
+      const [kind, reason] = 'refused' in outcome ? (['refused', outcome.refused] as const) : (['failed', outcome.failed] as const);
+      recordOutcome(ctx, p, kind, reason);
+      setAside(ctx, [p.file], reason, kind);
+      tally.setAside.add(p);
+      tally.refused++;
     }
-    const { result, machine } = r.value;
-    if (result.issues.length) {
-      // Refused by the check itself (a machine the beam data do not know, a field beyond the machine): as the CLI refuses it.
-      const reason = result.issues.map((i) => i.message).join('; ');
-      recordOutcome(ctx, p, 'refused', reason);
-      setAside(ctx, [p.file], reason, 'refused');
-      aside.add(p);
-      refused++;
-      continue;
-    }
-    const recordedAt = new Date(ctx.now());
-    const stamp = beamDataStamp(machine);
-    const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
-    const inputs: CheckInput[] = group
-      .filter((e) => e.summary.kind !== 'plan' || e === p)
-      .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
-    const id = ctx.history.recordCheck({
-      recordedAt: recordedAt.toISOString(),
-      result,
-      planSha256: p.sha256,
-      ...(content ? { planContentSha256: content } : {}),
-      toolVersion: VERSION,
-      beamDataVersion: stamp.dataVersion,
-      beamDataSha256: stamp.sha256,
-      inputs,
-      html: checkHtml(doc),
-    });
-    ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${planHeadline(result)}`);
-    checked++;
   }
-  return { checked, duplicates, refused, setAside: aside };
+  return tally;
+}
+
+const failedReason = (err: unknown): string =>
+  `the check failed (an error of plumbline's, not of the plan): ${(err as Error)?.message ?? String(err)}`;
+
+type PlanOutcome = 'checked' | 'duplicate' | { readonly refused: string } | { readonly failed: string };
+
+function checkOnePlan(ctx: PipelineContext, group: readonly Entry[], p: Entry, companions: ReturnType<typeof loadCompanions>): PlanOutcome {
+  const bytes = readFileSync(p.file);
+  const content = planContentSha256(bytes, p.file);
+  if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256, content)) {
+    ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
+    return 'duplicate';
+  }
+  const r = checkArrivedPlan(bytes, p.file, p.sha256, ctx.machines, ctx.policy, companions);
+  if (!r.ok) return { refused: r.issues.map((i) => i.message).join('; ') };
+  const { result, machine } = r.value;
+  // Refused by the check itself (a machine the beam data do not know, a field beyond the machine): as the CLI refuses it.
+  if (result.issues.length) return { refused: result.issues.map((i) => i.message).join('; ') };
+  const recordedAt = new Date(ctx.now());
+  const stamp = beamDataStamp(machine);
+  const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
+  const inputs: CheckInput[] = group
+    .filter((e) => e.summary.kind !== 'plan' || e === p)
+    .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
+  const id = ctx.history.recordCheck({
+    recordedAt: recordedAt.toISOString(),
+    result,
+    planSha256: p.sha256,
+    ...(content ? { planContentSha256: content } : {}),
+    toolVersion: VERSION,
+    beamDataVersion: stamp.dataVersion,
+    beamDataSha256: stamp.sha256,
+    inputs,
+    html: checkHtml(doc),
+  });
+  ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${planHeadline(result)}`);
+  return 'checked';
 }
 
 /** Into archive/<date>/<sha256>.dcm; a second copy of the same content is simply removed. */

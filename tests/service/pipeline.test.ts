@@ -147,3 +147,34 @@ describe('a plan the check itself refuses', () => {
     ]);
   });
 });
+
+describe('two plans of one frame of reference, one of them poisoned', () => {
+  it('the good one is checked and archived, the poisoned one alone recorded as failed', () => {
+    const s = setup();
+    for (const sop of ['2.25.71', '2.25.72'])
+      put(
+        s.config.folders.inbox,
+        writeVariant('wedged-pair.dcm', (ds) => {
+          ds.SOPInstanceUID = sop;
+          ds.FrameOfReferenceUID = '2.25.70';
+        }),
+        `${sop}.dcm`,
+      );
+    const history = new Proxy(s.history, {
+      get(target, prop, receiver) {
+        if (prop === 'alreadyChecked')
+          return (sop: string, ...rest: [string, string?]) => {
+            if (sop === '2.25.72') throw new Error('poisoned for the test');
+            return target.alreadyChecked(sop, ...rest);
+          };
+        const v = Reflect.get(target, prop, receiver);
+        return typeof v === 'function' ? v.bind(target) : v;
+      },
+    });
+    s.advance(60);
+    expect(processInbox({ ...s.ctx, history })).toMatchObject({ checked: 1, refused: 1 });
+    expect(s.history.listChecks().map((c) => c.planSopInstanceUid)).toEqual(['2.25.71']);
+    expect(s.history.intakeOutcomes().map((o) => [o.outcome, o.sopInstanceUid])).toEqual([['failed', '2.25.72']]);
+    expect(readdirSync(s.config.folders.inbox)).toEqual([]);
+  });
+});
