@@ -56,14 +56,17 @@ function hasDepths(p: DoseVerificationPoint): boolean {
   return p.pointDepthMm !== undefined || p.equivalentDepthMm !== undefined || p.ssdMm !== undefined;
 }
 
+/** Our depth, radiological depth (with the CT) and SSD along the ray from the source to the point, as DICOM states the planning system's. */
+export interface RayDepths {
+  readonly depthMm: number;
+  readonly radiologicalMm?: number;
+  readonly ssdMm: number;
+}
+
 /** The planning system's own depth data beside ours, with the differences. */
-export function besideOurs(
-  t: PlanningSystemDepths | undefined,
-  depthMm: number,
-  radiologicalMm: number | undefined,
-  ssdMm: number,
-): Calculation['planningSystemDepths'] {
+export function besideOurs(t: PlanningSystemDepths | undefined, ours: RayDepths): Calculation['planningSystemDepths'] {
   if (!t) return undefined;
+  const { depthMm, radiologicalMm, ssdMm } = ours;
   return {
     ...(t.depthMm !== undefined ? { depthMm: t.depthMm, depthDifferenceMm: depthMm - t.depthMm } : {}),
     ...(t.equivalentDepthMm !== undefined

@@ -27,6 +27,13 @@ export interface CtDepth {
   readonly nearestInterfaceMm?: number;
   /** The media met from the surface to the point, each with its density and the distance from its upper face to the point. */
   readonly layers: readonly { readonly distanceToPointMm: number; readonly density: number }[];
+  /** Once projected on the central axis (projectOnAxis): the cosine of the ray's angle to it and the distances along the ray. */
+  readonly alongRay?: {
+    readonly cosine: number;
+    readonly ssdMm: number;
+    readonly geometricDepthMm: number;
+    readonly radiologicalDepthMm: number;
+  };
 }
 
 /**

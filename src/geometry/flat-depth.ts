@@ -13,6 +13,8 @@ export interface FlatDepth {
   readonly pointBldMm: Vec3;
   /** The point projected along its ray to the isocenter plane (Xb, Yb), where jaws and leaves are given. */
   readonly atIsocenterPlaneMm: readonly [number, number];
+  /** The cosine of the angle between the ray to the point and the central axis. */
+  readonly rayCosine: number;
 }
 
 /**
@@ -28,5 +30,6 @@ export function flatDepth(frame: BeamFrame, pointPatientMm: Vec3, ssdMm: number)
     offAxisMm: Math.hypot(v[0], v[1]),
     pointBldMm: v,
     atIsocenterPlaneMm: [(v[0] * frame.sadMm) / axial, (v[1] * frame.sadMm) / axial],
+    rayCosine: axial / Math.hypot(axial, v[0], v[1]),
   };
 }

@@ -9,3 +9,4 @@ export * from './dose-at-point.js';
 export * from './polygon.js';
 export * from './sector-rings.js';
 export * from './body-surface.js';
+export * from './axis-projection.js';

@@ -94,8 +94,11 @@ export const Calculation = z.object({
       planSsdMm: z.number().optional(),
       ssdDifferenceMm: z.number().optional(),
       ssdAlongRayMm: z.number(),
+      /** Projected on the central axis direction (the formalism's depth), see `alongRay`. */
       geometricDepthMm: z.number(),
       radiologicalDepthMm: z.number(),
+      /** The ray's angle to the central axis (its cosine) and the depths along the ray, before the projection. */
+      alongRay: z.object({ cosine: z.number(), geometricDepthMm: z.number(), radiologicalDepthMm: z.number() }).optional(),
       entryPatientMm: z.tuple([z.number(), z.number(), z.number()]),
       densityRange: z.tuple([z.number(), z.number()]),
       nearestInterfaceMm: z.number().optional(),

@@ -65,7 +65,11 @@ ${
   c.ct
     ? `<p>From the CT: SSD ${n(c.ct.ssdAlongAxisMm, 1)} mm along the central axis (plan ${n(c.ct.planSsdMm, 1)} mm), ` +
       `${c.ct.ssdAlongRayMm.toFixed(1)} mm along the ray;
-geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm (densities
+geometric depth ${c.ct.geometricDepthMm.toFixed(1)} mm, radiological depth ${c.ct.radiologicalDepthMm.toFixed(1)} mm along the central axis${
+        c.ct.alongRay && c.ct.alongRay.cosine < 0.99995
+          ? ` (the ray's distances × ${c.ct.alongRay.cosine.toFixed(4)}, the cosine of its angle to the axis)`
+          : ''
+      } (densities
 ${c.ct.densityRange[0].toFixed(2)}–${c.ct.densityRange[1].toFixed(2)}, body ${esc(c.ct.body)});
 heterogeneity correction CF = TPR(d_eff)/TPR(d) = ${c.ct.correctionFactor.toFixed(4)}, applied in the dose per MU below (homogeneous dose
 ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>`

@@ -1,4 +1,5 @@
-import { type BeamFrame, type CtDepth, ctDepth, type Vec3 } from '../../geometry/index.js';
+import { type BeamFrame, type CtDepth, ctDepth, type FlatDepth, projectOnAxis, type Vec3 } from '../../geometry/index.js';
+import type { RayDepths } from '../planning-system-depths.js';
 import type { Calculation } from '../../model/index.js';
 import { ctAxisSsdMm, ctDepthOptions, type PatientCt } from '../patient-ct.js';
 import { type BeamCheckContext, type Stopped, stopNotChecked } from './context.js';
@@ -10,7 +11,10 @@ export interface Traced {
   readonly axisSsdMm: number | undefined;
 }
 
-/** Traces the beam's ray to its point through the CT; a ray the CT cannot answer ends the check (not checked, with the geometry's reason). */
+/**
+ * Traces the beam's ray to its point through the CT, its distances projected on the central axis;
+ * a ray the CT cannot answer ends the check (not checked, with the geometry's reason).
+ */
 export function traceToPoint(
   ctx: BeamCheckContext & { ct: PatientCt },
   frame: BeamFrame,
@@ -20,7 +24,7 @@ export function traceToPoint(
 ): Traced | Stopped {
   const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, pointMm, ctDepthOptions(ctx.ct));
   if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { ...t.refusal, controlPoint });
-  return { depth: t.value, axisSsdMm: ctAxisSsdMm(ctx.ct, frame, sadMm) };
+  return { depth: projectOnAxis(t.value, frame, pointMm), axisSsdMm: ctAxisSsdMm(ctx.ct, frame, sadMm) };
 }
 
 /** What the result says of the CT geometry and the correction, beside the plan's SSD. */
@@ -38,9 +42,14 @@ export function ctSummary(
     ...(axis !== undefined ? { ssdAlongAxisMm: axis } : {}),
     ...(axis !== undefined && planSsdMm !== undefined ? { ssdDifferenceMm: axis - planSsdMm } : {}),
     ...(planSsdMm !== undefined ? { planSsdMm } : {}),
-    ssdAlongRayMm: t.ssdMm,
+    ssdAlongRayMm: t.alongRay?.ssdMm ?? t.ssdMm,
     geometricDepthMm: t.geometricDepthMm,
     radiologicalDepthMm: t.radiologicalDepthMm,
+    ...(t.alongRay
+      ? {
+          alongRay: { cosine: t.alongRay.cosine, geometricDepthMm: t.alongRay.geometricDepthMm, radiologicalDepthMm: t.alongRay.radiologicalDepthMm },
+        }
+      : {}),
     entryPatientMm: [...t.entryPatientMm] as [number, number, number],
     densityRange: [...t.densityRange] as [number, number],
     ...(t.nearestInterfaceMm !== undefined ? { nearestInterfaceMm: t.nearestInterfaceMm } : {}),
@@ -50,4 +59,11 @@ export function ctSummary(
     body: ct.bodySource,
     method,
   };
+}
+
+/** Our depths along the ray (to set beside the planning system's): traced through the CT, else below the plan's flat surface at `ssdMm`. */
+export function rayDepths(at: FlatDepth, ssdMm: number, traced: Traced | undefined): RayDepths {
+  const r = traced?.depth.alongRay;
+  if (r) return { depthMm: r.geometricDepthMm, radiologicalMm: r.radiologicalDepthMm, ssdMm: r.ssdMm };
+  return { depthMm: at.depthMm / at.rayCosine, ssdMm: ssdMm / at.rayCosine };
 }

@@ -5,7 +5,7 @@ import { electronDmaxCm, electronDosePerMu } from '../../physics/index.js';
 import { besideOurs } from '../planning-system-depths.js';
 import { categorize, isHeterogeneous, levelsOf } from './category.js';
 import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, stopNotChecked, stopRefused } from './context.js';
-import { ctSummary, type Traced, traceToPoint } from './ct-trace.js';
+import { ctSummary, rayDepths, type Traced, traceToPoint } from './ct-trace.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
 import { type ElectronField, electronField } from './electron-field.js';
 import { edgeFlags, electronDepthFlags } from './point-fitness.js';
@@ -55,12 +55,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
     shaped: !!ef.outline && !ef.rectangular,
     heterogeneous: isHeterogeneous(policy, ct?.densityRange),
   });
-  const planningSystemDepths = besideOurs(
-    ctx.planningSystemDepths,
-    depthCm * MM_PER_CM,
-    ct ? lookupDepthCm * MM_PER_CM : undefined,
-    ssdCm * MM_PER_CM,
-  );
+  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(at, cp0.ssdMm ?? 0, traced));
   const side = ef.applicator.sideCm;
   return {
     ok: true,

@@ -1,4 +1,4 @@
-import { apertureAt, beamFrame, type CtDepth, ctDepth, fieldEdgeDistanceMm, flatDepth } from '../../geometry/index.js';
+import { apertureAt, beamFrame, type CtDepth, ctDepth, fieldEdgeDistanceMm, flatDepth, projectOnAxis } from '../../geometry/index.js';
 import { type LookupNote, MM_PER_CM, type PhotonBeamModel } from '../../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
 import { fieldInput } from '../field-input.js';
@@ -49,7 +49,7 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   if (ctx.ct) {
     const t = ctDepth(ctx.ct.volume, frame.sourcePatientMm, point.patientMm, ctDepthOptions(ctx.ct));
     if (!t.ok) return stopNotChecked(ctx, 'ct-trace', { ...t.refusal, controlPoint });
-    traced = t.value;
+    traced = projectOnAxis(t.value, frame, point.patientMm);
     const axis = s.ssdMm !== undefined ? ctAxisSsdMm(ctx.ct, frame, sadMm) : undefined;
     if (axis !== undefined) ssdDifferenceMm = axis - s.ssdMm!;
   } else if (s.ssdMm === undefined) return stopNotChecked(ctx, 'segment-no-ssd', { controlPoint });

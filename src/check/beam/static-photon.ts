@@ -6,7 +6,7 @@ import { heterogeneityCorrection, interfaceWithinBuildUpMm } from '../heterogene
 import { besideOurs } from '../planning-system-depths.js';
 import { categorize, isHeterogeneous, levelsOf } from './category.js';
 import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, type Stopped, stopNotChecked, stopRefused } from './context.js';
-import { ctSummary } from './ct-trace.js';
+import { ctSummary, rayDepths } from './ct-trace.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
 import { beamModifiers } from './modifiers.js';
 import { buildUpFlags, edgeFlags, interfaceFlags } from './point-fitness.js';
@@ -56,7 +56,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
     shaped: g.aperture.leaves || g.blocks.length > 0,
     heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange),
   });
-  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, g.depthCm * MM_PER_CM, ct?.radiologicalDepthMm, g.ssdCm * MM_PER_CM);
+  const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(g.at, ctx.beam.controlPoints[0]!.ssdMm ?? 0, g.traced));
   return {
     ok: true,
     value: {

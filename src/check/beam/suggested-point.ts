@@ -1,4 +1,4 @@
-import { type Aperture, type BlockOutline, bldToPatient, ctDepth, fieldEdgeDistanceMm, type Vec3 } from '../../geometry/index.js';
+import { type Aperture, type BlockOutline, bldToPatient, ctDepth, fieldEdgeDistanceMm, projectOnAxis, type Vec3 } from '../../geometry/index.js';
 import { type CheckedBeam, MM_PER_CM, type PhotonBeamModel } from '../../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
 import { fieldInput } from '../field-input.js';
@@ -28,7 +28,8 @@ export function suggestedPoint(
   const suggestion: Suggestion = { patientMm: s.patientMm, depthCm: s.depthCm, offAxisCm: s.offAxisCm, edgeDistanceCm: s.edgeDistanceCm };
   if (!ctx.suggestPoint) return { suggestion };
   const { machine } = ctx;
-  const there = ctx.ct ? ctDepth(ctx.ct.volume, g.frame.sourcePatientMm, s.patientMm, ctDepthOptions(ctx.ct)) : undefined;
+  const traced = ctx.ct ? ctDepth(ctx.ct.volume, g.frame.sourcePatientMm, s.patientMm, ctDepthOptions(ctx.ct)) : undefined;
+  const there = traced?.ok ? { ok: true as const, value: projectOnAxis(traced.value, g.frame, s.patientMm) } : traced;
   const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : s.depthCm;
   const [sx, sy] = s.atIsocenterPlaneMm;
   const r = photonDosePerMu(data, machine.sadCm, {
