@@ -10,9 +10,15 @@ export interface CtDepthOptions {
   readonly body?: BodySurface;
   /** Relative electron density for an HU value; NaN when the clinic's table does not cover it. */
   readonly density: (hu: number) => number;
-  /** A density step larger than this along the ray is an interface. */
+  /** A density step larger than this along the ray is an interface (and starts a new layer). */
   readonly interfaceStep?: number;
 }
+
+/** A layer thinner than this (mm) along the ray is a sliver of the voxel grid, not a medium: it joins its neighbour. */
+export const SLIVER_MM = 0.5;
+
+/** The default interface step in relative electron density (common practice, no source: above CT noise of ±20 HU, below water to lung or bone). */
+export const DENSITY_STEP = 0.2;
 
 export interface CtDepth {
   readonly entryPatientMm: Vec3;
@@ -25,7 +31,11 @@ export interface CtDepth {
   readonly densityRange: readonly [number, number];
   /** Distance upstream from the point to the nearest density interface inside the body, if any. */
   readonly nearestInterfaceMm?: number;
-  /** The media met from the surface to the point, each with its density and the distance from its upper face to the point. */
+  /**
+   * The media met from the surface to the point, each with its mean density and the distance from its
+   * upper face to the point: voxels join the current layer while their density stays within the
+   * interface step of its mean (CT noise is not an interface), and slivers join their neighbour.
+   */
   readonly layers: readonly { readonly distanceToPointMm: number; readonly density: number }[];
   /** Once projected on the central axis (projectOnAxis): the cosine of the ray's angle to it and the distances along the ray. */
   readonly alongRay?: {
@@ -67,8 +77,8 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
   let lastDensity = Number.NaN;
   let lastInterface = -1;
   let refused: number | undefined;
-  const step = o.interfaceStep ?? 0.2;
-  const layers: { distanceToPointMm: number; density: number }[] = [];
+  const step = o.interfaceStep ?? DENSITY_STEP;
+  const layers: Layer[] = [];
   const surface = o.body ? o.body.entryMm(sourceMm, pointMm) : undefined;
   if (o.body && surface === undefined) return { ok: false, refusal: { reason: 'misses-external' } };
   let firstVoxelMm = -1;
@@ -95,7 +105,7 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
       return;
     }
     if (!Number.isNaN(lastDensity) && Math.abs(rho - lastDensity) > step) lastInterface = start;
-    if (rho !== lastDensity) layers.push({ distanceToPointMm: total - start, density: rho });
+    addToLayers(layers, start, length, rho, step);
     lastDensity = rho;
     lo = Math.min(lo, rho);
     hi = Math.max(hi, rho);
@@ -121,9 +131,38 @@ export function ctDepth(volume: CtVolume, sourceMm: Vec3, pointMm: Vec3, o: CtDe
       radiologicalDepthMm: radiological,
       densityRange: [lo, hi],
       ...(lastInterface >= 0 ? { nearestInterfaceMm: total - lastInterface } : {}),
-      layers,
+      layers: mergeSlivers(layers).map((l) => ({ distanceToPointMm: total - l.startMm, density: l.densityLength / l.lengthMm })),
     },
   };
+}
+
+interface Layer {
+  startMm: number;
+  lengthMm: number;
+  /** Σ ρ·ℓ over the layer's pieces. */
+  densityLength: number;
+}
+
+/** A piece of the ray joins the current layer unless its density is more than the step from the layer's mean. */
+function addToLayers(layers: Layer[], startMm: number, lengthMm: number, rho: number, step: number): void {
+  const last = layers[layers.length - 1];
+  if (last && Math.abs(rho - last.densityLength / last.lengthMm) <= step) {
+    last.lengthMm += lengthMm;
+    last.densityLength += rho * lengthMm;
+  } else if (lengthMm > 0) layers.push({ startMm, lengthMm, densityLength: rho * lengthMm });
+}
+
+/** Slivers (thinner than SLIVER_MM) join the layer before them, or the one after for the first. */
+function mergeSlivers(layers: readonly Layer[]): Layer[] {
+  const out: Layer[] = [];
+  for (const l of layers) {
+    const last = out[out.length - 1];
+    if (last && (l.lengthMm < SLIVER_MM || last.lengthMm < SLIVER_MM)) {
+      last.lengthMm += l.lengthMm;
+      last.densityLength += l.densityLength;
+    } else out.push({ ...l });
+  }
+  return out;
 }
 
 /** Source to the body surface along the central axis (for the SSD cross-check with the plan). */

@@ -53,6 +53,7 @@ export const NOTE_CODES = [
   'bolus-depth',
   'table-pitch-roll-ignored',
   'batho-interface-in-build-up',
+  'batho-point-medium',
   'modulated-clarkson',
   'modulated-depths',
   'modulated-heterogeneity',

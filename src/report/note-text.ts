@@ -12,7 +12,7 @@ const where = (v: Values) => (v.controlPoint === undefined ? '' : `control point
 /** How each heterogeneity method (or electron depth rule) is named. */
 const CT_METHOD_TEXT: Readonly<Record<string, string>> = {
   'tpr-ratio': 'the TPR ratio (effective path length)',
-  batho: "Batho's power law (generalized, TPR form)",
+  batho: "Batho's power law (generalized, TMR form)",
   'electron-radiological-depth': 'the PDD at the radiological depth (equivalent thickness by relative electron density)',
 };
 
@@ -112,6 +112,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'bolus-depth': () => "a bolus is referenced: the depth is taken from the plan's SSD, which must include it",
   'table-pitch-roll-ignored': () => 'table top pitch and roll are ignored',
   'batho-interface-in-build-up': (v) => `an interface ${f1(v, 'distanceCm')} cm upstream of the point, within dmax: Batho's law is not defined there`,
+  'batho-point-medium': (v) =>
+    `the point lies in a medium of relative electron density ${n(v, 'density')}: the ratio of its mass energy-absorption coefficient to water's is not ` +
+    'applied (taken as 1)',
   'modulated-clarkson': (v) =>
     `modulated beam by modified Clarkson integration (Kung, Chen and Kuchnir 2000): ${n(v, 'segments')} segments between ${n(v, 'controlPoints')} ` +
     `control points, ` +

@@ -165,6 +165,29 @@ describe('heterogeneous phantoms', () => {
   });
 });
 
+/** Seeded noise of ±15 HU (a uniform deviate from a linear congruential generator keyed by the voxel). */
+function noise(x: number, y: number, z: number): number {
+  let h = (Math.imul(Math.round(x) + 1000, 73856093) ^ Math.imul(Math.round(y) + 1000, 19349663) ^ Math.imul(Math.round(z) + 1000, 83492791)) >>> 0;
+  h = (Math.imul(h, 1664525) + 1013904223) >>> 0;
+  return (h / 2 ** 32) * 30 - 15;
+}
+const noisyWater = phantom('noisy-water', (x, y, z) => (inBox(x, y, z) ? noise(x, y, z) : -1000));
+
+describe('layers are media, not voxels', () => {
+  it('CT noise of ±15 HU in water is one layer (its mean density within 0.01 of 1), not a layer per voxel', () => {
+    for (const gantry of [0, 30, 60, 90, 135, 200]) {
+      const d = depth(noisyWater, 'HFS', cp(gantry), [0, 0, 0]);
+      expect(d.layers).toHaveLength(1);
+      expect(Math.abs(d.layers[0]!.density - 1)).toBeLessThan(0.01);
+    }
+  });
+  it('a point 0.2 mm past the end of the lung slab makes no sliver of water: the point is in the lung layer, none nearer than 0.5 mm', () => {
+    const d = depth(lung, 'HFS', cp(0), [0, 0.2, 0]);
+    expect(d.layers.map((l) => Number(l.distanceToPointMm.toFixed(1)))).toEqual([100.2, 40.2]);
+    expect(d.layers[1]!.density).toBeCloseTo((40 * 0.25 + 0.2 * 1) / 40.2, 9);
+  });
+});
+
 describe("a body the CT's field of view cuts", () => {
   // Water across the whole width of the CT (x from −128 to 128 mm) between y = ±100.
   const truncated = phantom('truncated', (_x, y, z) => (Math.abs(y) < 100 && Math.abs(z) < 100 ? 0 : -1000));

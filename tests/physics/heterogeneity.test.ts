@@ -1,6 +1,7 @@
 /**
  * Heterogeneity corrections, by their definitions (common practice, no source): the TPR ratio
- * CF = TPR(d_eff, r)/TPR(d, r); Batho's power law in its generalized form, 1 in water. Each returns
+ * CF = TPR(d_eff, r)/TPR(d, r); Batho's power law in its generalized form, 1 in water, defined with a
+ * ratio normalised at dmax (TMR), so independent of the table's own normalisation. Each returns
  * the notes of the lookups it rests on with its value.
  */
 import { describe, expect, it } from 'vitest';
@@ -27,6 +28,20 @@ describe('heterogeneity corrections', () => {
     ];
     const expected = tprAt(b6, 7, 10, []) ** (0.3 - 1) * tprAt(b6, 4, 10, []) ** (1 - 0.3);
     expect(bathoCorrection(b6, layers, 10).value).toBeCloseTo(expected, 12);
+  });
+  it("Batho's law does not depend on the table's normalisation: a point in lung (ρ 0.25 from 5 to 12 cm) gets the same factor with d0 = 1.5 and d0 = 10 cm", () => {
+    // The same beam with its TPR normalised at 10 cm (d0 = 10 cm): TPR10(d) = TMR(d)/TMR(10).
+    const at10 = { ...b6, calibration: { ...b6.calibration, d0Cm: 10 } };
+    expect(tprAt(at10, 7, 10, [])).toBeCloseTo(tprAt(b6, 7, 10, []) / tprAt(b6, 10, 10, []), 12);
+    const layers = [
+      { distanceToPointCm: 12, density: 1 },
+      { distanceToPointCm: 7, density: 0.25 },
+    ];
+    // The law with TMR (normalised at dmax = 1.5 cm): CF = TMR(7)^(0.25 − 1).
+    const withTmr = tprAt(b6, 7, 10, []) ** (0.25 - 1);
+    expect(withTmr).toBeGreaterThan(1.1);
+    expect(bathoCorrection(b6, layers, 10).value).toBeCloseTo(withTmr, 12);
+    expect(bathoCorrection(at10, layers, 10).value).toBeCloseTo(withTmr, 9);
   });
   it('returns a refused lookup with its value rather than a number from outside the table', () => {
     const r = tprRatioCorrection(b6, 10, 500, 10);

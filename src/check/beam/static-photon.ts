@@ -1,8 +1,8 @@
 import { findPhotonBeam } from '../../beamdata/index.js';
-import { fieldEdgeDistanceMm, type CtDepth } from '../../geometry/index.js';
-import { type LookupNote, MM_PER_CM, note, type Note, type PhotonBeamModel } from '../../model/index.js';
+import { type CtDepth, DENSITY_STEP, fieldEdgeDistanceMm } from '../../geometry/index.js';
+import { type LookupNote, MM_PER_CM, type Note, type PhotonBeamModel } from '../../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
-import { heterogeneityCorrection, interfaceWithinBuildUpMm } from '../heterogeneity-correction.js';
+import { bathoNotes, heterogeneityCorrection } from '../heterogeneity-correction.js';
 import { besideOurs } from '../planning-system-depths.js';
 import { categorize, isHeterogeneous, levelsOf } from './category.js';
 import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, type Stopped, stopNotChecked, stopRefused } from './context.js';
@@ -104,8 +104,7 @@ function heterogeneity(
 ): { correction: number; approximations: Note[]; lookups: readonly LookupNote[] } | Stopped {
   const method = ctx.heterogeneity ?? 'tpr-ratio';
   const { value: correction, lookups } = heterogeneityCorrection(method, data, t, sideAtDepthCm);
-  const close = method === 'batho' ? interfaceWithinBuildUpMm(t, data.calibration.dmaxCm) : undefined;
-  const approximations = close !== undefined ? [note('batho-interface-in-build-up', { distanceCm: close / MM_PER_CM })] : [];
+  const approximations = method === 'batho' ? bathoNotes(t, data.calibration.dmaxCm, DENSITY_STEP) : [];
   if (!Number.isFinite(correction))
     return stopNotChecked(ctx, 'heterogeneity-outside-tables', { radiologicalDepthCm: t.radiologicalDepthMm / MM_PER_CM });
   return { correction, approximations, lookups };

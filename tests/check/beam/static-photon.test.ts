@@ -75,3 +75,66 @@ describe('a static photon beam through the CT', () => {
     );
   });
 });
+
+/** Seeded CT noise of ±15 HU (a hash of the voxel position through a linear congruential step). */
+function noise(x: number, y: number, z: number): number {
+  let h = (Math.imul(Math.round(x) + 1000, 73856093) ^ Math.imul(Math.round(y) + 1000, 19349663) ^ Math.imul(Math.round(z) + 1000, 83492791)) >>> 0;
+  h = (Math.imul(h, 1664525) + 1013904223) >>> 0;
+  return (h / 2 ** 32) * 30 - 15;
+}
+
+describe("Batho's law on a real-looking CT", () => {
+  const point: [number, number, number] = [0, 0, 0];
+  const gantries = Array.from({ length: 12 }, (_, k) => k * 30);
+  const { plan } = planFromSpec({
+    file: 'noisy-batho.dcm',
+    patientId: 'CT-2',
+    patientName: 'Noisy^Water',
+    label: 'NOISY',
+    name: 'noisy water',
+    description: 'test',
+    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+    fractionGroups: [
+      { number: 1, fractions: 1, prescriptionGy: 2, beams: gantries.map((_, k) => ({ number: k + 1, mu: 20, doseGy: 0.17, specPoint: point })) },
+    ],
+    beams: gantries.map((g, k) => staticBeam(k + 1, `G${g}`, 6, g, 900, point, { first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } })),
+  });
+  /** A water cylinder (radius 100 mm) with ±15 HU of noise, lung (−750 HU) where `lung` says. */
+  const cylinder = (name: string, lung: (x: number, y: number) => boolean) =>
+    phantomCt(
+      {
+        name,
+        columns: 64,
+        rows: 64,
+        slices: 12,
+        spacingMm: [4, 4, 4],
+        originMm: [-126, -126, -22],
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        hu: (x, y, z) => (x * x + y * y > 100 * 100 ? -1000 : lung(x, y) ? -750 + noise(x, y, z) : noise(x, y, z)),
+      },
+      -400,
+    );
+  const run = (ct: ReturnType<typeof phantomCt>) =>
+    beams(
+      checkPlan(
+        plan,
+        { path: 'noisy.dcm', sha256: '' },
+        { machine: demo, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, ct, heterogeneity: 'batho' },
+      ),
+    );
+
+  it('CT noise of ±15 HU in water: the factor stays within ±0.3 % of 1 from 12 gantry angles, and no interface is said', () => {
+    // Check value: Batho's law is 1 in water (its definition; common practice, no source).
+    for (const b of run(cylinder('noisy', () => false))) {
+      if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
+      expect(Math.abs(b.calculation.ct!.correctionFactor - 1)).toBeLessThan(0.003);
+      expect(b.calculation.approximations.map((a) => a.code)).not.toContain('batho-interface-in-build-up');
+    }
+  });
+  it('a point inside lung is calculated, and the result says the energy-absorption ratio of its medium was not applied', () => {
+    const b = run(cylinder('lung-core', (x, y) => x * x + y * y < 40 * 40))[0]!;
+    if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
+    expect(b.calculation.ct!.correctionFactor).toBeGreaterThan(1);
+    expect(b.calculation.approximations).toContainEqual(expect.objectContaining({ code: 'batho-point-medium' }));
+  });
+});
