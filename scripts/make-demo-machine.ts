@@ -47,6 +47,7 @@ interface EnergyModel {
   wedge10: Record<string, number>;
   tray: number;
   mlcTransmission: number;
+  dosimetricLeafGapMm: number;
 }
 
 const ENERGIES: EnergyModel[] = [
@@ -63,6 +64,7 @@ const ENERGIES: EnergyModel[] = [
     wedge10: { W15: 0.82, W30: 0.68, W45: 0.52, W60: 0.39 },
     tray: 0.97,
     mlcTransmission: 0.015,
+    dosimetricLeafGapMm: 1.5,
   },
   {
     id: '10X',
@@ -77,6 +79,7 @@ const ENERGIES: EnergyModel[] = [
     wedge10: { W15: 0.84, W30: 0.71, W45: 0.56, W60: 0.43 },
     tray: 0.975,
     mlcTransmission: 0.017,
+    dosimetricLeafGapMm: 1.7,
   },
   {
     id: '15X',
@@ -91,6 +94,7 @@ const ENERGIES: EnergyModel[] = [
     wedge10: { W15: 0.85, W30: 0.73, W45: 0.58, W60: 0.45 },
     tray: 0.978,
     mlcTransmission: 0.018,
+    dosimetricLeafGapMm: 1.9,
   },
 ];
 
@@ -299,6 +303,7 @@ const beams = ENERGIES.map((e) => {
     },
     trays: [{ id: 'BLOCK_TRAY', factor: e.tray }],
     mlcTransmission: e.mlcTransmission,
+    dosimetricLeafGapMm: e.dosimetricLeafGapMm,
     collimatorExchangeK: 1.25,
     fitted: { mu, kappa },
   };

@@ -267,6 +267,7 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     ...(swept ? { sweptWedge: swept } : {}),
     trays: entry.trays,
     ...(entry.mlcTransmission !== undefined ? { mlcTransmission: entry.mlcTransmission } : {}),
+    ...(entry.dosimetricLeafGapMm !== undefined ? { dosimetricLeafGapMm: entry.dosimetricLeafGapMm } : {}),
     ...(entry.collimatorExchangeK !== undefined ? { collimatorExchangeK: entry.collimatorExchangeK } : {}),
   };
 }

@@ -114,6 +114,13 @@ export const PhotonBeamEntry = z
     sweptWedge: SweptWedge.optional(),
     trays: z.array(z.object({ id: z.string().min(1), factor: z.number().finite().positive().max(1) }).strict()).default([]),
     mlcTransmission: z.number().finite().min(0).max(1).optional(),
+    dosimetricLeafGapMm: z
+      .number()
+      .finite()
+      .min(0)
+      .max(5)
+      .optional()
+      .describe('dosimetric leaf gap, mm at the isocenter plane: each open leaf pair is widened by it (the rounded leaf ends)'),
     collimatorExchangeK: positive.optional().describe('collimator-exchange constant k for the Sc equivalent square'),
   })
   .strict()

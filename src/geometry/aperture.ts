@@ -69,8 +69,12 @@ const span = new Float64Array(2);
 
 const UNBOUNDED_MM = 1e4;
 
-/** The aperture at a control point, or undefined when the beam has no jaws along an axis and no leaves there. */
-export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
+/**
+ * The aperture at a control point, or undefined when the beam has no jaws along an axis and no leaves
+ * there. `leafGapMm` (the dosimetric leaf gap) widens each open leaf pair, half at each leaf end,
+ * never beyond the jaws; a closed pair (its leaves touching or crossed) stays closed.
+ */
+export function apertureAt(beam: Beam, cp: ControlPoint, leafGapMm = 0): Aperture | undefined {
   const pos = (t: string) => cp.devices.find((d) => d.type === t)?.positionsMm;
   const xj = pos('ASYMX') ?? pos('X');
   const yj = pos('ASYMY') ?? pos('Y');
@@ -96,7 +100,9 @@ export function apertureAt(beam: Beam, cp: ControlPoint): Aperture | undefined {
       const y0 = Math.max(b[i]!, v1);
       const y1 = Math.min(b[i + 1]!, v2);
       if (y1 <= y0) continue;
-      bands.push({ y0, y1, x0: Math.max(leaves[i]!, u1), x1: Math.min(leaves[i + n]!, u2) });
+      const [left, right] = [leaves[i]!, leaves[i + n]!];
+      const half = right > left ? leafGapMm / 2 : 0;
+      bands.push({ y0, y1, x0: Math.max(left - half, u1), x1: Math.min(right + half, u2) });
     }
   } else {
     bands.push({ y0: v1, y1: v2, x0: u1, x1: u2 });

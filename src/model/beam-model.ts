@@ -98,6 +98,11 @@ export interface PhotonBeamModel {
   readonly sweptWedge?: TableLookup;
   readonly trays: readonly { readonly id: string; readonly factor: number }[];
   readonly mlcTransmission?: number;
+  /**
+   * The dosimetric leaf gap (mm at the isocenter plane): the rounded leaf ends let radiation through
+   * as if each open leaf pair were this much wider. Absent: leaf ends not modelled, and the result says so.
+   */
+  readonly dosimetricLeafGapMm?: number;
   /** Collimator-exchange constant k for Sc's equivalent square (upper jaw = Y); 1 means none. */
   readonly collimatorExchangeK?: number;
 }

@@ -58,6 +58,7 @@ export const NOTE_CODES = [
   'modulated-depths',
   'modulated-heterogeneity',
   'leaf-ends-not-modelled',
+  'leaf-end-gap',
   'electron-cutout',
   'electron-extended-ssd',
   'electron-off-axis',

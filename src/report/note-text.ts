@@ -123,7 +123,10 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'modulated-heterogeneity': (v) =>
     `heterogeneity corrected per segment by ${CT_METHOD_TEXT[s(v, 'method')] ?? s(v, 'method')}: dose-weighted CF ${n(v, 'correctionFactor').toFixed(4)} ` +
     `(homogeneous dose ${f1(v, 'homogeneousDoseCGy')} cGy)`,
-  'leaf-ends-not-modelled': () => 'the leaf tongue-and-groove effect and the rounded leaf ends are not modelled',
+  'leaf-ends-not-modelled': () =>
+    'the rounded leaf ends are not modelled (the beam data give no dosimetric leaf gap), nor the tongue-and-groove effect',
+  'leaf-end-gap': (v) =>
+    `each open leaf pair widened by the dosimetric leaf gap of ${n(v, 'gapMm')} mm (the rounded leaf ends); the tongue-and-groove effect is not modelled`,
   'electron-cutout': (v) =>
     `${(CUTOUT[s(v, 'cutout')] ?? (() => s(v, 'cutout')))(v)}${v.effectiveSsdCm === undefined ? '' : `; effective SSD ${f1(v, 'effectiveSsdCm')} cm`}`,
   'electron-extended-ssd': (v) =>

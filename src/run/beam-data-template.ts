@@ -89,6 +89,7 @@ function photon(mv: number): { entry: object; files: TemplateFile[] } {
     sp: { file: `${dir}/sp.csv`, units: { fieldSide: 'cm' } },
     oar: { file: `${dir}/oar.csv`, offAxisAt: 'depth', units: { depth: 'cm', offAxis: 'cm' } },
     mlcTransmission: null,
+    dosimetricLeafGapMm: null,
     collimatorExchangeK: null,
   };
   return { entry, files };

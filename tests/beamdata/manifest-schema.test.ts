@@ -20,4 +20,10 @@ describe('beam-data manifest schema', () => {
     expect(variant({ energyMV: 6 })).toBe(false);
     expect(variant({})).toBe(true);
   });
+  it('takes a dosimetric leaf gap from 0 to 5 mm (common practice, no source: commissioned values are a few tenths of a mm to about 2.5 mm)', () => {
+    const demo = JSON.parse(readFileSync(DEMO_MANIFEST, 'utf8'));
+    const variant = (gap: unknown) => Manifest.safeParse({ ...demo, beams: [{ ...demo.beams[0], dosimetricLeafGapMm: gap }] }).success;
+    expect([0, 1.5, 5].map(variant)).toEqual([true, true, true]);
+    expect([-0.1, 5.1, 15, '1.5'].map(variant)).toEqual([false, false, false, false]);
+  });
 });

@@ -54,6 +54,19 @@ describe('aperture of jaws and leaves', () => {
     expect(a.edgeDistanceMm(60, 0)).toBe(-10);
   });
 
+  it('the dosimetric leaf gap widens each open pair by its width, half at each end, never beyond the jaws; closed pairs stay closed', () => {
+    // Four 10 mm pairs across y −20…20: open 0…10 mm, open 40…48 (widened, its right end under the jaw at 48.5),
+    // closed at 0 (touching), closed with crossed leaves. Gap 2 mm (by hand, the gap's definition).
+    const leaves = [0, 40, 0, 5, 10, 48, 0, 4];
+    const plain = apertureAt(beam({ pairs: 4, width: 10 }), cp([-49, 48.5], [-20, 20], leaves))!;
+    const wide = apertureAt(beam({ pairs: 4, width: 10 }), cp([-49, 48.5], [-20, 20], leaves), 2)!;
+    expect(plain.areaMm2).toBe(10 * 10 + 8 * 10);
+    expect(wide.areaMm2).toBe(12 * 10 + 9.5 * 10);
+    expect(wide.isOpen(-0.9, -15)).toBe(true);
+    expect(wide.isOpen(0, -5)).toBe(false);
+    expect(wide.isOpen(4.5, 15)).toBe(false);
+  });
+
   it('leaves open wider than the jaws change nothing', () => {
     const n = 40;
     const leaves = [...Array(n).fill(-150), ...Array(n).fill(150)];

@@ -61,7 +61,12 @@ describe('a new machine from beams new', () => {
     const e6 = d.electronBeams.find((b) => b.id === '6E')!;
     Object.assign(m, { dataVersion: 'test-1', approval: { approvedOn: '2026-12-03', approvedBy: 'test' } });
     m.machine.limits = d.machine.limits;
-    Object.assign(m.beams[0], { calibration: x6.calibration, mlcTransmission: x6.mlcTransmission, collimatorExchangeK: x6.collimatorExchangeK });
+    Object.assign(m.beams[0], {
+      calibration: x6.calibration,
+      mlcTransmission: x6.mlcTransmission,
+      dosimetricLeafGapMm: x6.dosimetricLeafGapMm,
+      collimatorExchangeK: x6.collimatorExchangeK,
+    });
     Object.assign(m.beams[0].pdd, { ssdCm: x6.pdd!.ssdCm, normalizationDepthCm: x6.pdd!.normalizationDepthCm });
     m.beams[0].tpr.normalizationDepthCm = x6.tpr!.normalizationDepthCm;
     m.electronBeams[0].calibration = e6.calibration;

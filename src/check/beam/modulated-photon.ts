@@ -5,6 +5,7 @@ import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, type 
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
 import { beamSadMm } from './static-geometry.js';
 import { photonBeamData } from './static-photon.js';
+import { leafEndNote } from './static-field.js';
 import { type SegmentDose, segmentDose } from './segment-dose.js';
 import { type Segment, segmentsOf } from './segments.js';
 
@@ -125,7 +126,7 @@ function modulatedApproximations(
     note('modulated-clarkson', clarkson),
     note('modulated-depths', { source: depthSourceOf(ctx), body: ctx.ct?.bodySource }),
     ...(ranges.radiologicalDepthRangeCm ? [note('modulated-heterogeneity', corrected)] : []),
-    note('leaf-ends-not-modelled'),
+    leafEndNote(data),
   ];
 }
 

@@ -57,7 +57,7 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
   const at = flatDepth(frame, point.patientMm, ssdMm);
   const depthMm = traced ? traced.geometricDepthMm : at.depthMm;
   if (depthMm < 0) return stopNotChecked(ctx, 'point-above-surface', { heightCm: -depthMm / MM_PER_CM, controlPoint });
-  const aperture = apertureAt(ctx.beam, s.mid);
+  const aperture = apertureAt(ctx.beam, s.mid, data.dosimetricLeafGapMm ?? 0);
   if (!aperture) return stopNotChecked(ctx, 'segment-no-aperture', { controlPoint });
   const depthScale = at.sourceToPointAxialMm / sadMm;
   const [px, py] = at.atIsocenterPlaneMm;

@@ -39,6 +39,7 @@ export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: Sta
       }),
     );
   }
+  if (g.aperture.leaves && !leavesOutside(g)) approximations.push(leafEndNote(data));
   const heel = m.physical?.data.profile ? heelDirection(machine, m.physical.wedge.orientationDeg) : undefined;
   const towardHeelCm = heel ? (px * heel[0] + py * heel[1]) / MM_PER_CM : undefined;
   if (m.physical?.data.profile && !heel) approximations.push(note('wedge-profile-not-applied', { orientationDeg: m.physical.wedge.orientationDeg }));
@@ -66,4 +67,15 @@ export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: Sta
     ...(m.trayId !== undefined ? { trayId: m.trayId } : {}),
   };
   return { field, input, depthScale, approximations };
+}
+
+/** How the leaf ends were taken: widened by the beam data's dosimetric leaf gap, or not modelled. */
+export function leafEndNote(data: PhotonBeamModel): Note {
+  return data.dosimetricLeafGapMm !== undefined ? note('leaf-end-gap', { gapMm: data.dosimetricLeafGapMm }) : note('leaf-ends-not-modelled');
+}
+
+/** Whether every leaf pair stands outside the jaws' opening (the leaves shape nothing). */
+function leavesOutside(g: StaticGeometry): boolean {
+  const j = g.aperture.jawsMm;
+  return g.aperture.areaMm2 >= (j.x2 - j.x1) * (j.y2 - j.y1) * (1 - 1e-9);
 }

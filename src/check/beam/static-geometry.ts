@@ -41,9 +41,10 @@ export function beamSadMm(ctx: BeamCheckContext): number | Stopped {
 
 /**
  * A static photon beam's geometry in mm: the IEC 61217 frame, the depth below the plan's SSD or
- * traced through the CT, the aperture (a swept wedge's jaw envelope), and the setup it implies.
+ * traced through the CT, the aperture (a swept wedge's jaw envelope; open leaf pairs widened by the
+ * dosimetric leaf gap), and the setup it implies.
  */
-export function staticGeometry(ctx: BeamCheckContext, modifiers: Modifiers): StaticGeometry | Stopped {
+export function staticGeometry(ctx: BeamCheckContext, modifiers: Modifiers, leafGapMm: number): StaticGeometry | Stopped {
   const { beam, point, policy } = ctx;
   const cp0 = beam.controlPoints[0]!;
   const sadMm = beamSadMm(ctx);
@@ -53,7 +54,7 @@ export function staticGeometry(ctx: BeamCheckContext, modifiers: Modifiers): Sta
   const at = flatDepth(frame, point.patientMm, cp0.ssdMm ?? 0);
   if (!ctx.ct && at.depthMm < 0) return stopNotChecked(ctx, 'point-above-surface', { heightCm: -at.depthMm / MM_PER_CM });
   // A swept wedge's jaw moves during delivery: the field is the jaws' envelope over the control points.
-  const aperture = apertureAt(beam, modifiers.swept ? jawEnvelope(beam) : cp0);
+  const aperture = apertureAt(beam, modifiers.swept ? jawEnvelope(beam) : cp0, leafGapMm);
   if (!aperture || aperture.areaMm2 <= 0) return stopNotChecked(ctx, 'no-open-aperture');
   const traced = ctx.ct ? traceToPoint({ ...ctx, ct: ctx.ct }, frame, sadMm) : undefined;
   if (traced && isStopped(traced)) return traced;

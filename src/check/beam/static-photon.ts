@@ -24,7 +24,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   if (isStopped(data)) return data.stopped;
   const modifiers = beamModifiers(ctx, data);
   if (isStopped(modifiers)) return modifiers.stopped;
-  const g = staticGeometry(ctx, modifiers);
+  const g = staticGeometry(ctx, modifiers, data.dosimetricLeafGapMm ?? 0);
   if (isStopped(g)) return g.stopped;
   const f = staticField(ctx, data, g, modifiers);
   const r = photonDosePerMu(data, ctx.machine.sadCm, f.input);
