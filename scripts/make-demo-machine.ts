@@ -13,6 +13,7 @@
  *   wedge factor(r) = WF10 (1 + 0.0015 (r − 10)); the 60° wedge also varies with depth
  *   wedge profile (wedged / open) = exp(−g u), g = 0.035 tan(angle) (1 − 0.01 (d − 10)) per cm, u toward the heel
  *   swept (dynamic) wedge factor = 1 / (1 + 0.55 tan(angle) (L/10)^0.7), L the field length along the sweep
+ *   swept wedge profile (wedged / open) = exp(−0.04 tan(angle) u), u toward the heel (cm)
  * μ and κ are fitted so the 10 × 10 PDD at SSD 100 cm matches a target at 10 and 20 cm depth:
  * 6 MV 67.5 % and 39.3 % (the values BJR Supplement 25 gives for 6 MV), 10 and 15 MV invented.
  * dmax: 1.5 cm (6 MV) and 2.5 cm (10 MV) are typical handbook values (from memory), 2.9 cm (15 MV)
@@ -279,6 +280,17 @@ const beams = ENERGIES.map((e) => {
       'swept (dynamic) wedge factor vs wedge angle (degrees, rows) and field length along the sweep (cm, columns)',
     ),
   );
+  write(
+    `${dir}/swept-wedge-profile.csv`,
+    grid(
+      'angle_deg\\toward_heel_cm',
+      SWEPT_ANGLES_DEG,
+      WEDGE_POSITIONS_CM,
+      (a, u) => Math.exp(-0.04 * Math.tan((a * Math.PI) / 180) * u),
+      f4,
+      'swept (dynamic) wedged / open dose ratio at 10 cm depth vs wedge angle (degrees, rows) and position along the sweep at the isocenter plane, positive toward the heel (cm, columns)',
+    ),
+  );
   return {
     id: e.id,
     radiationType: 'PHOTON',
@@ -299,6 +311,7 @@ const beams = ENERGIES.map((e) => {
     wedges,
     sweptWedge: {
       factor: { file: `${dir}/swept-wedge.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
+      profile: { file: `${dir}/swept-wedge-profile.csv`, units: { position: 'cm' }, interpolation: 'bilinear' },
       description: 'a jaw-swept wedge of any angle from 10 to 60 degrees (invented)',
     },
     trays: [{ id: 'BLOCK_TRAY', factor: e.tray }],

@@ -246,6 +246,9 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
   const swept = entry.sweptWedge
     ? load('swept wedge', entry.sweptWedge.factor, 'grid', ['angle', 'deg'], ['fieldSide', entry.sweptWedge.factor.units.fieldSide])
     : undefined;
+  const sweptProfile = entry.sweptWedge?.profile
+    ? load('swept wedge profile', entry.sweptWedge.profile, 'grid', ['angle', 'deg'], ['towardHeel', entry.sweptWedge.profile.units.position])
+    : undefined;
   if (!sc || (entry.pdd !== 'derive-from-tpr' && !pdd) || (entry.tpr !== 'derive-from-pdd' && !tpr) || (!sp && !scp)) return undefined;
   return {
     id: entry.id,
@@ -265,6 +268,7 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     ...(oar && entry.oar ? { oar: Object.assign(oar, { offAxisAt: entry.oar.offAxisAt }) } : {}),
     wedges,
     ...(swept ? { sweptWedge: swept } : {}),
+    ...(sweptProfile ? { sweptWedgeProfile: sweptProfile } : {}),
     trays: entry.trays,
     ...(entry.mlcTransmission !== undefined ? { mlcTransmission: entry.mlcTransmission } : {}),
     ...(entry.dosimetricLeafGapMm !== undefined ? { dosimetricLeafGapMm: entry.dosimetricLeafGapMm } : {}),

@@ -83,6 +83,14 @@ export const SweptWedge = z
       .object({ ...tableBase, units: z.object({ fieldSide: LengthUnit }).strict() })
       .strict()
       .describe('wedge factor vs wedge angle in degrees (rows) and the field length along the swept direction (columns)'),
+    profile: z
+      .object({ ...tableBase, units: z.object({ position: LengthUnit }).strict() })
+      .strict()
+      .optional()
+      .describe(
+        'wedged / open dose ratio vs wedge angle in degrees (rows) and position along the sweep at the isocenter plane, ' +
+          'positive toward the heel (columns), at the reference depth; 1 on the central axis',
+      ),
     description: z.string().optional(),
   })
   .strict()

@@ -20,7 +20,7 @@ const RANGES: Readonly<Record<string, { min: number; max: number; minInclusive: 
 
 /** The family of a table from its quantity name ("wedge W15" → wedge, "se A10" → se). */
 function kindOf(quantity: string): string {
-  if (quantity.startsWith('wedge profile')) return 'wedge profile';
+  if (quantity.startsWith('wedge profile') || quantity === 'swept wedge profile') return 'wedge profile';
   if (quantity.startsWith('wedge')) return 'wedge';
   if (quantity.startsWith('se ')) return 'se';
   if (quantity.startsWith('effective ssd')) return 'effective ssd';

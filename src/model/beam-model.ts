@@ -96,6 +96,8 @@ export interface PhotonBeamModel {
   readonly wedges: readonly WedgeData[];
   /** A jaw-swept wedge (DYNAMIC in the plan): factor vs wedge angle in degrees (rows) and field length along the sweep (columns). */
   readonly sweptWedge?: TableLookup;
+  /** Off axis along the sweep: wedged / open ratio vs wedge angle in degrees (rows) and position toward the heel at the isocenter plane, cm (columns). */
+  readonly sweptWedgeProfile?: TableLookup;
   readonly trays: readonly { readonly id: string; readonly factor: number }[];
   readonly mlcTransmission?: number;
   /**

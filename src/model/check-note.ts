@@ -23,6 +23,7 @@ export const NOTE_CODES = [
   'ct-not-this-plan',
   'swept-wedge-no-angle',
   'swept-wedge-orientation',
+  'wedge-off-axis',
   'sad-differs',
   'no-ssd-no-ct',
   'point-above-surface',

@@ -29,7 +29,9 @@ export function factorLabel(f: Factor): string {
     case 'WF':
       return `WF ${f.name}(${a.map(cm).join(', ')})`;
     case 'WP':
-      return `wedge profile ${f.name}(${cm(a[0]!)}, ${cm(a[1]!)} toward the heel)`;
+      return a.length === 1
+        ? `wedge profile ${f.name}(${cm(a[0]!)} toward the heel, at the reference depth)`
+        : `wedge profile ${f.name}(${cm(a[0]!)}, ${cm(a[1]!)} toward the heel)`;
     case 'TF':
       return `TF ${f.name}`;
     case 'MCI':

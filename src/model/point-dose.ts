@@ -14,7 +14,10 @@ export interface PhotonPointInput {
   /** Distance of the point from the central axis, at its depth. */
   readonly offAxisCm?: number;
   readonly wedgeId?: string;
-  /** With a physical wedge that has a profile: the point's position along the wedge axis at the isocenter plane, positive toward the heel. */
+  /**
+   * With a wedge that has a profile (physical, or swept with a swept-wedge profile): the point's
+   * position along the wedge axis at the isocenter plane, positive toward the heel.
+   */
   readonly towardHeelCm?: number;
   /** A jaw-swept wedge: its angle and the field length along the sweep at the isocenter plane. */
   readonly sweptWedge?: { readonly angleDeg: number; readonly fieldLengthCm: number };

@@ -101,6 +101,10 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
     }
     const { angleDeg, fieldLengthCm } = input.sweptWedge;
     factors.push({ key: 'WF', value: beam.sweptWedge.at(angleDeg, fieldLengthCm, log), args: [fieldLengthCm], name: `swept ${angleDeg}°` });
+    if (beam.sweptWedgeProfile && input.towardHeelCm !== undefined) {
+      const x = input.towardHeelCm;
+      factors.push({ key: 'WP', value: beam.sweptWedgeProfile.at(angleDeg, x, log), args: [x], name: `swept ${angleDeg}°` });
+    }
   }
   if (input.trayId !== undefined) {
     const t = beam.trays.find((v) => v.id === input.trayId);

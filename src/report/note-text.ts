@@ -6,10 +6,16 @@ type Values = Readonly<Record<string, NoteValue>>;
 const n = (v: Values, k: string): number => (typeof v[k] === 'number' ? (v[k] as number) : NaN);
 const s = (v: Values, k: string, absent = '(none)'): string => (v[k] === undefined ? absent : String(v[k]));
 const f1 = (v: Values, k: string) => n(v, k).toFixed(1);
+const f2 = (v: Values, k: string) => n(v, k).toFixed(2);
 /** "control points a–b: " for a note about one segment of a modulated beam. */
 const where = (v: Values) => (v.controlPoint === undefined ? '' : `control points ${n(v, 'controlPoint')}–${n(v, 'controlPoint') + 1}: `);
 
 /** How each heterogeneity method (or electron depth rule) is named. */
+const WEDGE_MISSING: Readonly<Record<string, string>> = {
+  profile: 'the beam data have no profile for it',
+  heel: 'the beam data do not say where its heel points at this orientation (machine.wedgeHeel)',
+};
+
 const CT_METHOD_TEXT: Readonly<Record<string, string>> = {
   'tpr-ratio': 'the TPR ratio (effective path length)',
   batho: "Batho's power law (generalized, TMR form)",
@@ -71,6 +77,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'ct-not-this-plan': () => 'the CT does not belong to this plan',
   'swept-wedge-no-angle': () => 'the dynamic wedge gives no angle',
   'swept-wedge-orientation': (v) => `the dynamic wedge gives orientation ${s(v, 'orientationDeg')}°, not along a jaw axis`,
+  'wedge-off-axis': (v) =>
+    `the point is ${f2(v, 'distanceCm')} cm off axis along the gradient of ${s(v, 'kind') === 'swept' ? 'swept wedge' : 'wedge'} ${s(v, 'wedge')} ` +
+    `(more than ${n(v, 'limitCm')} cm), and ${WEDGE_MISSING[s(v, 'missing')] ?? s(v, 'missing')}: the central-axis wedge factor is not the point's`,
   'sad-differs': (v) => `the beam's SAD (${n(v, 'sadMm')} mm) is not the machine's (${n(v, 'machineSadCm')} cm)`,
   'no-ssd-no-ct': () => 'the plan gives no SSD, so without the CT the depth cannot be found',
   'point-above-surface': (v) => `${where(v)}the calculation point lies ${f1(v, 'heightCm')} cm above the surface`,
@@ -107,7 +116,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   },
   'wedge-profile-not-applied': (v) =>
     `the wedge profile is not applied: orientation ${s(v, 'orientationDeg')}° is not 0, 90, 180 or 270, or the beam data do not say where the heel points`,
-  'wedge-central-axis-factor': () => 'the wedge factor is the central-axis value; the wedge profile off axis is not applied',
+  'wedge-central-axis-factor': (v) =>
+    `the wedge factor is the central-axis value${v.distanceCm !== undefined ? ` ${f2(v, 'distanceCm')} cm along the gradient` : ''}; ` +
+    'no wedge profile is applied',
   'swept-wedge-asymmetric': () => 'the swept-wedge factor is for a field centred on the axis; this one is asymmetric along the sweep',
   'bolus-depth': () => "a bolus is referenced: the depth is taken from the plan's SSD, which must include it",
   'table-pitch-roll-ignored': () => 'table top pitch and roll are ignored',

@@ -35,7 +35,7 @@ const lines = (out: { stdout: readonly string[] }) => out.stdout.join('\n');
 describe('plumbline beams validate', () => {
   it('finds nothing wrong with the demo machine (exit 0)', () => {
     const r = runBeamsValidate('demo');
-    expect(lines(r)).toMatch(/3 photon and 3 electron beam\(s\), 69 table\(s\), 0 error\(s\), 0 warning\(s\)/);
+    expect(lines(r)).toMatch(/3 photon and 3 electron beam\(s\), 72 table\(s\), 0 error\(s\), 0 warning\(s\)/);
     expect(r.exitCode).toBe(0);
   });
 

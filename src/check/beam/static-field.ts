@@ -1,8 +1,9 @@
-import { MM_PER_CM, note, type Note, type PhotonBeamModel, type PhotonPointInput } from '../../model/index.js';
+import { note, type Note, type PhotonBeamModel, type PhotonPointInput } from '../../model/index.js';
 import { CLARKSON_SECTORS, type FieldInput, fieldInput } from '../field-input.js';
 import type { BeamCheckContext } from './context.js';
-import { heelDirection, type Modifiers } from './modifiers.js';
+import type { Modifiers } from './modifiers.js';
 import type { StaticGeometry } from './static-geometry.js';
+import type { WedgePosition } from './wedge-position.js';
 
 /** The physics' input for a static photon beam at its point, and the approximations it makes. */
 export interface StaticField {
@@ -18,8 +19,8 @@ export interface StaticField {
  * rings around the point, radii scaled to its depth; the wedge's profile position, the swept
  * wedge's field length and the tray join the input.
  */
-export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: StaticGeometry, m: Modifiers): StaticField {
-  const { beam, machine, policy } = ctx;
+export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: StaticGeometry, m: Modifiers, w: WedgePosition): StaticField {
+  const { beam } = ctx;
   const cp0 = beam.controlPoints[0]!;
   const [px, py] = g.at.atIsocenterPlaneMm;
   const depthScale = g.at.sourceToPointAxialMm / g.sadMm;
@@ -40,10 +41,8 @@ export function staticField(ctx: BeamCheckContext, data: PhotonBeamModel, g: Sta
     );
   }
   if (g.aperture.leaves && !leavesOutside(g)) approximations.push(leafEndNote(data));
-  const heel = m.physical?.data.profile ? heelDirection(machine, m.physical.wedge.orientationDeg) : undefined;
-  const towardHeelCm = heel ? (px * heel[0] + py * heel[1]) / MM_PER_CM : undefined;
-  if (m.physical?.data.profile && !heel) approximations.push(note('wedge-profile-not-applied', { orientationDeg: m.physical.wedge.orientationDeg }));
-  if (m.physical && !heel && g.offAxisCm > policy.classification.offAxisCm) approximations.push(note('wedge-central-axis-factor'));
+  approximations.push(...w.approximations);
+  const towardHeelCm = w.towardHeelCm;
   let sweptWedge: PhotonPointInput['sweptWedge'];
   if (m.swept) {
     sweptWedge = { angleDeg: m.swept.angleDeg, fieldLengthCm: m.swept.axis === 'Y' ? field.collimatorFieldCm.y : field.collimatorFieldCm.x };

@@ -13,6 +13,7 @@ import { buildUpFlags, edgeFlags, interfaceFlags } from './point-fitness.js';
 import { staticField } from './static-field.js';
 import { staticGeometry } from './static-geometry.js';
 import { suggestedPoint } from './suggested-point.js';
+import { wedgePosition } from './wedge-position.js';
 
 /**
  * A static photon beam's independent dose at its point (AAPM TG-71): the beam data for its energy,
@@ -26,7 +27,9 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
   if (isStopped(modifiers)) return modifiers.stopped;
   const g = staticGeometry(ctx, modifiers, data.dosimetricLeafGapMm ?? 0);
   if (isStopped(g)) return g.stopped;
-  const f = staticField(ctx, data, g, modifiers);
+  const w = wedgePosition(ctx, data, g, modifiers);
+  if (isStopped(w)) return w.stopped;
+  const f = staticField(ctx, data, g, modifiers, w);
   const r = photonDosePerMu(data, ctx.machine.sadCm, f.input);
   if (!r.ok) return stopNotChecked(ctx, 'calculation-refused', { message: r.issues.map((i) => i.message).join('; ') }).stopped;
   const mu = ctx.entry.beamMeterset!;
