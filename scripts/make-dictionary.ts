@@ -193,6 +193,7 @@ const KEYWORDS = [
   'DoseUnits',
   'DoseType',
   'DoseSummationType',
+  'TissueHeterogeneityCorrection',
   'ReferencedRTPlanSequence',
   'ReferencedFractionGroupSequence',
   'ReferencedFractionGroupNumber',

@@ -83,10 +83,12 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
   const grids = (o.doseGrids ?? []).filter(
     (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
   );
+  const corrections = [...new Set(grids.flatMap((g) => g.tissueHeterogeneityCorrection ?? []))];
+  const planningSystemCorrected = corrections.length ? corrections.some((c) => c === 'IMAGE' || c === 'ROI_OVERRIDE') : undefined;
   let machine: PlanCheck['machine'];
   const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry) => {
-      const r = checkEntry(plan, g, entry, { ...o, ct, ctRefused: !!o.ct && !ct });
+      const r = checkEntry(plan, g, entry, { ...o, ct, ctRefused: !!o.ct && !ct, planningSystemCorrected });
       for (const i of r.issues ?? []) issues.push({ ...i, file: file.path });
       machine ??= r.machine;
       return atUserPoint(r.beam, grids);
@@ -110,6 +112,9 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
   if (checked === 0) warnings.push(note('no-beam-checked'));
   if (o.doseGrids?.length && !grids.length) warnings.push(note('dose-not-this-plan', { files: o.doseGrids.map((g) => g.file).join(', ') }));
   if (plan.approvalStatus !== 'APPROVED') warnings.push(note('approval-status', { status: plan.approvalStatus }));
+  if (!ct && checked > 0 && planningSystemCorrected)
+    warnings.push(note('planning-system-heterogeneity-corrected', { correction: corrections.join(', ') }));
+  if (!ct && checked > 0 && planningSystemCorrected === undefined) warnings.push(note('heterogeneity-unknown'));
   return {
     file: file.path,
     fileSha256: file.sha256,
@@ -142,7 +147,7 @@ function checkEntry(
   plan: Plan,
   g: FractionGroup,
   entry: ReferencedBeam,
-  o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean },
+  o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean; planningSystemCorrected: boolean | undefined },
 ): { beam: CalculatedBeam | NotCheckedBeam; issues?: readonly Issue[]; machine?: PlanCheck['machine'] } {
   const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
   const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
@@ -171,6 +176,7 @@ function checkEntry(
     suggestPoint: o.suggestPoint,
     ct: o.ct,
     heterogeneity: o.heterogeneity,
+    planningSystemCorrected: o.planningSystemCorrected,
     planningSystemDepths: planningSystemDepths(plan, g, entry, beam, point),
   });
   if (!r.ok)

@@ -186,6 +186,7 @@ export const ATTRIBUTES = {
   DoseUnits: { tag: 'x30040002', vr: 'CS', vm: '1', retired: false },
   DoseType: { tag: 'x30040004', vr: 'CS', vm: '1', retired: false },
   DoseSummationType: { tag: 'x3004000a', vr: 'CS', vm: '1', retired: false },
+  TissueHeterogeneityCorrection: { tag: 'x30040014', vr: 'CS', vm: '1-3', retired: false },
   ReferencedRTPlanSequence: { tag: 'x300c0002', vr: 'SQ', vm: '1', retired: false },
   ReferencedFractionGroupSequence: { tag: 'x300c0020', vr: 'SQ', vm: '1', retired: false },
   ReferencedFractionGroupNumber: { tag: 'x300c0022', vr: 'IS', vm: '1', retired: false },

@@ -79,6 +79,7 @@ export function readRtDose(file: string): Result<DoseGrid> {
   const plans = r.sequence('ReferencedRTPlanSequence');
   const planUid = plans[0]?.string('ReferencedSOPInstanceUID');
   const beamNumber = plans[0]?.sequence('ReferencedFractionGroupSequence')[0]?.sequence('ReferencedBeamSequence')[0]?.integer('ReferencedBeamNumber');
+  const heterogeneity = r.strings('TissueHeterogeneityCorrection');
   if (issues.some((i) => i.severity === 'error')) return { ok: false, issues };
   return {
     ok: true,
@@ -88,6 +89,7 @@ export function readRtDose(file: string): Result<DoseGrid> {
       summationType: summation,
       units: r.string('DoseUnits') ?? '',
       type: r.string('DoseType') ?? '',
+      ...(heterogeneity?.length ? { tissueHeterogeneityCorrection: heterogeneity } : {}),
       ...(planUid ? { referencedPlanUid: planUid } : {}),
       ...(beamNumber !== undefined ? { referencedBeamNumber: beamNumber } : {}),
       columns,

@@ -76,6 +76,7 @@ export const NOTE_CODES = [
   // Why a verdict is what it is.
   'no-beam-dose',
   'judged-on-share',
+  'judged-on-composite',
   'no-dose-at-point',
   'compared-with-dose-grid',
   'dose-point-unstated',
@@ -92,6 +93,8 @@ export const NOTE_CODES = [
   'beams-not-checked',
   'no-beam-checked',
   'approval-status',
+  'planning-system-heterogeneity-corrected',
+  'heterogeneity-unknown',
   'no-ct-in-frame',
   'dose-not-this-plan',
   'mu-beyond-machine',

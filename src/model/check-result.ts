@@ -184,7 +184,7 @@ export const CheckedBeam = z.object({
   verdictReasons: z.array(Note),
   /** The deviation the verdict was judged on, and on what basis. */
   judgedDeviationPercent: z.number().optional(),
-  judgedOn: z.enum(['beam dose', 'share of the point dose']).optional(),
+  judgedOn: z.enum(['beam dose', 'share of the point dose', 'composite of the modulated beams']).optional(),
 });
 export type CheckedBeam = z.infer<typeof CheckedBeam>;
 

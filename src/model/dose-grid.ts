@@ -10,6 +10,8 @@ export interface DoseGrid extends ImageGrid {
   readonly summationType: string;
   readonly units: string;
   readonly type: string;
+  /** Tissue Heterogeneity Correction (3004,0014) as the planning system states it: IMAGE, ROI_OVERRIDE, WATER. */
+  readonly tissueHeterogeneityCorrection?: readonly string[];
   readonly referencedPlanUid?: string;
   /** For a per-beam grid (summation BEAM): the beam it belongs to. */
   readonly referencedBeamNumber?: number;

@@ -1,6 +1,7 @@
 import type { CalculationPoint, CheckedBeam, Clamp, Note, NoteCode, NoteValue } from '../model/index.js';
 import { MM_PER_CM } from '../model/index.js';
 import { planningDepthsText } from './planning-depths-text.js';
+import { signed } from './table.js';
 
 type Values = Readonly<Record<string, NoteValue>>;
 const n = (v: Values, k: string): number => (typeof v[k] === 'number' ? (v[k] as number) : NaN);
@@ -163,6 +164,9 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'steep-fall-off': (v) =>
     `the point lies on the steep fall-off of the depth dose (PDD ${n(v, 'pddPercent').toFixed(0)} % < ${n(v, 'thresholdPercent')} %)`,
   'no-beam-dose': () => 'the plan gives no Beam Dose for this beam, so there is nothing to compare with',
+  'judged-on-composite': (v) =>
+    `a modulated beam is judged on the composite of the ${n(v, 'beams')} modulated beams at its point ` +
+    `(${signed(n(v, 'deviationPercent'), 2)} %); its own deviation is for information`,
   'judged-on-share': (v) => `the beam gives ${f1(v, 'sharePercent')} % of the point's dose, so it is judged on its share of the point dose`,
   'no-dose-at-point': () =>
     'no dose of the planning system is known at --point (its Beam Dose applies elsewhere; no per-beam RT Dose given): our dose is shown, not judged',
@@ -183,6 +187,12 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
     `an electron beam with applicator ${s(v, 'applicatorId')} at SSD ${f1(v, 'ssdCm')} cm (nominal ${n(v, 'nominalSsdCm')} cm)`,
   'beams-not-checked': (v) => `${n(v, 'count')} beam(s) not checked: the plan is not fully verified`,
   'no-beam-checked': () => 'no beam of this plan could be checked',
+  'planning-system-heterogeneity-corrected': (v) =>
+    `the planning system's RT Dose says its dose is heterogeneity corrected (${s(v, 'correction')}); without the CT the ` +
+    'independent doses are homogeneous, so the beams are judged with the heterogeneous levels',
+  'heterogeneity-unknown': () =>
+    "whether the planning system's dose is heterogeneity corrected is not known (no CT given, no RT Dose says): " +
+    'the category assumes a water-like patient',
   'approval-status': (v) => `the plan's approval status is ${s(v, 'status', 'not given')}`,
   'mu-beyond-machine': (v) => `${f1(v, 'mu')} MU is more than machine ${s(v, 'machine')} delivers in one beam (${n(v, 'maxMu')} MU, its beam data)`,
   'dose-not-this-plan': (v) =>

@@ -99,3 +99,24 @@ describe('judging a beam', () => {
     expect(off.verdictReasons.map((r) => r.code)).toEqual(['ct-correction', 'ct-ssd-differs']);
   });
 });
+
+describe('judging modulated beams', () => {
+  const modulated = { category: 'modulated' as const, tolerancePercent: 4, actionPercent: 5 };
+  it('judges them on their composite at the point: +6 % and −6 % on their own, 0 % together, within tolerance', () => {
+    const [a, b] = judged(beam(1, 159, 150, modulated), beam(2, 141, 150, modulated));
+    expect([a!.verdict, b!.verdict]).toEqual(['within tolerance', 'within tolerance']);
+    expect(a!.judgedOn).toBe('composite of the modulated beams');
+    expect(a!.judgedDeviationPercent).toBeCloseTo(0, 12);
+    // Each beam's own deviation stays, for information.
+    expect(a!.calculation.doseDeviationPercent).toBeCloseTo(6, 12);
+    expect(a!.verdictReasons).toContainEqual({ code: 'judged-on-composite', values: { beams: 2, deviationPercent: 0 } });
+  });
+  it('a composite beyond the action level makes every modulated beam at the point beyond it; a static beam there is judged alone', () => {
+    const [a, b, c] = judged(beam(1, 159, 150, modulated), beam(2, 156, 150, modulated), beam(3, 50, 50));
+    expect(a!.judgedDeviationPercent).toBeCloseTo(5, 12);
+    expect([a!.verdict, b!.verdict]).toEqual(['needs review', 'needs review']);
+    expect(c!.judgedOn).toBe('beam dose');
+    const [d] = judged(beam(1, 160, 150, modulated), beam(2, 160, 150, modulated));
+    expect(d!.verdict).toBe('beyond action level');
+  });
+});

@@ -65,3 +65,20 @@ describe("pydicom's rtdose.dcm with a nonsense Dose Grid Scaling", () => {
     });
   }
 });
+
+describe("pydicom's rtdose.dcm with a Tissue Heterogeneity Correction", () => {
+  it('reads the values pydicom wrote (IMAGE, ROI_OVERRIDE), and none where the file states none', () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'plumbline-rtdose-')), 'corrected.dcm');
+    runPython(
+      `import sys, pydicom; d = pydicom.dcmread(sys.argv[1]); d.TissueHeterogeneityCorrection = ['IMAGE', 'ROI_OVERRIDE']; d.save_as(sys.argv[2])`,
+      [file, out],
+    );
+    const written = runPython(`import sys, pydicom; print(list(pydicom.dcmread(sys.argv[1]).TissueHeterogeneityCorrection))`, [out]).trim();
+    expect(written).toBe("['IMAGE', 'ROI_OVERRIDE']");
+    const r = readRtDose(out);
+    expect(r.ok && r.value.tissueHeterogeneityCorrection).toEqual(['IMAGE', 'ROI_OVERRIDE']);
+    const plain = readRtDose(file);
+    const stated = runPython(`import sys, pydicom; print('TissueHeterogeneityCorrection' in pydicom.dcmread(sys.argv[1]))`, [file]).trim();
+    expect(plain.ok && plain.value.tissueHeterogeneityCorrection !== undefined).toBe(stated === 'True');
+  });
+});

@@ -23,9 +23,14 @@ export function categorize(policy: Policy, c: CategoryFacts): CaseCategory {
   return applicable.reduce((a, b) => (policy.levels[b]!.actionPercent > policy.levels[a]!.actionPercent ? b : a));
 }
 
-/** Whether the densities met on the ray leave the policy's water-like range. */
-export function isHeterogeneous(policy: Policy, densityRange: readonly [number, number] | undefined): boolean {
-  return !!densityRange && (densityRange[0] < policy.ct.waterLikeDensity[0] || densityRange[1] > policy.ct.waterLikeDensity[1]);
+/**
+ * Whether the case is heterogeneous: with the CT, the densities met on the ray leave the policy's
+ * water-like range; without it, the planning system's RT Dose says its dose is heterogeneity
+ * corrected (ours is then homogeneous, and the plan's warnings say so).
+ */
+export function isHeterogeneous(policy: Policy, densityRange: readonly [number, number] | undefined, planningSystemCorrected?: boolean): boolean {
+  if (!densityRange) return planningSystemCorrected === true;
+  return densityRange[0] < policy.ct.waterLikeDensity[0] || densityRange[1] > policy.ct.waterLikeDensity[1];
 }
 
 /** A category with the levels the policy sets for it, as a checked beam carries them. */

@@ -31,6 +31,8 @@ export interface BeamCheckContext {
   readonly ct?: PatientCt | undefined;
   /** How photon doses are corrected for heterogeneity with the CT (default: the TPR ratio). */
   readonly heterogeneity?: HeterogeneityMethod | undefined;
+  /** Whether the planning system's dose is heterogeneity corrected, as its RT Dose states (undefined: not known). */
+  readonly planningSystemCorrected?: boolean | undefined;
   /** The planning system's own depths at this point, when the plan carries them (see planning-system-depths.ts). */
   readonly planningSystemDepths?: PlanningSystemDepths | undefined;
 }

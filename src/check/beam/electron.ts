@@ -53,7 +53,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
     openFraction,
     ssdCm,
     shaped: !!ef.outline && !ef.rectangular,
-    heterogeneous: isHeterogeneous(policy, ct?.densityRange),
+    heterogeneous: isHeterogeneous(policy, ct?.densityRange, !ctx.ct && ctx.planningSystemCorrected),
   });
   const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(at, cp0.ssdMm ?? 0, traced));
   const side = ef.applicator.sideCm;

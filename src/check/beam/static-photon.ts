@@ -57,7 +57,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
     openFraction: f.field.openAreaMm2 / f.field.jawAreaMm2,
     ssdCm: g.ssdCm,
     shaped: g.aperture.leaves || g.blocks.length > 0,
-    heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange),
+    heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange, !ctx.ct && ctx.planningSystemCorrected),
   });
   const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(g.at, ctx.beam.controlPoints[0]!.ssdMm ?? 0, g.traced));
   return {
