@@ -265,6 +265,7 @@ function loadBeam(entry: PhotonBeamEntry, dir: string, tables: LoadedTable[], is
     sc,
     ...(sp ? { sp } : {}),
     ...(scp ? { scp } : {}),
+    ...((entry.sp ?? entry.scp)?.measuredAtDepthCm !== undefined ? { spMeasuredAtDepthCm: (entry.sp ?? entry.scp)!.measuredAtDepthCm! } : {}),
     ...(oar && entry.oar ? { oar: Object.assign(oar, { offAxisAt: entry.oar.offAxisAt }) } : {}),
     wedges,
     ...(swept ? { sweptWedge: swept } : {}),

@@ -50,6 +50,18 @@ export const FieldProfile = z
   .strict()
   .describe('a factor vs equivalent square field side: header row of labels, then "side, value" rows');
 
+/** Sp or Scp: a field profile measured at a stated depth (d0 when not stated). */
+export const ScatterProfile = z
+  .object({
+    ...tableBase,
+    units: z.object({ fieldSide: LengthUnit }).strict(),
+    measuredAtDepthCm: positive
+      .optional()
+      .describe('the depth the factor was measured at, cm; d0 when absent. Another depth is converted to d0 through the TPR table'),
+  })
+  .strict()
+  .describe('a scatter factor vs equivalent square field side at its measurement depth: header row of labels, then "side, value" rows');
+
 export const OarTable = z
   .object({
     ...tableBase,
@@ -115,8 +127,8 @@ export const PhotonBeamEntry = z
     pdd: z.union([PddTable, z.literal('derive-from-tpr')]),
     tpr: z.union([TprTable, z.literal('derive-from-pdd')]),
     sc: FieldProfile,
-    sp: FieldProfile.optional(),
-    scp: FieldProfile.optional().describe('total scatter factor; Sp = Scp / Sc when sp is not given'),
+    sp: ScatterProfile.optional(),
+    scp: ScatterProfile.optional().describe('total scatter factor; Sp = Scp / Sc when sp is not given'),
     oar: OarTable.optional(),
     wedges: z.array(WedgeTable).default([]),
     sweptWedge: SweptWedge.optional(),
@@ -133,7 +145,14 @@ export const PhotonBeamEntry = z
   })
   .strict()
   .refine((b) => b.pdd !== 'derive-from-tpr' || b.tpr !== 'derive-from-pdd', { message: 'PDD and TPR cannot both be derived', path: ['tpr'] })
-  .refine((b) => (b.sp === undefined) !== (b.scp === undefined), { message: 'give exactly one of sp and scp', path: ['sp'] });
+  .refine((b) => (b.sp === undefined) !== (b.scp === undefined), { message: 'give exactly one of sp and scp', path: ['sp'] })
+  .refine(
+    (b) => {
+      const at = (b.sp ?? b.scp)?.measuredAtDepthCm;
+      return at === undefined || Math.abs(at - b.calibration.d0Cm) < 1e-9 || b.tpr !== 'derive-from-pdd';
+    },
+    { message: 'Sp (or Scp) measured at a depth other than d0 is converted through the TPR table: give one', path: ['tpr'] },
+  );
 
 export const ElectronPddTable = z
   .object({

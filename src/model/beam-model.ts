@@ -100,6 +100,8 @@ export interface PhotonBeamModel {
   readonly sweptWedgeProfile?: TableLookup;
   readonly trays: readonly { readonly id: string; readonly factor: number }[];
   readonly mlcTransmission?: number;
+  /** The depth Sp (or Scp) was measured at, when not d0: converted to d0 through the TPR table. */
+  readonly spMeasuredAtDepthCm?: number;
   /**
    * The dosimetric leaf gap (mm at the isocenter plane): the rounded leaf ends let radiation through
    * as if each open leaf pair were this much wider. Absent: leaf ends not modelled, and the result says so.

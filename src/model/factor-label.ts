@@ -25,7 +25,10 @@ export function factorLabel(f: Factor): string {
     case 'ISF':
       return `inverse square (${cm(a[0]!)} / ${cm(a[1]!)})²${f.name ? ` (${f.name})` : ''}`;
     case 'OAR':
-      return `OAR(${cm(a[0]!)}, ${cm(a[1]!)}${f.name === 'isocenter-plane' ? ' at the isocenter plane' : ''})`;
+      return (
+        `OAR(${cm(a[0]!)}, ${cm(a[1]!)}${f.name === 'isocenter-plane' ? ' at the isocenter plane' : ''})` +
+        (a.length === 4 ? ` = ${a[2]!.toFixed(4)} on the primary (${(100 * a[3]!).toFixed(0)} % of Sp·TPR)` : '')
+      );
     case 'WF':
       return `WF ${f.name}(${a.map(cm).join(', ')})`;
     case 'WP':

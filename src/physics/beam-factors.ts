@@ -17,8 +17,14 @@ export function scAt(beam: PhotonBeamModel, xCm: number, yCm: number, log: Looku
 
 /** Phantom scatter factor for an equivalent square at d0; from Scp / Sc when Sp was not measured. */
 export function spAt(beam: PhotonBeamModel, sideCm: number, log: LookupLog): number {
-  if (beam.sp) return beam.sp.at(sideCm, 0, log);
-  return beam.scp!.at(sideCm, 0, log) / beam.sc.at(sideCm, 0, log);
+  const measured = beam.sp ? beam.sp.at(sideCm, 0, log) : beam.scp!.at(sideCm, 0, log) / beam.sc.at(sideCm, 0, log);
+  const dm = beam.spMeasuredAtDepthCm;
+  if (dm === undefined || Math.abs(dm - beam.calibration.d0Cm) < 1e-9 || !beam.tpr) return measured;
+  // Measured at dm: the same dose per MU at d0 reads Sp(r, dm)·TPR_dm(d0, r) = Sp(r, d0)·const, so
+  // Sp(r, d0) = Sp(r, dm)·TPR(dm, r_ref)/TPR(dm, r) with TPR normalised at d0 (the reference field's Sp stays 1).
+  const c = beam.calibration;
+  const ref = c.referenceFieldAt === 'normalization-depth' ? c.referenceFieldCm : projectFieldCm(c.referenceFieldCm, c.ssd0Cm, c.ssd0Cm + c.d0Cm);
+  return (measured * tprAt(beam, dm, ref, log)) / tprAt(beam, dm, sideCm, log);
 }
 
 /** PDD table value renormalized to 100 % at d0 (the table may be normalized at dmax). */

@@ -27,6 +27,8 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   const squareAtD0 = projectFieldCm(irradiatedAtIso, sadCm, ssd + cal.d0Cm);
   const squareAtDepth = projectFieldCm(irradiatedAtIso, sadCm, spd);
   const offAxis = input.offAxisCm ?? 0;
+  // With Clarkson integration: the primary's share of Sp·TPR (the off-axis ratio applies to it alone).
+  let primaryShare: number | undefined;
 
   const factors: Factor[] = [
     { key: 'D0', value: cal.doseCGyPerMu, args: [] },
@@ -41,6 +43,8 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   } else {
     if (input.clarksonSectors) {
       const c = clarksonSpTpr(beam, d, input.clarksonSectors, log, beam.mlcTransmission ?? 0, input.primaryWeight ?? 1);
+      const primary = (input.primaryWeight ?? 1) * c.tpr0;
+      primaryShare = primary / (primary + c.meanSpr);
       factors.push({ key: 'SpTPR', value: c.spTpr, args: [d, c.sectors, c.sp0, c.tpr0], name: beam.tpr?.kind ?? 'TPR' });
     } else {
       factors.push(
@@ -52,7 +56,14 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   }
   if (beam.oar) {
     const xAt = beam.oar.offAxisAt === 'depth' ? offAxis : projectFieldCm(offAxis, spd, sadCm);
-    factors.push({ key: 'OAR', value: beam.oar.at(d, xAt, log), args: [d, xAt], name: beam.oar.offAxisAt });
+    const oar = beam.oar.at(d, xAt, log);
+    // Clarkson integrates the scatter of the field around the point: the off-axis ratio (the beam's
+    // horns, in the primary fluence) applies to the primary only (common practice, no source).
+    factors.push(
+      primaryShare === undefined || offAxis === 0
+        ? { key: 'OAR', value: oar, args: [d, xAt], name: beam.oar.offAxisAt }
+        : { key: 'OAR', value: primaryShare * oar + (1 - primaryShare), args: [d, xAt, oar, primaryShare], name: beam.oar.offAxisAt },
+    );
   } else if (offAxis !== 0) {
     return {
       ok: false,

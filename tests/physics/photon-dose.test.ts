@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { PhotonBeamModel } from '../../src/model/index.js';
-import { muForDose, pddAt, photonDosePerMu, tprAt } from '../../src/physics/index.js';
+import { clarksonSpTpr, muForDose, pddAt, photonDosePerMu, tprAt } from '../../src/physics/index.js';
 import { DEMO_MANIFEST, beam, machine } from '../helpers/machines.js';
 
 const m = machine(DEMO_MANIFEST);
@@ -84,6 +84,42 @@ describe('TG-71 photon point dose', () => {
     expect(!w.ok && w.issues[0]!.message).toMatch(/no wedge "W90"/);
     const deep = photonDosePerMu(b6, 100, { ...base, depthCm: 40 });
     expect(!deep.ok && deep.issues[0]!.code).toBe('out-of-range');
+  });
+});
+
+describe('an off-axis point in a Clarkson field', () => {
+  it('takes the off-axis ratio on the primary only: Sp·TPR·OAR_eff = Sp(0)·[TPR(d,0)·OAR + mean SPR] (common practice, no source)', () => {
+    // 36 sectors, each 8 cm to the edge, the point 12 cm off axis at 10 cm deep.
+    const sectors = Array.from({ length: 36 }, () => 8);
+    const at = (offAxisCm: number) =>
+      dose(b6, { setup: 'SAD', collimatorFieldCm: { x: 40, y: 20 }, depthCm: 10, ssdCm: 90, offAxisCm, clarksonSectors: sectors });
+    const onAxis = at(0);
+    const off = at(12);
+    const c = clarksonSpTpr(b6, 10, sectors, []);
+    const oar = b6.oar!.at(10, 12, []);
+    expect(oar).toBeGreaterThan(1.01); // the demo beam's horns: a ratio the test can see
+    const expected = (c.sp0 * (c.tpr0 * oar + c.meanSpr)) / c.spTpr;
+    expect(off.factors.find((f) => f.key === 'OAR')!.value).toBeCloseTo(expected, 12);
+    expect(off.dosePerMuCGy / onAxis.dosePerMuCGy).toBeCloseTo(expected, 12);
+    expect(expected).toBeLessThan(oar);
+  });
+});
+
+describe('Sp measured at a depth other than d0', () => {
+  it('is converted through the TPR table: relative output at depth does not change when d0 moves from dmax to 10 cm', () => {
+    // The demo beam's Sp is measured at its d0 = dmax = 1.5 cm. The same beam calibrated at d0 = 10 cm
+    // (TPR then normalised at 10 cm) with its Sp declared as measured at 1.5 cm must give the same ratio
+    // of dose per MU between a 30 × 30 and the reference field at 10 cm deep (the physics of the beam
+    // does not depend on where it is normalised; common practice, no source).
+    const at10: PhotonBeamModel = { ...b6, calibration: { ...b6.calibration, d0Cm: 10 }, spMeasuredAtDepthCm: 1.5 };
+    const unconverted: PhotonBeamModel = { ...b6, calibration: { ...b6.calibration, d0Cm: 10 } };
+    const ratio = (b: PhotonBeamModel) => {
+      const d = (side: number) => dose(b, { setup: 'SAD', collimatorFieldCm: { x: side, y: side }, depthCm: 10, ssdCm: 90 }).dosePerMuCGy;
+      return d(30) / d(10);
+    };
+    expect(ratio(at10)).toBeCloseTo(ratio(b6), 9);
+    // Without the conversion the large field is off by more than 1 % (the error the declared depth removes).
+    expect(Math.abs(ratio(unconverted) / ratio(b6) - 1)).toBeGreaterThan(0.01);
   });
 });
 
