@@ -3,6 +3,12 @@ import type { Factor } from './point-dose.js';
 const cm = (v: number) => `${Number(v.toFixed(2))} cm`;
 
 /** A factor as a physicist writes it by hand, with its arguments and unit. */
+/** Where a photon PDD came from, said beside it (its table value may read differently). */
+const PDD_SOURCE: Readonly<Record<string, string>> = {
+  'table-at-d0': ' (the table renormalised to 100 % at d0)',
+  'from-tpr': ' (from the TPR table at this SSD, normalised at d0)',
+};
+
 export function factorLabel(f: Factor): string {
   const a = f.args;
   switch (f.key) {
@@ -15,7 +21,7 @@ export function factorLabel(f: Factor): string {
     case 'PDD':
       return f.name === 'square-root'
         ? `√(PDD(${cm(a[0]!)}, ${cm(a[1]!)})·PDD(${cm(a[0]!)}, ${cm(a[2]!)}))/100 at SSD ${cm(a[3]!)}`
-        : `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100`;
+        : `PDD(${cm(a[0]!)}, ${cm(a[1]!)}, SSD ${cm(a[2]!)})/100${PDD_SOURCE[f.name ?? ''] ?? ''}`;
     case 'Se':
       return a.length === 2 ? `Se ${f.name}(√(${cm(a[0]!)} × ${cm(a[1]!)}) by the square-root rule)` : `Se ${f.name}(${cm(a[0]!)})`;
     case 'TPR':

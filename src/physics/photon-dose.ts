@@ -37,7 +37,7 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
   if (input.setup === 'SSD') {
     factors.push(
       { key: 'Sp', value: spAt(beam, squareAtD0, log), args: [squareAtD0] },
-      { key: 'PDD', value: pddAt(beam, d, surfaceSquare, ssd, log) / 100, args: [d, surfaceSquare, ssd] },
+      { key: 'PDD', value: pddAt(beam, d, surfaceSquare, ssd, log) / 100, args: [d, surfaceSquare, ssd], ...pddSource(beam, ssd) },
       { key: 'ISF', value: inverseSquareFactor(cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm), args: [cal.ssd0Cm + cal.d0Cm, ssd + cal.d0Cm] },
     );
   } else {
@@ -86,10 +86,13 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
         ],
       };
     }
+    // Wedge factors are measured for square jaw settings: a rectangle takes the square of equal 4A/P.
+    // The collimator-exchange weighting is a head-scatter effect of Sc, not of the wedge's ratio.
+    const jawSquare = equivalentSquareCm(x, y);
     factors.push(
       w.byDepth
-        ? { key: 'WF', value: w.factor.at(d, collimatorSquare, log), args: [d, collimatorSquare], name: w.id }
-        : { key: 'WF', value: w.factor.at(collimatorSquare, 0, log), args: [collimatorSquare], name: w.id },
+        ? { key: 'WF', value: w.factor.at(d, jawSquare, log), args: [d, jawSquare], name: w.id }
+        : { key: 'WF', value: w.factor.at(jawSquare, 0, log), args: [jawSquare], name: w.id },
     );
     // Off axis along the wedge, the wedged / open ratio of the clinic's wedged profiles.
     if (w.profile && input.towardHeelCm !== undefined)
@@ -156,6 +159,13 @@ export function photonDosePerMu(beam: PhotonBeamModel, sadCm: number, input: Pho
       clamps: log,
     },
   };
+}
+
+/** Where the PDD comes from: the table itself, the table renormalised at d0, or derived from TPR (another SSD, or no table). */
+function pddSource(beam: PhotonBeamModel, ssdCm: number): { name?: string } {
+  const t = beam.pdd;
+  if (!t || Math.abs(ssdCm - t.ssdCm) >= 1e-6) return { name: 'from-tpr' };
+  return Math.abs(t.normalizationDepthCm - beam.calibration.d0Cm) < 1e-9 ? {} : { name: 'table-at-d0' };
 }
 
 /** MU that deliver `doseCGy` at the point: the dose-per-MU product inverted. */

@@ -60,6 +60,28 @@ describe('physical wedge profiles', () => {
   });
 });
 
+describe('the wedge factor of a rectangular field', () => {
+  it("is looked up at the jaw rectangle's equivalent square by 4A/P (20 × 10: 13.33 cm), the square the wedge data were measured with", () => {
+    // The collimator-exchange constant weights the jaws for Sc (head scatter) only: Sc's square differs.
+    const b = run(
+      'w-rect',
+      staticBeam(1, 'AP W30', 6, 0, 900, iso, {
+        wedge: { id: 'W30', angle: 30, factor: 0.68, orientation: 0 },
+        first: { wedgeIn: true, jawsXMm: [-100, 100], jawsYMm: [-50, 50] },
+      }),
+    );
+    const wf = factor(b, 'WF')!;
+    expect(wf.args[0]).toBeCloseTo((4 * 20 * 10) / (2 * (20 + 10)), 12);
+    expect(wf.value).toBeCloseTo(
+      dataBeam(demo, '6X')
+        .wedges.find((w) => w.id === 'W30')!
+        .factor.at(40 / 3, 0, []),
+      12,
+    );
+    expect(b.calculation!.collimatorSquareCm).not.toBeCloseTo(40 / 3, 3);
+  });
+});
+
 describe('jaw-swept (dynamic) wedges', () => {
   const table = dataBeam(demo, '6X').sweptWedge!;
   const swept = (jawsY: readonly [number, number], moving = false): BeamSpec => {

@@ -3,7 +3,7 @@
  * consistent beam data, so the demo's invented values do not enter the expectations).
  */
 import { describe, expect, it } from 'vitest';
-import type { PhotonBeamModel } from '../../src/model/index.js';
+import { factorLabel, type PhotonBeamModel } from '../../src/model/index.js';
 import { clarksonSpTpr, muForDose, pddAt, photonDosePerMu, tprAt } from '../../src/physics/index.js';
 import { DEMO_MANIFEST, beam, machine } from '../helpers/machines.js';
 
@@ -102,6 +102,17 @@ describe('an off-axis point in a Clarkson field', () => {
     expect(off.factors.find((f) => f.key === 'OAR')!.value).toBeCloseTo(expected, 12);
     expect(off.dosePerMuCGy / onAxis.dosePerMuCGy).toBeCloseTo(expected, 12);
     expect(expected).toBeLessThan(oar);
+  });
+});
+
+describe("the PDD factor's source", () => {
+  it('says when the value is the table renormalised at d0 or derived from TPR, so it may read differently from the table', () => {
+    const pdd = (b: PhotonBeamModel, ssdCm: number) =>
+      dose(b, { setup: 'SSD', collimatorFieldCm: { x: 10, y: 10 }, depthCm: 10, ssdCm }).factors.find((f) => f.key === 'PDD')!;
+    expect(pdd(b6, 100).name).toBeUndefined();
+    expect(pdd(b6, 110).name).toBe('from-tpr');
+    expect(pdd({ ...b6, calibration: { ...b6.calibration, d0Cm: 10 } }, 100).name).toBe('table-at-d0');
+    expect(factorLabel(pdd(b6, 110))).toContain('from the TPR table');
   });
 });
 
