@@ -140,6 +140,27 @@ export const Calculation = z.object({
       pointCoveredMuPercent: z.number(),
       /** Share of the MU from segments integrated by Clarkson (the rest: plain rectangles, by equivalent square). */
       clarksonMuPercent: z.number(),
+      /**
+       * Every segment's part of the sum: its mid gantry angle, MU share, depth, Sc, the fluence at the
+       * point (1 open, the leaf transmission under the leaves), Sp·TPR and (Clarkson) its scatter part,
+       * its dose per MU (with the heterogeneity correction) and its dose for the beam's MU.
+       */
+      segmentRows: z
+        .array(
+          z.object({
+            gantryDeg: z.number(),
+            muShare: z.number(),
+            depthCm: z.number(),
+            radiologicalDepthCm: z.number().optional(),
+            sc: z.number(),
+            primaryFluence: z.number(),
+            spTpr: z.number(),
+            scatterSpTpr: z.number().optional(),
+            dosePerMuCGy: z.number(),
+            doseCGy: z.number(),
+          }),
+        )
+        .optional(),
     })
     .optional(),
   /** The planning system's own depth data for the point, where the plan carries them, beside ours. */

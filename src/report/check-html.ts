@@ -5,6 +5,7 @@ import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { beamDataText } from './beam-data-text.js';
 import { planHeadline } from './plan-headline.js';
 import { planningDepthsText } from './planning-depths-text.js';
+import { segmentSection } from './segment-table.js';
 import { deviationText, fixed as n, pointMm as mm, signed } from './table.js';
 
 /** Deviation of each checked beam against its tolerance and action-level bands, as inline SVG. */
@@ -78,6 +79,7 @@ ${c.ct.homogeneousDoseCGy.toFixed(1)} cGy).</p>`
 <table class="calc">${lines}${
     c.ct ? `<tr><td>heterogeneity correction CF</td><td ` + `class="num">${c.ct.correctionFactor.toFixed(4)}</td></tr>` : ''
   }<tr class="total"><td>dose per MU (cGy/MU)</td><td class="num">${c.dosePerMuCGy.toFixed(4)}</td></tr></table>
+${segmentSection(c)}
 <p>Dose for ${n(b.plannedMu, 1)} MU = ${n(b.plannedMu, 1)} × ${c.dosePerMuCGy.toFixed(4)} = <b>${c.independentDoseCGy.toFixed(1)} cGy</b>
 (planning system ${n(b.planningSystemDoseCGy, 1)} cGy, ${signed(c.doseDeviationPercent)} %).
 MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).

@@ -66,7 +66,7 @@ export function checkModulatedPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
         dosePerMuCGy: w.dosePerMuCGy,
         ...compareDose(mu, w.dosePerMuCGy, identity.planningSystemDoseCGy),
         clamps: clampRows(doses.flatMap((d) => d.lookups)),
-        modulated: modulatedSummary(ctx, segments.length, w, ranges),
+        modulated: { ...modulatedSummary(ctx, segments.length, w, ranges), segmentRows: segmentRows(doses, ctx.entry.beamMeterset!) },
       },
       ...levelsOf(policy, category),
       fitness: {
@@ -161,6 +161,22 @@ function modulatedSummary(
 }
 
 type Weighted = ReturnType<typeof weighted>;
+
+/** Every segment's part of the sum, so the hand calculation of a modulated beam can be audited row by row. */
+function segmentRows(doses: readonly SegmentDose[], mu: number): NonNullable<Calculation['modulated']>['segmentRows'] {
+  return doses.map((d) => ({
+    gantryDeg: d.gantryDeg,
+    muShare: d.share,
+    depthCm: d.depthCm,
+    ...(d.radiologicalDepthCm !== undefined ? { radiologicalDepthCm: d.radiologicalDepthCm } : {}),
+    sc: d.sc,
+    primaryFluence: d.primaryFluence,
+    spTpr: d.spTpr,
+    ...(d.scatterSpTpr !== undefined ? { scatterSpTpr: d.scatterSpTpr } : {}),
+    dosePerMuCGy: d.dosePerMuCGy * d.correction,
+    doseCGy: mu * d.share * d.dosePerMuCGy * d.correction,
+  }));
+}
 
 /** MU-weighted sums over the segments: each term share × value, added in segment order (one pass, no closure per term). */
 function weighted(doses: readonly SegmentDose[]) {

@@ -1,5 +1,5 @@
 import { apertureAt, beamFrame, type CtDepth, ctDepth, fieldEdgeDistanceMm, flatDepth, projectOnAxis } from '../../geometry/index.js';
-import { type LookupNote, MM_PER_CM, type PhotonBeamModel } from '../../model/index.js';
+import { type Factor, type LookupNote, MM_PER_CM, type PhotonBeamModel } from '../../model/index.js';
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
 import { fieldInput } from '../field-input.js';
 import { heterogeneityCorrection } from '../heterogeneity-correction.js';
@@ -33,6 +33,12 @@ export interface SegmentDose {
   /** The CT's SSD along the central axis minus the plan's, where the plan states one. */
   readonly ssdDifferenceMm?: number;
   readonly lookups: readonly LookupNote[];
+  /** For the audit of the sum: the segment's mid gantry angle, its Sc, the fluence at the point, Sp·TPR and its scatter part (Clarkson). */
+  readonly gantryDeg: number;
+  readonly sc: number;
+  readonly primaryFluence: number;
+  readonly spTpr: number;
+  readonly scatterSpTpr?: number;
 }
 
 /**
@@ -106,5 +112,18 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
     ...(traced ? { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, densityRange: traced.densityRange } : {}),
     ...(ssdDifferenceMm !== undefined ? { ssdDifferenceMm } : {}),
     lookups,
+    gantryDeg: s.mid.gantryAngleDeg,
+    ...segmentFactors(r.value.factors, field.primaryWeight),
   };
+}
+
+/** Sc, Sp·TPR and, with Clarkson, its scatter part Sp(0)·mean SPR, from a segment's factors. */
+function segmentFactors(factors: readonly Factor[], primaryFluence: number): Pick<SegmentDose, 'sc' | 'primaryFluence' | 'spTpr' | 'scatterSpTpr'> {
+  const value = (key: string) => factors.find((f) => f.key === key)?.value;
+  const clarkson = factors.find((f) => f.key === 'SpTPR');
+  const sc = value('Sc') ?? Number.NaN;
+  if (!clarkson) return { sc, primaryFluence, spTpr: (value('Sp') ?? Number.NaN) * (value('TPR') ?? Number.NaN) };
+  // Clarkson's factor carries Sp(0) and TPR(d, 0): the primary part is Sp(0)·fluence·TPR(d, 0).
+  const [, , sp0, tpr0] = clarkson.args as number[];
+  return { sc, primaryFluence, spTpr: clarkson.value, scatterSpTpr: clarkson.value - sp0! * primaryFluence * tpr0! };
 }

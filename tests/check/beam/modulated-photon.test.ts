@@ -176,6 +176,25 @@ describe('modulated beams (modified Clarkson integration)', () => {
   });
 });
 
+describe('the audit of a modulated sum', () => {
+  it("gives every segment's row, and the rows add up to the beam: MU shares to 1, doses to its independent dose", () => {
+    const r = check(importOrThrow(demoPlan('two-arc-vmat.dcm')), demo, { aliases: { NG_LINAC1: demo.name } });
+    for (const b of beams(r)) {
+      if (b.status !== 'checked') throw new Error('not checked');
+      const rows = b.calculation.modulated!.segmentRows!;
+      expect(rows).toHaveLength(177);
+      expect(rows.reduce((s, x) => s + x.muShare, 0)).toBeCloseTo(1, 12);
+      expect(rows.reduce((s, x) => s + x.doseCGy, 0) / b.calculation.independentDoseCGy).toBeCloseTo(1, 12);
+      // Each row: the dose per MU for its MU; the primary at an open point is Sp(0)·TPR(d, 0), the rest is scatter.
+      for (const x of rows) {
+        expect(x.doseCGy).toBeCloseTo(b.plannedMu! * x.muShare * x.dosePerMuCGy, 9);
+        if (x.scatterSpTpr !== undefined) expect(x.scatterSpTpr).toBeLessThan(x.spTpr);
+      }
+      expect(new Set(rows.map((x) => x.gantryDeg)).size).toBeGreaterThan(100);
+    }
+  });
+});
+
 describe('closed leaves in an arc', () => {
   const arc = importOrThrow(demoPlan('two-arc-vmat.dcm'));
   const closeLeaves = (every: (index: number) => boolean) => ({
