@@ -306,7 +306,7 @@ const beams = ENERGIES.map((e) => {
     },
     tpr: { file: `${dir}/tmr.csv`, kind: 'TMR', normalizationDepthCm: e.dmax, units: { depth: 'cm', fieldSide: 'cm' }, interpolation: 'bilinear' },
     sc: { file: `${dir}/sc.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
-    sp: { file: `${dir}/sp.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear' },
+    sp: { file: `${dir}/sp.csv`, units: { fieldSide: 'cm' }, interpolation: 'bilinear', measuredAtDepthCm: e.dmax },
     oar: { file: `${dir}/oar.csv`, offAxisAt: 'depth', units: { depth: 'cm', offAxis: 'cm' }, interpolation: 'bilinear' },
     wedges,
     sweptWedge: {
