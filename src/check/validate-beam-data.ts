@@ -1,7 +1,7 @@
 import { comparePublishedPdd, type LoadedMachine, PUBLISHED_TOLERANCE_PERCENT, validateTables } from '../beamdata/index.js';
 import type { Issue } from '../model/index.js';
 import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
-import { compareElectronEnergy, ELECTRON_ENERGY_TOLERANCE_PERCENT } from './electron-energy.js';
+import { compareElectronEnergy, ELECTRON_ENERGY_TOLERANCE_PERCENT, PRACTICAL_RANGE_TOLERANCE_PERCENT } from './electron-energy.js';
 
 /** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
 const PDD_TPR_TOLERANCE_PERCENT = 1;
@@ -106,6 +106,18 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
           `${e.differencePercent.toFixed(0)} % from the nominal ${beam.nominalEnergyMeV} MeV: a table of another energy, or depths in another unit?`,
         expected: `within ±${ELECTRON_ENERGY_TOLERANCE_PERCENT} % of ${beam.nominalEnergyMeV} MeV`,
         found: `${e.e0MeV!.toFixed(1)} MeV`,
+      });
+    if (e.rpDifferencePercent !== undefined && Math.abs(e.rpDifferencePercent) > PRACTICAL_RANGE_TOLERANCE_PERCENT)
+      issues.push({
+        severity: 'warning',
+        code: 'physical-range',
+        file: lm.manifestFile,
+        path: `electronBeams[${bi}].pdd`,
+        message:
+          `beam ${beam.id}: its PDD gives a practical range of ${e.rpCm!.toFixed(2)} cm, ${e.rpDifferencePercent.toFixed(0)} % from ` +
+          `E/2 = ${(beam.nominalEnergyMeV / 2).toFixed(1)} cm for ${beam.nominalEnergyMeV} MeV: a table of another energy, or depths in another unit?`,
+        expected: `within ±${PRACTICAL_RANGE_TOLERANCE_PERCENT} % of ${(beam.nominalEnergyMeV / 2).toFixed(1)} cm`,
+        found: `${e.rpCm!.toFixed(2)} cm`,
       });
   }
   return issues;
