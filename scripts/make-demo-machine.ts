@@ -426,6 +426,7 @@ const manifest = {
     wedgeHeel: { atOrientation0: '-Y', atOrientation90: '+X' },
     // An invented machine's invented limits, of the usual size for a linac (common practice, no source).
     limits: { maxFieldSideCm: 40, maxJawPositionCm: 20, maxLeafPositionCm: 20, maxMuPerBeam: 999 },
+    clinicalRange: { fieldSideCm: [3, 40], depthCm: [3, 30] },
     description:
       'INVENTED demo machine of the Nowhere General demo scenario; tables generated from a simple physical model by scripts/make-demo-machine.ts. Never use for a patient.',
   },

@@ -238,6 +238,16 @@ export const Manifest = z
             "where a wedge's heel (thick end) points in the BEAM LIMITING DEVICE frame at the plan's Wedge Orientation 0 and 90 degrees, " +
               'as the clinic verified with its planning system; needed by wedge profiles',
           ),
+        clinicalRange: z
+          .object({
+            fieldSideCm: z.tuple([positive, positive]).describe('the smallest and largest square field side the clinic treats with, cm'),
+            depthCm: z.tuple([z.number().finite().min(0), positive]).describe('the shallowest and deepest photon point depth the clinic checks, cm'),
+          })
+          .strict()
+          .optional()
+          .describe(
+            "the field sides and depths the clinic treats: beams validate warns where a photon table's first and last rows and columns do not cover them",
+          ),
         limits: MachineLimits.optional().describe(
           'what the machine can deliver (from its specification, as the clinic accepted it): a plan beyond them is refused as an input error',
         ),

@@ -1,6 +1,7 @@
 import { comparePublishedPdd, type LoadedMachine, PUBLISHED_TOLERANCE_PERCENT, validateTables } from '../beamdata/index.js';
 import type { Issue } from '../model/index.js';
 import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
+import { coverageIssues, effectiveSsdIssues } from './validate-coverage.js';
 import { compareElectronEnergy, ELECTRON_ENERGY_TOLERANCE_PERCENT, PRACTICAL_RANGE_TOLERANCE_PERCENT } from './electron-energy.js';
 
 /** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
@@ -19,7 +20,7 @@ const REFERENCE_TOLERANCE = 0.005;
  * physics (Sc = Sp = 1 for the reference field as calibrated; PDD and TPR agreeing after conversion).
  */
 export function validateBeamData(lm: LoadedMachine): Issue[] {
-  const issues: Issue[] = [...validateTables(lm)];
+  const issues: Issue[] = [...validateTables(lm), ...coverageIssues(lm), ...effectiveSsdIssues(lm)];
   const heel = lm.machine.wedgeHeel;
   if (heel && QUARTER_TURN[heel.atOrientation0] !== heel.atOrientation90)
     issues.push({

@@ -1,4 +1,4 @@
-import type { LookupLog, PhotonBeamModel } from '../model/index.js';
+import type { LookupLog, PhotonBeamModel, TableLookup } from '../model/index.js';
 import { scAt, spAt, tprAt } from './beam-factors.js';
 import { projectFieldCm } from './inverse-square.js';
 
@@ -34,8 +34,8 @@ export function pddTprAgreement(beam: PhotonBeamModel): { differences: PddTprDif
   if (!beam.pdd || !beam.tpr) return undefined;
   const withoutPdd: PhotonBeamModel = { ...beam };
   delete (withoutPdd as { pdd?: unknown }).pdd;
-  const withoutTpr: PhotonBeamModel = { ...beam };
-  delete (withoutTpr as { tpr?: unknown }).tpr;
+  const withoutTpr: PhotonBeamModel = { ...beam, sp: spAtD0(beam) };
+  for (const k of ['tpr', 'scp', 'spMeasuredAtDepthCm'] as const) delete (withoutTpr as Partial<PhotonBeamModel>)[k];
   const f = beam.pdd.ssdCm;
   const differences: PddTprDifference[] = [];
   let skipped = 0;
@@ -58,4 +58,15 @@ export function pddTprAgreement(beam: PhotonBeamModel): { differences: PddTprDif
     }
   }
   return { differences, skipped };
+}
+
+/** Sp at d0 as a table of its own (converted from its measurement depth through the full beam's TPR), for a beam stripped of its TPR. */
+function spAtD0(beam: PhotonBeamModel): TableLookup {
+  const rows = (beam.sp ?? beam.scp)!.rows;
+  return {
+    name: `${beam.id} Sp at d0`,
+    rows,
+    at: (side, _column, log) => spAt(beam, side, log),
+    atRow: (side, log) => () => spAt(beam, side, log),
+  };
 }

@@ -157,6 +157,7 @@ export function beamDataTemplate(r: TemplateRequest): TemplateFile[] {
       aliases: [],
       sadCm: 100,
       limits: { maxFieldSideCm: null, maxJawPositionCm: null, maxLeafPositionCm: null, maxMuPerBeam: null },
+      clinicalRange: { fieldSideCm: [null, null], depthCm: [null, null] },
     },
     beams: photons.map((p) => p.entry),
     electronBeams: electrons.map((e) => e.entry),
@@ -176,10 +177,11 @@ Written by \`plumbline beams new\`. Nothing here is data yet: every \`null\` in 
 every empty cell of the CSV tables is the clinic's own commissioned, validated value to enter.
 
 1. \`manifest.json\`: \`dataVersion\` (your name for this data set), \`approval\` (who approved the data for
-   clinical use, and when), the machine's \`limits\`, and per beam its calibration (SSD0, d0, the dose
-   per MU at d0 for the reference field, dmax), the SSD and normalization depth of each PDD, the TMR
-   normalization depth, the MLC transmission and the collimator exchange factor (delete the keys a beam
-   does not use; add wedges and trays as docs/beam-data.md shows).
+   clinical use, and when), the machine's \`limits\` and \`clinicalRange\` (the field sides and depths you
+   treat), and per beam its calibration (SSD0, d0, the dose per MU at d0 for the reference field, dmax),
+   the SSD and normalization depth of each PDD, the TMR normalization depth, the MLC transmission, the
+   dosimetric leaf gap and the collimator exchange factor (delete the keys a beam does not use; add
+   wedges and trays as docs/beam-data.md shows).
 2. One folder per beam: \`pdd.csv\` and \`tmr.csv\` (depth down the rows, field side across), \`sc.csv\` and
    \`sp.csv\` (one factor per field side), \`oar.csv\` (depth down, distance off axis across); per electron
    energy \`pdd.csv\` by cutout, and per applicator its output factor (\`se-*.csv\`) and effective SSD

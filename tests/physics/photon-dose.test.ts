@@ -123,7 +123,8 @@ describe('Sp measured at a depth other than d0', () => {
     // of dose per MU between a 30 × 30 and the reference field at 10 cm deep (the physics of the beam
     // does not depend on where it is normalised; common practice, no source).
     const at10: PhotonBeamModel = { ...b6, calibration: { ...b6.calibration, d0Cm: 10 }, spMeasuredAtDepthCm: 1.5 };
-    const unconverted: PhotonBeamModel = { ...b6, calibration: { ...b6.calibration, d0Cm: 10 } };
+    const { spMeasuredAtDepthCm: _, ...undeclared } = b6;
+    const unconverted: PhotonBeamModel = { ...undeclared, calibration: { ...b6.calibration, d0Cm: 10 } };
     const ratio = (b: PhotonBeamModel) => {
       const d = (side: number) => dose(b, { setup: 'SAD', collimatorFieldCm: { x: side, y: side }, depthCm: 10, ssdCm: 90 }).dosePerMuCGy;
       return d(30) / d(10);

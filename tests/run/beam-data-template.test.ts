@@ -61,6 +61,7 @@ describe('a new machine from beams new', () => {
     const e6 = d.electronBeams.find((b) => b.id === '6E')!;
     Object.assign(m, { dataVersion: 'test-1', approval: { approvedOn: '2026-12-03', approvedBy: 'test' } });
     m.machine.limits = d.machine.limits;
+    m.machine.clinicalRange = d.machine.clinicalRange;
     Object.assign(m.beams[0], {
       calibration: x6.calibration,
       mlcTransmission: x6.mlcTransmission,
