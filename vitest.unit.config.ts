@@ -18,6 +18,8 @@ export default defineConfig({
       'tests/dicom/dictionary.test.ts',
       'tests/geometry/ct-depth.test.ts',
     ],
+    // Beam-data validation is never served from a cache in tests (tests/run/validation-cache.test.ts tests the cache itself).
+    env: { PLUMBLINE_CACHE_DIR: 'off' },
     testTimeout: 60_000,
   },
 });

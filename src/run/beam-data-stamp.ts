@@ -32,15 +32,26 @@ function validationWarningsOf(m: LoadedMachine): number {
   return n;
 }
 
-/** The stamp of loaded beam data; its SHA-256 is taken over the manifest and every table it names, in a fixed order, once per load. */
-export function beamDataStamp(m: LoadedMachine): BeamDataStamp {
-  const known = stamps.get(m);
+const hashes = new WeakMap<LoadedMachine, string>();
+
+/** The SHA-256 of loaded beam data: over the manifest and every table it names, in a fixed order, once per load. */
+export function beamDataSha256(m: LoadedMachine): string {
+  const known = hashes.get(m);
   if (known) return known;
   const h = createHash('sha256').update(readFileSync(m.manifestFile));
   for (const f of [...new Set(m.tables.map((t) => t.csv.file))].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(readFileSync(f));
+  const sha = h.digest('hex');
+  hashes.set(m, sha);
+  return sha;
+}
+
+/** The stamp of loaded beam data (see beamDataSha256). */
+export function beamDataStamp(m: LoadedMachine): BeamDataStamp {
+  const known = stamps.get(m);
+  if (known) return known;
   const stamp = {
     manifest: m.manifestFile,
-    sha256: h.digest('hex'),
+    sha256: beamDataSha256(m),
     machine: m.machine.name,
     dataVersion: m.machine.version,
     invented: m.machine.invented,

@@ -1,7 +1,8 @@
 import { type LoadedMachine, loadMachine } from '../beamdata/index.js';
 import { validateBeamData } from '../check/index.js';
 import type { Issue, Result } from '../model/index.js';
-import { markValidated } from './beam-data-stamp.js';
+import { beamDataSha256, markValidated } from './beam-data-stamp.js';
+import { rememberedPass, rememberPass, validationCacheDir, validationKey } from './validation-cache.js';
 import { resolveBeamDataPath } from './demo-files.js';
 
 /** How many of the validation's errors a refusal lists before pointing to `beams validate`. */
@@ -12,13 +13,18 @@ const FIRST_ERRORS = 5;
  * uses them: data with any validation error are refused (a transcription error in them would bias
  * every plan of the machine alike); warnings travel with the data into every result.
  */
-export function loadBeamData(arg: string): Result<LoadedMachine> {
+export function loadBeamData(arg: string, cacheDir: string | undefined = validationCacheDir()): Result<LoadedMachine> {
   const loaded = loadMachine(resolveBeamDataPath(arg));
   if (!loaded.ok) return loaded;
-  const found = [...(loaded.warnings ?? []), ...validateBeamData(loaded.value)];
+  // Validated once per version of the data: a pass is remembered by the SHA-256 of every byte.
+  const key = validationKey(loaded.value.manifestFile, beamDataSha256(loaded.value));
+  const remembered = rememberedPass(cacheDir, key);
+  const validation = remembered ?? validateBeamData(loaded.value);
+  const found = [...(loaded.warnings ?? []), ...validation];
   const errors = found.filter((i) => i.severity === 'error');
   const warnings = found.filter((i) => i.severity !== 'error');
   if (errors.length) return { ok: false, issues: refusal(arg, loaded.value.manifestFile, errors) };
+  if (!remembered) rememberPass(cacheDir, key, validation);
   markValidated(loaded.value, warnings.length);
   return { ok: true, value: loaded.value, ...(warnings.length ? { warnings } : {}) };
 }
