@@ -12,8 +12,9 @@ const numbers = (what: string) =>
     .transform((s) => s.split(',').map(Number));
 
 export const ImportScansOptions = z.object({
-  quantity: z.enum(['pdd', 'tmr'], { message: "--quantity must be 'pdd' or 'tmr'" }),
-  depths: numbers('--depths'),
+  quantity: z.enum(['pdd', 'tmr', 'oar'], { message: "--quantity must be 'pdd', 'tmr' or 'oar'" }),
+  depths: numbers('--depths').optional(),
+  positions: numbers('--positions').optional(),
   normalize: z
     .union([
       z.literal('max'),
@@ -31,17 +32,28 @@ export const ImportScansOptions = z.object({
   out: z.string().min(1),
 });
 
-/** `plumbline beams import-scans FIELD=FILE…`: a PDD or TMR table from generic two-column scans. */
+/** `plumbline beams import-scans FIELD=FILE…` (DEPTH=FILE… for profiles): a PDD, TMR or OAR table from generic two-column scans. */
 export function runImportScans(pairs: readonly string[], raw: Record<string, unknown>): CommandOutcome {
   const p = ImportScansOptions.safeParse(raw);
   if (!p.success) return refuseOptions(p.error.issues.map((i) => i.message));
-  const scans = pairs.map((s) => /^(\d+(?:\.\d+)?)=(.+)$/.exec(s));
-  if (scans.some((m) => !m)) return refuseOptions(['each scan is FIELD=FILE, the field side in cm: 10=pdd-10x10.txt']);
   const o = p.data;
+  const profile = o.quantity === 'oar';
+  const grid = profile ? o.positions : o.depths;
+  if (!grid)
+    return refuseOptions([
+      profile ? "--positions (the table's off-axis distances, cm) is needed for profiles" : "--depths (the table's depths, cm) is needed",
+    ]);
+  const scans = pairs.map((s) => /^(\d+(?:\.\d+)?)=(.+)$/.exec(s));
+  if (scans.some((m) => !m))
+    return refuseOptions([
+      profile
+        ? 'each profile is DEPTH=FILE, the depth in cm: 10=profile-10cm.txt'
+        : 'each scan is FIELD=FILE, the field side in cm: 10=pdd-10x10.txt',
+    ]);
   const r = importScans({
     quantity: o.quantity,
-    scans: scans.map((m) => ({ fieldCm: Number(m![1]), file: m![2]! })),
-    rowsCm: o.depths,
+    scans: scans.map((m) => ({ atCm: Number(m![1]), file: m![2]! })),
+    gridCm: grid,
     normalizeAt: o.normalize,
     ...(o.columns ? { columns: o.columns } : {}),
     positionUnit: o.positionUnit,

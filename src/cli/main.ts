@@ -166,10 +166,13 @@ export async function main(argv: readonly string[]): Promise<number> {
     });
   beams
     .command('import-scans')
-    .description('build a PDD or TMR table from plain two-column scans (position, reading), one file per field side')
-    .argument('<FIELD=FILE...>', 'field side in cm and its scan file, e.g. 10=pdd-10x10.txt')
-    .requiredOption('--quantity <pdd|tmr>', 'what the scans are')
-    .requiredOption('--depths <cm,...>', "the table's depths (its rows)")
+    .description(
+      'build a PDD, TMR or OAR table from plain two-column scans (position, reading): one depth scan per field side, one profile per depth',
+    )
+    .argument('<KEY=FILE...>', 'field side (PDD, TMR) or depth (OAR) in cm and its scan file, e.g. 10=pdd-10x10.txt')
+    .requiredOption('--quantity <pdd|tmr|oar>', 'what the scans are')
+    .option('--depths <cm,...>', "PDD, TMR: the table's depths (its rows)")
+    .option('--positions <cm,...>', "OAR: the table's off-axis distances (its columns)")
     .requiredOption('--out <file>', 'the CSV table to write')
     .option('--normalize <max|cm>', 'normalise each scan to its maximum (default) or to its reading at this depth')
     .option('--columns <i,j>', '1-based columns of position and reading (default 1,2)')

@@ -27,10 +27,10 @@ function writeScan(fieldCm: number): string {
 }
 
 describe('importing scans', () => {
-  const scans = FIELDS.map((fieldCm) => ({ fieldCm, file: writeScan(fieldCm) }));
+  const scans = FIELDS.map((fieldCm) => ({ atCm: fieldCm, file: writeScan(fieldCm) }));
 
   it("rebuilds the demo's 6 MV PDD within 0.1 %, naming each source file with its SHA-256", () => {
-    const r = importScans({ quantity: 'pdd', scans, rowsCm: DEPTHS, normalizeAt: 'max', positionUnit: 'mm' });
+    const r = importScans({ quantity: 'pdd', scans, gridCm: DEPTHS, normalizeAt: 'max', positionUnit: 'mm' });
     if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
     expect(r.value).toMatch(/# 10 cm: pdd-10x10\.txt, SHA-256 [0-9a-f]{64}/);
     const out = join(dir, 'pdd.csv');
@@ -47,7 +47,40 @@ describe('importing scans', () => {
   });
 
   it('refuses a depth beyond a scan, naming the file', () => {
-    const r = importScans({ quantity: 'pdd', scans, rowsCm: [...DEPTHS, 35], normalizeAt: 'max', positionUnit: 'mm' });
+    const r = importScans({ quantity: 'pdd', scans, gridCm: [...DEPTHS, 35], normalizeAt: 'max', positionUnit: 'mm' });
     expect(!r.ok && r.issues[0]).toMatchObject({ file: scans[0]!.file, message: expect.stringMatching(/does not reach 35 cm/) });
+  });
+});
+
+describe('importing profiles', () => {
+  const PROFILE_DEPTHS = [1.5, 5, 10, 20];
+  const POSITIONS = [0, 1, 2, 3, 4, 5, 6, 8, 10, 12, 14, 16, 18, 20];
+  /** A profile across the beam, both sides, every 1 mm; one side reading 1 % high and the other 1 % low (a tilted tank). */
+  function writeProfile(depthCm: number): string {
+    const log: LookupLog = [];
+    const lines = ['Position [mm]\tCharge [nC]'];
+    for (let mm = -200; mm <= 200; mm++) {
+      const tilt = mm > 0 ? 1.01 : mm < 0 ? 0.99 : 1;
+      lines.push(`${mm}\t${(0.0311 * tilt * x6.oar!.at(depthCm, Math.abs(mm) / 10, log)).toFixed(7)}`);
+    }
+    const file = join(dir, `profile-${depthCm}cm.txt`);
+    writeFileSync(file, `${lines.join('\n')}\n`);
+    return file;
+  }
+  it("rebuilds the demo's 6 MV OAR within 0.1 % from both halves of each profile, normalised on the axis", () => {
+    const scans = PROFILE_DEPTHS.map((d) => ({ atCm: d, file: writeProfile(d) }));
+    const r = importScans({ quantity: 'oar', scans, gridCm: POSITIONS, normalizeAt: 'max', positionUnit: 'mm' });
+    if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+    expect(r.value).toMatch(/^depth_cm\\offaxis_cm,0,1,2,/m);
+    const t = parseCsvTable(r.value, 'oar.csv', 'grid');
+    if (!t.ok) throw new Error('unreadable table');
+    const log: LookupLog = [];
+    expect([...t.value.rows]).toEqual(PROFILE_DEPTHS);
+    t.value.rows.forEach((d, i) =>
+      POSITIONS.forEach((x, j) => {
+        const want = x6.oar!.at(d, x, log);
+        expect(Math.abs(t.value.values[i * POSITIONS.length + j]! - want) / want).toBeLessThan(0.001);
+      }),
+    );
   });
 });
