@@ -243,8 +243,20 @@ try {
     );
     const beams = result.fractionGroups.flatMap((g) => g.beams);
     // Second pass: MU such that the beam dose is the planning system's, which differs by tpsDifference.
+    // A planning system that computed on the CT states each beam's depth, equivalent depth and SSD along the ray.
     const spec: PlanSpec = {
       ...demo.spec,
+      beams: demo.spec.beams.map((b) => {
+        const found = beams.find((x) => x.beamNumber === b.number);
+        const ct = found?.status === 'checked' ? found.calculation.ct : undefined;
+        if (!ct?.alongRay) return b;
+        const depthData = {
+          depthMm: round(ct.alongRay.geometricDepthMm, 1),
+          equivalentDepthMm: round(ct.alongRay.radiologicalDepthMm, 1),
+          ssdMm: round(ct.ssdAlongRayMm, 1),
+        };
+        return { ...b, depthData };
+      }),
       fractionGroups: demo.spec.fractionGroups.map((g) => ({
         ...g,
         beams: g.beams.map((b) => {

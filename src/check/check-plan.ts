@@ -20,11 +20,12 @@ import { checkBeam, notCheckedBeam } from './beam/index.js';
 import { choosePoint } from './choose-point.js';
 import { atUserPoint } from './dose-at-user-point.js';
 import { attachDoseGrids, withGrid } from './dose-grids.js';
+import { explainBeams } from './explain.js';
 import { judge } from './judge.js';
 import { machineLimitIssues } from './machine-limits.js';
 import { matchMachine } from './match-machine.js';
 import type { PatientCt } from './patient-ct.js';
-import { planningSystemDepths } from './planning-system-depths.js';
+import { planningSystemDepths, planStatesCorrection } from './planning-system-depths.js';
 import type { Policy } from './policy.js';
 import { courseTotals, groupTotals } from './totals.js';
 import { worst } from './verdict.js';
@@ -36,6 +37,8 @@ export interface CheckOptions {
   readonly aliases: ReadonlyMap<string, string>;
   readonly pointPatientMm?: [number, number, number];
   readonly suggestPoint: boolean;
+  /** Explain every beam's deviation (by default only beams not within tolerance). */
+  readonly explainAll?: boolean;
   readonly ct?: PatientCt;
   /** The planning system's RT Dose grids for this plan (any summation type). */
   readonly doseGrids?: readonly DoseGrid[];
@@ -84,7 +87,10 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
     (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
   );
   const corrections = [...new Set(grids.flatMap((g) => g.tissueHeterogeneityCorrection ?? []))];
-  const planningSystemCorrected = corrections.length ? corrections.some((c) => c === 'IMAGE' || c === 'ROI_OVERRIDE') : undefined;
+  const gridSays = corrections.length ? corrections.some((c) => c === 'IMAGE' || c === 'ROI_OVERRIDE') : undefined;
+  const planSays = planStatesCorrection(plan);
+  const planningSystemCorrected = gridSays === true || planSays === true ? true : (gridSays ?? planSays);
+  if (planSays) corrections.push('Equivalent Depth in the plan');
   let machine: PlanCheck['machine'];
   const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry) => {
@@ -93,7 +99,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       machine ??= r.machine;
       return atUserPoint(r.beam, grids);
     });
-    const judged = judge(beams, o.policy);
+    const judged = explainBeams(judge(beams, o.policy), o.machine, o.explainAll);
     return {
       number: g.number,
       ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}),

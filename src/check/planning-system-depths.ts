@@ -78,3 +78,20 @@ export function besideOurs(t: PlanningSystemDepths | undefined, ours: RayDepths)
     ...(t.ssdMm !== undefined ? { ssdMm: t.ssdMm, ssdDifferenceMm: ssdMm - t.ssdMm } : {}),
   };
 }
+
+/** An Equivalent Depth this far from the depth means the planning system corrected for heterogeneity. */
+const CORRECTED_MM = 1;
+
+/**
+ * What the plan's own depth data say of the planning system's heterogeneity correction: true when
+ * a beam's Equivalent Depth differs from its depth, false when all stated pairs agree, undefined
+ * when the plan states none.
+ */
+export function planStatesCorrection(plan: Plan): boolean | undefined {
+  const pairs: [number, number][] = [];
+  const add = (d?: number, e?: number) => d !== undefined && e !== undefined && pairs.push([d, e]);
+  for (const g of plan.fractionGroups) for (const r of g.beams) add(r.pointDepthMm, r.equivalentDepthMm);
+  for (const b of plan.beams) for (const v of b.doseVerification) for (const p of v.points) add(p.pointDepthMm, p.equivalentDepthMm);
+  if (!pairs.length) return undefined;
+  return pairs.some(([d, e]) => Math.abs(d - e) > CORRECTED_MM);
+}

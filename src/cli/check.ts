@@ -26,6 +26,7 @@ export const CheckOptionsSchema = z.object({
   json: z.boolean().default(false),
   html: z.string().min(1).optional(),
   suggestPoint: z.boolean().default(false),
+  explain: z.boolean().default(false),
   factors: z.boolean().default(false),
   ct: z.array(z.string().min(1)).optional(),
   dose: z.array(z.string().min(1)).optional(),

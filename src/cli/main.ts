@@ -50,6 +50,7 @@ export async function main(argv: readonly string[]): Promise<number> {
       v,
     ])
     .option('--suggest-point', 'also calculate at the suggested point when a point is unfit')
+    .option('--explain', "explain every beam's deviation (by default only beams not within tolerance)")
     .option('--heterogeneity <method>', "with --ct: 'tpr-ratio' (default, effective path length) or 'batho' (Batho's power law)")
     .option('--json', 'print one versioned JSON document')
     .option('--html <file>', 'write a self-contained HTML report')

@@ -177,6 +177,29 @@ export const Calculation = z.object({
 });
 export type Calculation = z.infer<typeof Calculation>;
 
+/**
+ * A cause of a beam's deviation: its code (worded by the report), its estimated share of the
+ * deviation in percent of dose (signed: the deviation it would make alone), how sure the estimate
+ * is, and the numbers it rests on.
+ */
+export const DeviationCause = z.object({
+  code: z.enum(['depth', 'heterogeneity', 'ssd-ct-vs-plan', 'mu-as-typed']),
+  contributionPercent: z.number(),
+  confidence: z.enum(['measured', 'estimated', 'possible']),
+  evidence: z.record(z.string(), z.union([z.number(), z.string()])),
+});
+export type DeviationCause = z.infer<typeof DeviationCause>;
+
+/** The causes, largest first, and the residual: causes and residual add up to the deviation (in the log, so products add). */
+export const Explanation = z.object({
+  deviationPercent: z.number(),
+  causes: z.array(DeviationCause),
+  residualPercent: z.number(),
+  /** The residual is larger than every cause: not explained by the causes plumbline knows. */
+  unexplained: z.boolean(),
+});
+export type Explanation = z.infer<typeof Explanation>;
+
 /** A beam the engine gave no dose, with the reason; the point when one was chosen. */
 export const NotCheckedBeam = z.object({ ...BeamIdentity, status: z.literal('not checked'), reason: Note, point: CalculationPoint.optional() });
 export type NotCheckedBeam = z.infer<typeof NotCheckedBeam>;
@@ -206,6 +229,8 @@ export const CheckedBeam = z.object({
   /** The deviation the verdict was judged on, and on what basis. */
   judgedDeviationPercent: z.number().optional(),
   judgedOn: z.enum(['beam dose', 'share of the point dose', 'composite of the modulated beams']).optional(),
+  /** For a beam not within tolerance: the likely causes of its deviation, largest first, and what is left. */
+  explanation: Explanation.optional(),
 });
 export type CheckedBeam = z.infer<typeof CheckedBeam>;
 

@@ -4,7 +4,7 @@ import { escapeHtml as esc } from './html-escape.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { beamDataText } from './beam-data-text.js';
 import { planHeadline } from './plan-headline.js';
-import { planningDepthsText } from './planning-depths-text.js';
+import { explanationHtml } from './explanation-text.js';
 import { segmentSection } from './segment-table.js';
 import { deviationText, fixed as n, pointMm as mm, signed } from './table.js';
 
@@ -85,7 +85,7 @@ ${segmentSection(c)}
 MU for the planning system's dose = ${n(c.independentMu, 1)} MU (planned ${n(b.plannedMu, 1)} MU, ${signed(c.muDeviationPercent)} %).
 Category ${esc(b.category)}: tolerance ${b.tolerancePercent} %, action level ${b.actionPercent} %. Verdict: <b>${esc(b.verdict)}</b>.</p>
 ${reasons.length ? `<ul>${reasons.map((r) => `<li>${esc(r)}</li>`).join('')}</ul>` : ''}
-${c.planningSystemDepths ? `<p class="note">Beside ours, ${esc(planningDepthsText(c.planningSystemDepths))}.</p>` : ''}
+${b.explanation ? explanationHtml(b.explanation) : ''}
 ${c.clamps.length ? `<p class="note">Clamped lookups: ${c.clamps.map((x) => esc(clampText(x))).join('; ')}</p>` : ''}</section>`;
 }
 

@@ -3,9 +3,9 @@ import { CGY_PER_GY, formatIssue } from '../model/index.js';
 import { beamTable, FACTOR_LEGEND, factorTable } from './beam-tables.js';
 import { beamDataText } from './beam-data-text.js';
 import type { CheckDocument } from './check-json.js';
+import { explanationLines } from './explanation-text.js';
 import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { needsAttention, planHeadline } from './plan-headline.js';
-import { planningDepthsText } from './planning-depths-text.js';
 import { pointMm as mm, signed, wrap } from './table.js';
 
 /** The terminal report's width: tables are built to fit it, prose is wrapped to it. */
@@ -77,7 +77,7 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
           `(${s.edgeDistanceCm.toFixed(1)} cm inside the field, ${s.offAxisCm.toFixed(1)} cm off axis)${dose}`,
       );
     }
-    if (b.calculation.planningSystemDepths) notes.push(`${who}: ${planningDepthsText(b.calculation.planningSystemDepths)}`);
+    for (const line of b.explanation ? explanationLines(b.explanation) : []) notes.push(`${who}: ${line}`);
     for (const c of b.calculation.clamps) notes.push(`${who}: ${clampText(c)}`);
     for (const c of b.suggestedPoint?.clamps ?? []) notes.push(`${who}: at the suggested point, ${clampText(c)}`);
   }

@@ -15,6 +15,8 @@ export interface CheckRequest {
   /** `PLANNAME=DATANAME` pairs. */
   readonly machineAlias: readonly string[];
   readonly suggestPoint: boolean;
+  /** Explain every beam's deviation, not only those outside tolerance. */
+  readonly explain?: boolean;
   readonly ct?: readonly string[] | undefined;
   readonly dose?: readonly string[] | undefined;
   readonly structures?: string | undefined;

@@ -16,6 +16,7 @@ export interface WorkerJob {
   readonly aliases: [string, string][];
   readonly point?: [number, number, number];
   readonly suggestPoint: boolean;
+  readonly explain?: boolean;
   readonly heterogeneity: HeterogeneityMethod;
   readonly files: CollectedFile[];
 }
@@ -37,6 +38,7 @@ job.files.forEach((f, k) => {
     aliases,
     ...(job.point ? { pointPatientMm: job.point } : {}),
     suggestPoint: job.suggestPoint,
+    ...(job.explain ? { explainAll: true } : {}),
     heterogeneity: job.heterogeneity,
     cts: [],
     singlePlan: false,

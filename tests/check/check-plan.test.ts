@@ -49,8 +49,13 @@ describe('checking the demo clinic', () => {
     const box = check(importOrThrow(clinic('pelvis-box.dcm')), demo);
     expect(beams(box).every((b) => b.calculation!.setup === 'SAD')).toBe(true);
     expect(box.fractionGroups[0]!.totals[0]!.prescriptionPerFractionCGy).toBeCloseTo(200, 10);
-    // Its planning system corrected for the bone in the PA beam; without the CT, that beam stands out.
-    expect(beams(box).map((b) => b.verdict)).toEqual(['within tolerance', 'needs review', 'within tolerance', 'within tolerance']);
+    // Its planning system corrected for the bone in the PA beam and says so (equivalent depth 131.5 mm at 120 mm): without the
+    // CT that beam stands out by +3 %, judged as a heterogeneous case; with --explain, the correction is named as the cause.
+    const pa = beams(box)[1]!;
+    expect(beams(box).map((b) => b.category)).toEqual(['on-axis-open', 'heterogeneous', 'on-axis-open', 'on-axis-open']);
+    expect(pa.calculation!.doseDeviationPercent).toBeGreaterThan(2.5);
+    const explained = beams(check(importOrThrow(clinic('pelvis-box.dcm')), demo, { explain: true }))[1]!;
+    expect(explained.status === 'checked' && explained.explanation!.causes[0]!.code).toBe('heterogeneity');
   });
 
   it('integrates the MLC-shaped field by Clarkson sectors (SAD setup) and puts it in the irregular category', () => {

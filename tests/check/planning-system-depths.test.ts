@@ -90,7 +90,7 @@ describe("the planning system's depths", () => {
     expect(t.ssdDifferenceMm).toBeCloseTo(-3, 6);
     // The terminal report says so in the beam's notes.
     expect(unwrapped(planCheckText(check(p, machine(DEMO_MANIFEST))).join('\n'))).toMatch(
-      /beam 1 AP: the planning system's own depth 98\.0 mm \(ours \+2\.0 mm\), equivalent depth 99\.0 mm, SSD 903\.0 mm \(ours -3\.0 mm\)/,
+      /beam 1 AP: the planning system's own depth data: depth 98\.0 mm \(ours \+2\.0 mm\), equivalent depth 99\.0 mm, SSD 903\.0 mm \(ours -3\.0 mm\)/,
     );
     const moved = beams(check(p, machine(DEMO_MANIFEST), { point: [30, 0, 0] }))[0]!;
     expect(moved.status).toBe('checked');

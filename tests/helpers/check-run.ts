@@ -27,7 +27,7 @@ export function importOrThrow(file: string): Plan {
 export function check(
   plan: Plan,
   machine: MachineModel,
-  options: { aliases?: Record<string, string>; point?: [number, number, number]; suggest?: boolean } = {},
+  options: { aliases?: Record<string, string>; point?: [number, number, number]; suggest?: boolean; explain?: boolean } = {},
 ): PlanCheck {
   return checkPlan(
     plan,
@@ -38,6 +38,7 @@ export function check(
       aliases: new Map(Object.entries(options.aliases ?? {})),
       ...(options.point ? { pointPatientMm: options.point } : {}),
       suggestPoint: options.suggest ?? false,
+      ...(options.explain ? { explainAll: true } : {}),
     },
   );
 }

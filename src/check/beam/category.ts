@@ -1,3 +1,4 @@
+import type { BeamCheckContext } from './context.js';
 import type { CaseCategory } from '../../model/index.js';
 import type { Policy } from '../policy.js';
 
@@ -36,4 +37,14 @@ export function isHeterogeneous(policy: Policy, densityRange: readonly [number, 
 /** A category with the levels the policy sets for it, as a checked beam carries them. */
 export function levelsOf(policy: Policy, category: CaseCategory): { category: CaseCategory; tolerancePercent: number; actionPercent: number } {
   return { category, tolerancePercent: policy.levels[category]!.tolerancePercent, actionPercent: policy.levels[category]!.actionPercent };
+}
+
+/**
+ * Whether the planning system corrected this beam's dose for heterogeneity, as far as it says: its
+ * own Beam Dose Point Equivalent Depth against its depth, else the plan's or RT Dose's word.
+ */
+export function planningSystemCorrectedBeam(ctx: BeamCheckContext): boolean | undefined {
+  const t = ctx.planningSystemDepths;
+  if (t?.depthMm !== undefined && t.equivalentDepthMm !== undefined) return Math.abs(t.equivalentDepthMm - t.depthMm) > 1;
+  return ctx.planningSystemCorrected;
 }

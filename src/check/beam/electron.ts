@@ -3,7 +3,7 @@ import { beamFrame, flatDepth, insidePolygon, polygonArea, polygonEdgeDistance, 
 import { type Calculation, type ElectronBeamModel, type ElectronPointResult, MM_PER_CM, note, type Note } from '../../model/index.js';
 import { electronDmaxCm, electronDosePerMu } from '../../physics/index.js';
 import { besideOurs } from '../planning-system-depths.js';
-import { categorize, isHeterogeneous, levelsOf } from './category.js';
+import { categorize, isHeterogeneous, levelsOf, planningSystemCorrectedBeam } from './category.js';
 import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, stopNotChecked, stopRefused } from './context.js';
 import { ctSummary, rayDepths, type Traced, traceToPoint } from './ct-trace.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
@@ -53,7 +53,7 @@ export function checkElectronBeam(ctx: BeamCheckContext): BeamOutcome {
     openFraction,
     ssdCm,
     shaped: !!ef.outline && !ef.rectangular,
-    heterogeneous: isHeterogeneous(policy, ct?.densityRange, !ctx.ct && ctx.planningSystemCorrected),
+    heterogeneous: isHeterogeneous(policy, ct?.densityRange, !ctx.ct && planningSystemCorrectedBeam(ctx)),
   });
   const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(at, cp0.ssdMm ?? 0, traced));
   const side = ef.applicator.sideCm;

@@ -4,7 +4,7 @@ import { type LookupNote, MM_PER_CM, type Note, type PhotonBeamModel } from '../
 import { photonDosePerMu, projectFieldCm } from '../../physics/index.js';
 import { bathoNotes, heterogeneityCorrection } from '../heterogeneity-correction.js';
 import { besideOurs } from '../planning-system-depths.js';
-import { categorize, isHeterogeneous, levelsOf } from './category.js';
+import { categorize, isHeterogeneous, levelsOf, planningSystemCorrectedBeam } from './category.js';
 import { beamIdentity, type BeamCheckContext, type BeamOutcome, isStopped, type Stopped, stopNotChecked, stopRefused } from './context.js';
 import { ctSummary, rayDepths } from './ct-trace.js';
 import { clampRows, compareDose, factorRows } from './dose-comparison.js';
@@ -57,7 +57,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
     openFraction: f.field.openAreaMm2 / f.field.jawAreaMm2,
     ssdCm: g.ssdCm,
     shaped: g.aperture.leaves || g.blocks.length > 0,
-    heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange, !ctx.ct && ctx.planningSystemCorrected),
+    heterogeneous: isHeterogeneous(ctx.policy, ct?.densityRange, !ctx.ct && planningSystemCorrectedBeam(ctx)),
   });
   const planningSystemDepths = besideOurs(ctx.planningSystemDepths, rayDepths(g.at, ctx.beam.controlPoints[0]!.ssdMm ?? 0, g.traced));
   return {

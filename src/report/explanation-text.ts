@@ -1,0 +1,53 @@
+import type { DeviationCause, Explanation } from '../model/index.js';
+import { escapeHtml as esc } from './html-escape.js';
+import { signed } from './table.js';
+
+type Evidence = DeviationCause['evidence'];
+const num = (e: Evidence, k: string, digits: number) => (typeof e[k] === 'number' ? (e[k] as number).toFixed(digits) : '—');
+const str = (e: Evidence, k: string) => (e[k] === undefined ? '' : String(e[k]));
+
+/** Each cause in plain words, with its evidence. */
+const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => string>> = {
+  depth: (e) =>
+    `depth: ours ${num(e, 'oursCm', 2)} cm, the planning system's ${num(e, 'planningSystemCm', 2)} cm (${signed(e.differenceCm as number, 2)} cm)`,
+  heterogeneity: (e) =>
+    `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} (equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm ` +
+    `at ${num(e, 'planningSystemDepthCm', 2)} cm), ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,
+  'ssd-ct-vs-plan': (e) =>
+    `SSD: the CT's ${num(e, 'ctSsdCm', 1)} cm against the plan's ${num(e, 'planSsdCm', 1)} cm puts the point at ${num(e, 'depthCm', 2)} cm, ` +
+    `not ${num(e, 'depthByPlanSsdCm', 2)} cm`,
+  'mu-as-typed': (e) =>
+    `MU as typed? ${num(e, 'plannedMu', 1)} MU planned; ${num(e, 'muAtTheOtherBeamsAgreement', 1)} MU would agree as the plan's other beams do ` +
+    `(${signed(e.othersMeanDeviationPercent as number, 1)} %)${e.slip ? `: ${str(e, 'slip')}` : ''}`,
+};
+
+/** One cause as a line: its words, its contribution with a sign, how sure. */
+export function causeText(c: DeviationCause): string {
+  return `${CAUSE_TEXT[c.code](c.evidence)}: ${signed(c.contributionPercent, 1)} % (${c.confidence})`;
+}
+
+/** The explanation as lines for the terminal: the causes, largest first, and what is left. */
+export function explanationLines(e: Explanation): string[] {
+  const left = `left: ${signed(e.residualPercent, 1)} %${e.unexplained ? ', not explained by the causes plumbline knows' : ''}`;
+  return [
+    `why it may differ (${signed(e.deviationPercent, 1)} %): ${e.causes.length ? '' : 'no known cause found; '}${left}`,
+    ...e.causes.map(causeText),
+  ];
+}
+
+/** The explanation in the HTML report: a list and a small bar per cause and the residual. */
+export function explanationHtml(e: Explanation): string {
+  const rows = [
+    ...e.causes.map((c) => ({ label: causeText(c), value: c.contributionPercent })),
+    { label: 'left unexplained', value: e.residualPercent },
+  ];
+  const span = Math.max(1, ...rows.map((r) => Math.abs(r.value)));
+  const bar = (v: number) => {
+    const w = (Math.abs(v) / span) * 80;
+    return `<svg width="170" height="12" role="img" aria-label="${signed(v, 1)} %"><line x1="85" y1="0" x2="85" y2="12" stroke="#000"/><rect x="${v < 0 ? 85 - w : 85}" y="2" width="${w}" height="8" fill="#555"/></svg>`;
+  };
+  return (
+    `<div class="why"><p><b>Why it may differ</b> (${signed(e.deviationPercent, 1)} %)${e.unexplained ? ': mostly not explained by the causes plumbline knows' : ''}</p>` +
+    `<table class="calc">${rows.map((r) => `<tr><td>${bar(r.value)}</td><td class="num">${signed(r.value, 1)} %</td><td>${esc(r.label)}</td></tr>`).join('')}</table></div>`
+  );
+}

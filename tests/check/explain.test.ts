@@ -1,0 +1,127 @@
+/**
+ * Explaining a deviation: plans with one cause planted each, the planted effect computed here by the
+ * formalism's own relations (AAPM TG-71: the dose at depth in an SAD setup scales as TPR(d, rd); the
+ * TPR-ratio heterogeneity correction CF = TPR(d_eff)/TPR(d)). Each planted cause must rank first
+ * with a contribution within 20 % of the planted effect; a plan with nothing planted explains nothing.
+ */
+import { describe, expect, it } from 'vitest';
+import { type BeamSpec, coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
+import { typingSlip } from '../../src/check/explain.js';
+import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
+import type { CheckedBeam, PhotonBeamModel } from '../../src/model/index.js';
+import { projectFieldCm, tprAt } from '../../src/physics/index.js';
+import { beams, planFromSpec } from '../helpers/check-run.js';
+import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
+import { phantomCt } from '../helpers/phantom-ct.js';
+
+const demo = machine(DEMO_MANIFEST);
+const x6 = dataBeam(demo, '6X') as PhotonBeamModel;
+const iso: [number, number, number] = [0, 0, 0];
+/** TPR of the 10 × 10 field (at the isocenter plane) at depth d, the point at the isocenter (SAD 100). */
+const tpr = (d: number) => tprAt(x6, d, projectFieldCm(10, 100, 100), []);
+
+type Planted = { mu?: number[]; doseGy: number[]; depthData?: BeamSpec['depthData'] };
+function run(name: string, planted: Planted, extra: { ct?: PatientCt; explainAll?: boolean; gantries?: number[]; ssdMm?: number } = {}) {
+  const gantries = extra.gantries ?? [0];
+  const { plan } = planFromSpec({
+    file: `${name}.dcm`,
+    patientId: 'WHY-1',
+    patientName: 'Why^Differ',
+    label: name,
+    name,
+    description: 'test',
+    doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
+    fractionGroups: [
+      {
+        number: 1,
+        fractions: 1,
+        prescriptionGy: 2,
+        beams: gantries.map((_, k) => ({ number: k + 1, mu: planted.mu?.[k] ?? 100, doseGy: planted.doseGy[k]!, specPoint: iso })),
+      },
+    ],
+    beams: gantries.map((g, k) =>
+      staticBeam(k + 1, `G${g}`, 6, g, extra.ssdMm ?? 900, iso, {
+        first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] },
+        ...(k === 0 && planted.depthData ? { depthData: planted.depthData } : {}),
+      }),
+    ),
+  });
+  const r = checkPlan(
+    plan,
+    { path: `${name}.dcm`, sha256: '' },
+    {
+      machine: demo,
+      policy: DEFAULT_POLICY,
+      aliases: new Map(),
+      suggestPoint: false,
+      ...(extra.ct ? { ct: extra.ct } : {}),
+      explainAll: extra.explainAll ?? false,
+    },
+  );
+  return { plan, beams: beams(r) as CheckedBeam[] };
+}
+/** Our dose (cGy) for 100 MU of a 10 × 10 AP beam at 10 cm, SAD setup: from a first run with the planning system agreeing exactly. */
+const ours = () => run('ours', { doseGy: [1] }).beams[0]!.calculation.independentDoseCGy;
+
+describe('explaining a deviation', () => {
+  it('a planning-system depth 1 cm deeper than ours: the depth ranks first, TPR(10)/TPR(11) − 1', () => {
+    const planted = tpr(10) / tpr(11) - 1;
+    const b = run('why-depth', { doseGy: [(ours() / 100) * (1 / (1 + planted))], depthData: { depthMm: 110, equivalentDepthMm: 110, ssdMm: 890 } })
+      .beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('depth');
+    expect(Math.abs(first.contributionPercent / (100 * planted) - 1)).toBeLessThan(0.2);
+  });
+  it('a heterogeneity-corrected planning-system dose (equivalent depth 8 cm at 10 cm: a lung slab) against ours without the CT', () => {
+    const planted = tpr(10) / tpr(8) - 1; // ours homogeneous over theirs corrected by TPR(8)/TPR(10)
+    const b = run(
+      'why-lung',
+      { doseGy: [(ours() / 100) * (1 / (1 + planted))], depthData: { depthMm: 100, equivalentDepthMm: 80, ssdMm: 900 } },
+      { explainAll: true },
+    ).beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('heterogeneity');
+    expect(Math.abs(first.contributionPercent / (100 * planted) - 1)).toBeLessThan(0.2);
+  });
+  it('an MU typed 1.1 times too high, the other beams agreeing: "MU as typed?" first, +10 %', () => {
+    const each = ours() / 100;
+    const { beams: bs } = run('why-mu', { mu: [110, 100, 100], doseGy: [each, each * 0.999, each * 1.001] }, { gantries: [0, 0, 0] });
+    const first = bs[0]!.explanation!.causes[0]!;
+    expect(first.code).toBe('mu-as-typed');
+    expect(Math.abs(first.contributionPercent / 10 - 1)).toBeLessThan(0.2);
+  });
+  it("the CT's SSD 1 cm shorter than the plan's: the point 1 cm deeper by the plan, TPR(10)/TPR(11) − 1", () => {
+    // A water box whose surface lies 110 mm above the isocenter (the CT's SSD 890 mm) under a plan that says 900 mm.
+    const { plan } = run('why-ssd-frame', { doseGy: [1] });
+    const ct = phantomCt(
+      {
+        name: 'why-ssd',
+        columns: 64,
+        rows: 64,
+        slices: 8,
+        spacingMm: [4, 4, 4],
+        originMm: [-126, -126, -14],
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        hu: (_x, y) => (y >= -110 ? 0 : -1000),
+      },
+      -400,
+    );
+    const withCt = run('why-ssd-ours', { doseGy: [1] }, { ct }).beams[0]!.calculation.independentDoseCGy;
+    const planted = tpr(11) / tpr(10) - 1;
+    const b = run('why-ssd', { doseGy: [(withCt / 100) * (1 / (1 + planted))] }, { ct, explainAll: true }).beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('ssd-ct-vs-plan');
+    expect(Math.abs(first.contributionPercent / (100 * planted) - 1)).toBeLessThan(0.2);
+  });
+  it('a plan with nothing planted explains nothing spurious (no cause above 0.5 %)', () => {
+    const each = ours() / 100;
+    const { beams: bs } = run('why-none', { doseGy: [each, each] }, { gantries: [0, 180], explainAll: true });
+    for (const b of bs) expect(b.explanation!.causes.every((c) => Math.abs(c.contributionPercent) <= 0.5)).toBe(true);
+  });
+  it('names typing slips: a digit too many, two digits swapped, a 1 for a 7', () => {
+    expect(typingSlip(1234, 10)).toBe('a digit too many (×10)');
+    expect(typingSlip(213, 213 / 123)).toMatch(/two digits swapped/);
+    expect(typingSlip(171, 171 / 177)).toMatch(/a 1 typed for a 7/);
+    expect(typingSlip(110, 1.1)).toBeUndefined();
+  });
+});
