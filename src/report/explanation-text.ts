@@ -51,3 +51,16 @@ export function explanationHtml(e: Explanation): string {
     `<table class="calc">${rows.map((r) => `<tr><td>${bar(r.value)}</td><td class="num">${signed(r.value, 1)} %</td><td>${esc(r.label)}</td></tr>`).join('')}</table></div>`
   );
 }
+
+/** A cause in a few words, for a list of many checks. */
+const CAUSE_SHORT: Readonly<Record<string, string>> = {
+  depth: 'depth differs',
+  heterogeneity: 'heterogeneity correction',
+  'ssd-ct-vs-plan': 'SSD: CT against plan',
+  'mu-as-typed': 'MU as typed?',
+};
+
+/** The largest cause of a check's beams, as "beam 2: MU as typed? +11.2 %" (codes a newer version wrote are shown as they are). */
+export function topCauseText(beamNumber: number | undefined, code: string, contributionPercent: number): string {
+  return `${beamNumber !== undefined ? `beam ${beamNumber}: ` : ''}${CAUSE_SHORT[code] ?? code} ${signed(contributionPercent, 1)} %`;
+}

@@ -62,6 +62,8 @@ describe('the chart-round page', () => {
     await page.click('button[type="submit"]');
     expect(await page.locator('#checks tbody tr').count()).toBe(1);
     expect(await page.locator('#checks tbody tr td a').textContent()).toBe('L BREAST TG');
+    // The likely cause of its deviation beside it: the lateral tangent's MU as typed (planted 10 % high in the demo).
+    expect(await page.locator('#checks tbody tr td.cause').textContent()).toMatch(/^beam 2: MU as typed\? \+11\.\d %$/);
     expect(await page.locator('#caution').textContent()).toMatch(/an aid to, never a replacement for/);
     await page.close();
   });

@@ -39,9 +39,15 @@ export const StoredResult = z.object({
       beams: z.array(
         z.object({
           status: z.string(),
+          beamNumber: z.number().optional(),
           radiationType: z.string(),
           nominalEnergy: z.number().optional(),
           calculation: z.object({ doseDeviationPercent: z.number().optional() }).optional(),
+          // Results recorded before explanations existed have none; one that cannot be read is left out.
+          explanation: z
+            .object({ causes: z.array(z.object({ code: z.string(), contributionPercent: z.number() })) })
+            .optional()
+            .catch(undefined),
         }),
       ),
     }),

@@ -35,7 +35,7 @@ export interface TrendPoint {
 
 /** The chart-round page: checks since a date with verdict counts, filters, and the deviation trend with its control limits. */
 export function listPage(
-  checks: readonly (CheckRecord & { reviews: number })[],
+  checks: readonly (CheckRecord & { reviews: number; topCause?: string })[],
   f: ListFilter,
   machines: readonly string[],
   trend: readonly TrendPoint[],
@@ -58,7 +58,7 @@ export function listPage(
         c,
       ) => `<tr data-check="${c.id}"><td>${esc(c.recordedAt.replace('T', ' ').slice(0, 16))}</td><td><a href="/check/${c.id}">${esc(c.planLabel)}</a></td>
 <td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td
-class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
+class="${cls(c.verdict)}">${esc(c.verdict)}</td><td class="cause">${esc(c.topCause ?? '')}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
     )
     .join('');
   return page(
@@ -66,7 +66,7 @@ class="${cls(c.verdict)}">${esc(c.verdict)}</td><td>${c.fullyVerified ? 'yes' : 
     `<p class="counts">${counts}</p>${filters}${
       ignoredFilters.length ? `<p class="note" id="ignored">Not understood, so not applied: ${esc(ignoredFilters.join(', '))}.</p>` : ''
     }
-<table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>fully
+<table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>likely cause</th><th>fully
 verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
 ${intakeTable(notChecked)}
 <h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system;

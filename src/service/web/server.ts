@@ -2,7 +2,8 @@ import http from 'node:http';
 import type net from 'node:net';
 import { z } from 'zod';
 import { PlanVerdict } from '../../model/index.js';
-import type { HistoryStore } from '../history/store.js';
+import { topCauseText } from '../../report/explanation-text.js';
+import type { HistoryStore, StoredResult } from '../history/store.js';
 import { checkPage, listPage, notFoundPage, type TrendPoint } from './pages.js';
 
 const DAY_MS = 86_400_000;
@@ -82,8 +83,11 @@ export function startWebServer(o: {
       .filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict))
       .map((c) => ({ ...c, reviews: o.history.reviews(c.id).length }));
     const trend: TrendPoint[] = [];
+    const topCauses = new Map<number, string>();
     for (const c of checks) {
       const r = o.history.result(c.id);
+      const top = topCause(r);
+      if (top) topCauses.set(c.id, top);
       for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? []) {
         if (b.status !== 'checked' || b.calculation?.doseDeviationPercent === undefined) continue;
         const unit = b.radiationType === 'ELECTRON' ? 'MeV' : 'MV';
@@ -99,7 +103,7 @@ export function startWebServer(o: {
       200,
       'text/html; charset=utf-8',
       listPage(
-        checks,
+        checks.map((c) => ({ ...c, ...(topCauses.has(c.id) ? { topCause: topCauses.get(c.id)! } : {}) })),
         { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) },
         machines,
         trend,
@@ -198,3 +202,13 @@ function allowedHosts(host: string, port: number, names: readonly string[]): Set
 
 const allowedOrigins = (host: string, port: number, names: readonly string[]): Set<string> =>
   new Set([...allowedHosts(host, port, names)].map((h) => `http://${h}`));
+
+/** The largest cause explaining a check's beams, in words, if the result explains any. */
+function topCause(r: StoredResult | undefined): string | undefined {
+  let best: { beam?: number; code: string; value: number } | undefined;
+  for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? [])
+    for (const c of b.explanation?.causes ?? [])
+      if (!best || Math.abs(c.contributionPercent) > Math.abs(best.value))
+        best = { ...(b.beamNumber !== undefined ? { beam: b.beamNumber } : {}), code: c.code, value: c.contributionPercent };
+  return best ? topCauseText(best.beam, best.code, best.value) : undefined;
+}
