@@ -99,7 +99,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       machine ??= r.machine;
       return atUserPoint(r.beam, grids);
     });
-    const judged = explainBeams(judge(beams, o.policy), o.machine, o.explainAll);
+    const judged = explainBeams(judge(beams, o.policy), o.machine, o.explainAll, grids);
     return {
       number: g.number,
       ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}),

@@ -2,12 +2,14 @@ import { findPhotonBeam } from '../beamdata/index.js';
 import {
   type BeamCheck,
   type CheckedBeam,
+  type DoseGrid,
   type DeviationCause,
   type Explanation,
   type MachineModel,
   MM_PER_CM,
   type PhotonBeamModel,
 } from '../model/index.js';
+import { doseAtPointGy } from '../geometry/index.js';
 import { projectFieldCm, tprAt } from '../physics/index.js';
 
 /** Causes smaller than this (percent of dose) are noise, not said. */
@@ -23,21 +25,25 @@ const SLIP_MATCH = 0.002;
  * the CT's SSD against the plan's); then, for what is left, an MU as typed when the plan's other
  * beams agree. For beams not within tolerance, or every beam on request.
  */
-export function explainBeams(beams: readonly BeamCheck[], machine: MachineModel, all = false): BeamCheck[] {
+export function explainBeams(beams: readonly BeamCheck[], machine: MachineModel, all = false, grids: readonly DoseGrid[] = []): BeamCheck[] {
   const checked = beams.filter((b): b is CheckedBeam => b.status === 'checked');
   return beams.map((b) => {
     if (b.status !== 'checked' || (b.verdict === 'within tolerance' && !all) || b.calculation.doseDeviationPercent === undefined) return b;
     const others = checked.filter((o) => o !== b && o.calculation.doseDeviationPercent !== undefined && o.verdict === 'within tolerance');
-    return { ...b, explanation: explainBeam(b, others, machine) };
+    const grid =
+      grids.find((g) => g.summationType === 'BEAM' && g.referencedBeamNumber === b.beamNumber) ?? grids.find((g) => g.summationType !== 'BEAM');
+    return { ...b, explanation: explainBeam(b, others, machine, grid) };
   });
 }
 
-function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], machine: MachineModel): Explanation {
+function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], machine: MachineModel, grid: DoseGrid | undefined): Explanation {
   const deviationPercent = b.calculation.doseDeviationPercent!;
   const data = b.radiationType === 'PHOTON' && !b.calculation.modulated ? photonData(b, machine) : undefined;
   const f = data ? depthDose(b, data, machine.sadCm) : undefined;
   const physical = f ? [depthCause(b, f), heterogeneityCause(b, f), ssdCause(b, f)] : [];
   const causes = physical.filter((c): c is DeviationCause => !!c && Math.abs(c.contributionPercent) >= NOISE_PERCENT);
+  const gradient = grid ? gradientCause(b, grid, residual(deviationPercent, causes)) : undefined;
+  if (gradient) causes.push(gradient);
   const left = residual(deviationPercent, causes);
   const mu = muCause(b, left, others);
   if (mu) causes.push(mu);
@@ -46,6 +52,36 @@ function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], machine: Ma
   const largest = Math.max(0, ...causes.map((c) => Math.abs(c.contributionPercent)));
   // Said only when what is left matters: beyond noise and beyond every known cause.
   return { deviationPercent, causes, residualPercent, unexplained: Math.abs(residualPercent) > Math.max(largest, 0.5) };
+}
+
+/** The shift a point's position may carry between two systems (mm; common practice, no source: a voxel, a rounding of coordinates). */
+const SHIFT_MM = 2;
+
+/**
+ * The point in a dose gradient, from the planning system's RT Dose: the largest change of its dose
+ * for a 2 mm shift along x, y or z. A possible cause, as large as that change at most, and never
+ * more than what is left to explain (with its sign).
+ */
+function gradientCause(b: CheckedBeam, grid: DoseGrid, leftPercent: number): DeviationCause | undefined {
+  const p = b.point.patientMm;
+  const here = doseAtPointGy(grid, p);
+  if (here === undefined || !(here > 0)) return undefined;
+  let change = 0;
+  for (let axis = 0; axis < 3; axis++)
+    for (const s of [-SHIFT_MM, SHIFT_MM]) {
+      const q = [p[0], p[1], p[2]] as [number, number, number];
+      q[axis] = q[axis]! + s;
+      const there = doseAtPointGy(grid, q);
+      if (there !== undefined) change = Math.max(change, Math.abs(100 * (there / here - 1)));
+    }
+  const contribution = Math.sign(leftPercent) * Math.min(change, Math.abs(leftPercent));
+  if (Math.abs(contribution) < NOISE_PERCENT) return undefined;
+  return {
+    code: 'gradient',
+    contributionPercent: contribution,
+    confidence: 'possible',
+    evidence: { percentPerMm: change / SHIFT_MM, changeFor2MmPercent: change, grid: grid.summationType },
+  };
 }
 
 /** What is left of the deviation once the causes' ratios are divided out (percent). */

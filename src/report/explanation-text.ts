@@ -16,6 +16,9 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
   'ssd-ct-vs-plan': (e) =>
     `SSD: the CT's ${num(e, 'ctSsdCm', 1)} cm against the plan's ${num(e, 'planSsdCm', 1)} cm puts the point at ${num(e, 'depthCm', 2)} cm, ` +
     `not ${num(e, 'depthByPlanSsdCm', 2)} cm`,
+  gradient: (e) =>
+    `the point in a gradient: the planning system's ${str(e, 'grid')} dose changes ${num(e, 'changeFor2MmPercent', 1)} % for a 2 mm shift ` +
+    `(${num(e, 'percentPerMm', 2)} %/mm)`,
   'mu-as-typed': (e) =>
     `MU as typed? ${num(e, 'plannedMu', 1)} MU planned; ${num(e, 'muAtTheOtherBeamsAgreement', 1)} MU would agree as the plan's other beams do ` +
     `(${signed(e.othersMeanDeviationPercent as number, 1)} %)${e.slip ? `: ${str(e, 'slip')}` : ''}`,
@@ -57,6 +60,7 @@ const CAUSE_SHORT: Readonly<Record<string, string>> = {
   depth: 'depth differs',
   heterogeneity: 'heterogeneity correction',
   'ssd-ct-vs-plan': 'SSD: CT against plan',
+  gradient: 'point in a gradient',
   'mu-as-typed': 'MU as typed?',
 };
 

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { type BeamSpec, coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
 import { typingSlip } from '../../src/check/explain.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
-import type { CheckedBeam, PhotonBeamModel } from '../../src/model/index.js';
+import type { CheckedBeam, DoseGrid, PhotonBeamModel, Plan } from '../../src/model/index.js';
 import { projectFieldCm, tprAt } from '../../src/physics/index.js';
 import { beams, planFromSpec } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
@@ -21,7 +21,11 @@ const iso: [number, number, number] = [0, 0, 0];
 const tpr = (d: number) => tprAt(x6, d, projectFieldCm(10, 100, 100), []);
 
 type Planted = { mu?: number[]; doseGy: number[]; depthData?: BeamSpec['depthData'] };
-function run(name: string, planted: Planted, extra: { ct?: PatientCt; explainAll?: boolean; gantries?: number[]; ssdMm?: number } = {}) {
+function run(
+  name: string,
+  planted: Planted,
+  extra: { ct?: PatientCt; explainAll?: boolean; gantries?: number[]; ssdMm?: number; grids?: (p: Plan) => DoseGrid[] } = {},
+) {
   const gantries = extra.gantries ?? [0];
   const { plan } = planFromSpec({
     file: `${name}.dcm`,
@@ -55,6 +59,7 @@ function run(name: string, planted: Planted, extra: { ct?: PatientCt; explainAll
       aliases: new Map(),
       suggestPoint: false,
       ...(extra.ct ? { ct: extra.ct } : {}),
+      ...(extra.grids ? { doseGrids: extra.grids(plan) } : {}),
       explainAll: extra.explainAll ?? false,
     },
   );
@@ -112,6 +117,40 @@ describe('explaining a deviation', () => {
     const first = b.explanation!.causes[0]!;
     expect(first.code).toBe('ssd-ct-vs-plan');
     expect(Math.abs(first.contributionPercent / (100 * planted) - 1)).toBeLessThan(0.2);
+  });
+  it("a point in a steep gradient of the planning system's RT Dose (2.5 %/mm along x): the gradient ranks first, as a possible cause", () => {
+    // A per-beam grid 1 Gy at the point rising 2.5 % per mm along x: a 2 mm shift changes it by 5 % (by hand).
+    const grid = (plan: Plan): DoseGrid => {
+      const xs = [-10, 10];
+      const doseGy = new Float32Array(8);
+      for (let k = 0; k < 2; k++) for (let j = 0; j < 2; j++) for (let i = 0; i < 2; i++) doseGy[(k * 2 + j) * 2 + i] = 1 + 0.025 * xs[i]!;
+      return {
+        file: 'beam-1.dcm',
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        referencedPlanUid: plan.sopInstanceUid,
+        referencedBeamNumber: 1,
+        summationType: 'BEAM',
+        units: 'GY',
+        type: 'PHYSICAL',
+        columns: 2,
+        rows: 2,
+        originMm: [-10, -10, -10],
+        rowDirection: [1, 0, 0],
+        columnDirection: [0, 1, 0],
+        normal: [0, 0, 1],
+        columnSpacingMm: 20,
+        rowSpacingMm: 20,
+        frameOffsetsMm: [0, 20],
+        doseGy,
+      };
+    };
+    const planted = 0.05; // the planning system's dose 5 % below ours, as a 2 mm shift in this gradient gives
+    const b = run('why-gradient', { doseGy: [(ours() / 100) * (1 - planted)] }, { grids: (p) => [grid(p)] }).beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('gradient');
+    expect(first.confidence).toBe('possible');
+    expect(first.evidence.percentPerMm).toBeCloseTo(2.5, 6);
+    expect(Math.abs(first.contributionPercent / (100 * (1 / (1 - planted) - 1)) - 1)).toBeLessThan(0.2);
   });
   it('a plan with nothing planted explains nothing spurious (no cause above 0.5 %)', () => {
     const each = ours() / 100;
