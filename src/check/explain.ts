@@ -44,6 +44,8 @@ function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], machine: Ma
   const causes = physical.filter((c): c is DeviationCause => !!c && Math.abs(c.contributionPercent) >= NOISE_PERCENT);
   const gradient = grid ? gradientCause(b, grid, residual(deviationPercent, causes)) : undefined;
   if (gradient) causes.push(gradient);
+  const leaves = transmissionCause(b, residual(deviationPercent, causes));
+  if (leaves) causes.push(leaves);
   const left = residual(deviationPercent, causes);
   const mu = muCause(b, left, others);
   if (mu) causes.push(mu);
@@ -81,6 +83,33 @@ function gradientCause(b: CheckedBeam, grid: DoseGrid, leftPercent: number): Dev
     contributionPercent: contribution,
     confidence: 'possible',
     evidence: { percentPerMm: change / SHIFT_MM, changeFor2MmPercent: change, grid: grid.summationType },
+  };
+}
+
+/** The leaf transmission a planning system may model differently (common practice, no source: ±20 %). */
+const TRANSMISSION_SPREAD = 0.2;
+
+/**
+ * A modulated beam whose point lies under the leaves for part of its MU: the primary it receives
+ * then comes through the leaves, so a leaf transmission 20 % different in the planning system moves
+ * that part by 20 %. A possible cause, at most what is left to explain.
+ */
+function transmissionCause(b: CheckedBeam, leftPercent: number): DeviationCause | undefined {
+  const m = b.calculation.modulated;
+  const rows = m?.segmentRows;
+  if (!rows?.length || !(m!.pointCoveredMuPercent > 0)) return undefined;
+  const total = rows.reduce((s, r) => s + r.doseCGy, 0);
+  const throughLeaves = rows
+    .filter((r) => r.primaryFluence < 1 && r.scatterSpTpr !== undefined && r.spTpr > 0)
+    .reduce((s, r) => s + r.doseCGy * (1 - r.scatterSpTpr! / r.spTpr), 0);
+  const sensitivity = (100 * TRANSMISSION_SPREAD * throughLeaves) / total;
+  const contribution = Math.sign(leftPercent) * Math.min(sensitivity, Math.abs(leftPercent));
+  if (!(Math.abs(contribution) >= NOISE_PERCENT)) return undefined;
+  return {
+    code: 'leaf-transmission',
+    contributionPercent: contribution,
+    confidence: 'possible',
+    evidence: { coveredMuPercent: m!.pointCoveredMuPercent, throughLeavesPercent: (100 * throughLeaves) / total, sensitivityPercent: sensitivity },
   };
 }
 

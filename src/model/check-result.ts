@@ -183,7 +183,7 @@ export type Calculation = z.infer<typeof Calculation>;
  * is, and the numbers it rests on.
  */
 export const DeviationCause = z.object({
-  code: z.enum(['depth', 'heterogeneity', 'ssd-ct-vs-plan', 'gradient', 'mu-as-typed']),
+  code: z.enum(['depth', 'heterogeneity', 'ssd-ct-vs-plan', 'gradient', 'leaf-transmission', 'mu-as-typed']),
   contributionPercent: z.number(),
   confidence: z.enum(['measured', 'estimated', 'possible']),
   evidence: z.record(z.string(), z.union([z.number(), z.string()])),

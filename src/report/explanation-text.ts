@@ -19,6 +19,9 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
   gradient: (e) =>
     `the point in a gradient: the planning system's ${str(e, 'grid')} dose changes ${num(e, 'changeFor2MmPercent', 1)} % for a 2 mm shift ` +
     `(${num(e, 'percentPerMm', 2)} %/mm)`,
+  'leaf-transmission': (e) =>
+    `the point under the leaves for ${num(e, 'coveredMuPercent', 0)} % of the MU: ${num(e, 'throughLeavesPercent', 1)} % of the dose comes through ` +
+    `them, so a leaf transmission 20 % different moves the dose ${num(e, 'sensitivityPercent', 1)} %`,
   'mu-as-typed': (e) =>
     `MU as typed? ${num(e, 'plannedMu', 1)} MU planned; ${num(e, 'muAtTheOtherBeamsAgreement', 1)} MU would agree as the plan's other beams do ` +
     `(${signed(e.othersMeanDeviationPercent as number, 1)} %)${e.slip ? `: ${str(e, 'slip')}` : ''}`,
@@ -61,6 +64,7 @@ const CAUSE_SHORT: Readonly<Record<string, string>> = {
   heterogeneity: 'heterogeneity correction',
   'ssd-ct-vs-plan': 'SSD: CT against plan',
   gradient: 'point in a gradient',
+  'leaf-transmission': 'point under the leaves',
   'mu-as-typed': 'MU as typed?',
 };
 

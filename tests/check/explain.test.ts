@@ -5,7 +5,7 @@
  * with a contribution within 20 % of the planted effect; a plan with nothing planted explains nothing.
  */
 import { describe, expect, it } from 'vitest';
-import { type BeamSpec, coordinatesDoseReference, staticBeam } from '../../scripts/fixtures/plan-parts.js';
+import { type BeamSpec, coordinatesDoseReference, MLC_BOUNDARIES_MM, MLC_PAIRS, staticBeam } from '../../scripts/fixtures/plan-parts.js';
 import { typingSlip } from '../../src/check/explain.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
 import type { CheckedBeam, DoseGrid, PhotonBeamModel, Plan } from '../../src/model/index.js';
@@ -151,6 +151,53 @@ describe('explaining a deviation', () => {
     expect(first.confidence).toBe('possible');
     expect(first.evidence.percentPerMm).toBeCloseTo(2.5, 6);
     expect(Math.abs(first.contributionPercent / (100 * (1 / (1 - planted) - 1)) - 1)).toBeLessThan(0.2);
+  });
+  it('a VMAT point under the leaves for 60 % of the MU, the planning system modelling a leaf transmission 20 % higher: the leaves rank first', () => {
+    // Ten segments at gantry 0: the first six with the leaf pairs within ±10 mm of the point closed at x = +30 mm (the point
+    // under a leaf), the last four open. The planted effect is the real one: the check run with the transmission 20 % higher.
+    const leavesFor = (closed: boolean) => {
+      const a = Array.from({ length: MLC_PAIRS }, (_, i) => (closed && Math.abs(MLC_BOUNDARIES_MM[i]! + 2.5) <= 10 ? 30 : -50));
+      const bb = Array.from({ length: MLC_PAIRS }, (_, i) => (closed && Math.abs(MLC_BOUNDARIES_MM[i]! + 2.5) <= 10 ? 30 : 50));
+      return [...a, ...bb];
+    };
+    const base = staticBeam(1, 'ARC', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
+    const arc: BeamSpec = {
+      ...base,
+      dynamic: true,
+      controlPoints: Array.from({ length: 11 }, (_, j) => ({
+        ...(j === 0 ? base.controlPoints[0]! : { gantryDeg: 0, jawsXMm: [-50, 50] as const, jawsYMm: [-50, 50] as const }),
+        leaves: leavesFor(j <= 6),
+        weight: j / 10,
+        doseCoefficient: j / 10,
+      })),
+    };
+    const spec = (name: string, doseGy: number) => ({
+      file: `${name}.dcm`,
+      patientId: 'WHY-2',
+      patientName: 'Why^Leaves',
+      label: name,
+      name,
+      description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 100, doseGy, specPoint: iso }] }],
+      beams: [arc],
+    });
+    const higherT = { ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, mlcTransmission: 1.2 * (x.mlcTransmission ?? 0) } : x)) };
+    const at = (doseGy: number, m = demo) =>
+      beams(
+        checkPlan(
+          planFromSpec(spec('why-leaves', doseGy)).plan,
+          { path: 'l.dcm', sha256: '' },
+          { machine: m, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, explainAll: true },
+        ),
+      )[0] as CheckedBeam;
+    const theirs = at(1, higherT).calculation.independentDoseCGy;
+    const b = at(theirs / 100);
+    expect(b.calculation.modulated!.pointCoveredMuPercent).toBeCloseTo(60, 6);
+    const planted = b.calculation.doseDeviationPercent!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('leaf-transmission');
+    expect(Math.abs(first.contributionPercent / planted - 1)).toBeLessThan(0.2);
   });
   it('a plan with nothing planted explains nothing spurious (no cause above 0.5 %)', () => {
     const each = ours() / 100;
