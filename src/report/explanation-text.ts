@@ -9,10 +9,12 @@ const str = (e: Evidence, k: string) => (e[k] === undefined ? '' : String(e[k]))
 /** Each cause in plain words, with its evidence. */
 const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => string>> = {
   depth: (e) =>
-    `depth: ours ${num(e, 'oursCm', 2)} cm, the planning system's ${num(e, 'planningSystemCm', 2)} cm (${signed(e.differenceCm as number, 2)} cm)`,
+    `depth: ours ${num(e, 'oursCm', 2)} cm, the planning system's ${num(e, 'planningSystemCm', 2)} cm ` +
+    `(${signed(e.differenceCm as number, 2)} cm)`,
   heterogeneity: (e) =>
-    `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} (equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm ` +
-    `at ${num(e, 'planningSystemDepthCm', 2)} cm), ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,
+    `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} ` +
+    `(equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm at ${num(e, 'planningSystemDepthCm', 2)} cm), ` +
+    `ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,
   'ssd-ct-vs-plan': (e) =>
     `SSD: the CT's ${num(e, 'ctSsdCm', 1)} cm against the plan's ${num(e, 'planSsdCm', 1)} cm puts the point at ${num(e, 'depthCm', 2)} cm, ` +
     `not ${num(e, 'depthByPlanSsdCm', 2)} cm`,
@@ -50,11 +52,15 @@ export function explanationHtml(e: Explanation): string {
   const span = Math.max(1, ...rows.map((r) => Math.abs(r.value)));
   const bar = (v: number) => {
     const w = (Math.abs(v) / span) * 80;
-    return `<svg width="170" height="12" role="img" aria-label="${signed(v, 1)} %"><line x1="85" y1="0" x2="85" y2="12" stroke="#000"/><rect x="${v < 0 ? 85 - w : 85}" y="2" width="${w}" height="8" fill="#555"/></svg>`;
+    return (
+      `<svg width="170" height="12" role="img" aria-label="${signed(v, 1)} %"><line x1="85" y1="0" x2="85" y2="12" stroke="#000"/>` +
+      `<rect x="${v < 0 ? 85 - w : 85}" y="2" width="${w}" height="8" fill="#555"/></svg>`
+    );
   };
   return (
-    `<div class="why"><p><b>Why it may differ</b> (${signed(e.deviationPercent, 1)} %)${e.unexplained ? ': mostly not explained by the causes plumbline knows' : ''}</p>` +
-    `<table class="calc">${rows.map((r) => `<tr><td>${bar(r.value)}</td><td class="num">${signed(r.value, 1)} %</td><td>${esc(r.label)}</td></tr>`).join('')}</table></div>`
+    `<div class="why"><p><b>Why it may differ</b> (${signed(e.deviationPercent, 1)} %)` +
+    `${e.unexplained ? ': mostly not explained by the causes plumbline knows' : ''}</p><table class="calc">` +
+    `${rows.map((r) => `<tr><td>${bar(r.value)}</td><td class="num">${signed(r.value, 1)} %</td><td>${esc(r.label)}</td></tr>`).join('')}</table></div>`
   );
 }
 

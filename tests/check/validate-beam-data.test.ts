@@ -4,25 +4,11 @@
  * other exactly through Sp agree within 1 % when the three tables are consistent (common practice,
  * no source); the demo machine's tables are consistent by construction.
  */
-import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { loadMachine } from '../../src/beamdata/index.js';
 import { validateBeamData } from '../../src/check/index.js';
-import { DEMO_MANIFEST } from '../helpers/machines.js';
+import { demoBeamDataWith } from '../helpers/machines.js';
 
-function validateDemoWith(edit: (m: Record<string, any>) => void) {
-  const dir = mkdtempSync(join(tmpdir(), 'plumbline-vbd-'));
-  cpSync(dirname(DEMO_MANIFEST), dir, { recursive: true });
-  const file = join(dir, 'manifest.json');
-  const m = JSON.parse(readFileSync(file, 'utf8'));
-  edit(m);
-  writeFileSync(file, JSON.stringify(m));
-  const r = loadMachine(file);
-  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
-  return validateBeamData(r.value);
-}
+const validateDemoWith = (edit: (m: Record<string, any>) => void) => validateBeamData(demoBeamDataWith(edit));
 
 describe('Sp against PDD and TPR at d0', () => {
   it('the demo machine (Sp measured at its d0) is consistent', () => {

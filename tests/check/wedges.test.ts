@@ -13,7 +13,7 @@ import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
-const run = (name: string, b: BeamSpec, point: [number, number, number] = iso): BeamCheck =>
+const run = (name: string, b: BeamSpec, point: [number, number, number] = iso, m = demo): BeamCheck =>
   beams(
     check(
       planFromSpec({
@@ -27,7 +27,7 @@ const run = (name: string, b: BeamSpec, point: [number, number, number] = iso): 
         fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
         beams: [b],
       }).plan,
-      demo,
+      m,
     ),
   )[0]!;
 const w30 = (orientation: number) =>
@@ -132,29 +132,11 @@ describe('wedges off the central axis along their gradient', () => {
       return rest;
     }),
   };
-  const at = (name: string, b: BeamSpec, point: [number, number, number], m = demo): BeamCheck =>
-    beams(
-      check(
-        planFromSpec({
-          file: `${name}.dcm`,
-          patientId: 'W-2',
-          patientName: 'Wedge^OffAxis',
-          label: name,
-          name,
-          description: 'test',
-          doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-          fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-          beams: [b],
-        }).plan,
-        m,
-      ),
-    )[0]!;
-
   it('a 60° swept wedge, 15 × 15: ±4 cm along the sweep take the swept-wedge profile, the isocenter none (invented demo profile)', () => {
     const profile = dataBeam(demo, '6X').sweptWedgeProfile!;
-    const center = at('sw60-0', sw60, iso);
-    const toe = at('sw60-toe', sw60, [0, 0, 40]);
-    const heel = at('sw60-heel', sw60, [0, 0, -40]);
+    const center = run('sw60-0', sw60, iso);
+    const toe = run('sw60-toe', sw60, [0, 0, 40]);
+    const heel = run('sw60-heel', sw60, [0, 0, -40]);
     expect(factor(center, 'WP')!.value).toBeCloseTo(1, 12);
     expect(factor(toe, 'WP')!.value).toBeCloseTo(profile.at(60, -4, []), 12);
     expect(factor(heel, 'WP')!.value).toBeCloseTo(profile.at(60, 4, []), 12);
@@ -164,30 +146,30 @@ describe('wedges off the central axis along their gradient', () => {
     expect(toe.calculation!.dosePerMuCGy / heel.calculation!.dosePerMuCGy).toBeGreaterThan(1.3);
   });
   it('without a swept-wedge profile: 4 cm along the sweep is not checked, with the reason; 0.3 cm is checked and says the factor is the central-axis one', () => {
-    const far = at('sw60-np-far', sw60, [0, 0, 40], withoutSweptProfile);
+    const far = run('sw60-np-far', sw60, [0, 0, 40], withoutSweptProfile);
     expect(far.status).toBe('not checked');
     expect(far.status === 'not checked' && far.reason).toMatchObject({
       code: 'wedge-off-axis',
       values: { kind: 'swept', missing: 'profile', distanceCm: 4 },
     });
-    const near = at('sw60-np-near', sw60, [0, 0, 3], withoutSweptProfile);
+    const near = run('sw60-np-near', sw60, [0, 0, 3], withoutSweptProfile);
     expect(near.status).toBe('checked');
     expect(near.calculation!.approximations.map((a) => a.code)).toContain('wedge-central-axis-factor');
     // Across the sweep the dose does not change with the wedge: 4 cm along X is checked.
-    expect(at('sw60-np-x', sw60, [40, 0, 0], withoutSweptProfile).status).toBe('checked');
+    expect(run('sw60-np-x', sw60, [40, 0, 0], withoutSweptProfile).status).toBe('checked');
   });
   it('a physical wedge without its profile: 1 cm along the gradient is not checked (the central-axis factor no longer holds)', () => {
     const noProfile = {
       ...demo,
       beams: demo.beams.map((b) => (b.radiationType === 'PHOTON' ? { ...b, wedges: b.wedges.map(({ profile: _, ...w }) => w) } : b)),
     };
-    const b = at('w30-np', w30(0), [0, 0, 10], noProfile);
+    const b = run('w30-np', w30(0), [0, 0, 10], noProfile);
     expect(b.status === 'not checked' && b.reason).toMatchObject({ code: 'wedge-off-axis', values: { kind: 'physical', missing: 'profile' } });
-    expect(at('w30-np-0', w30(0), iso, noProfile).status).toBe('checked');
+    expect(run('w30-np-0', w30(0), iso, noProfile).status).toBe('checked');
   });
   it("with the profile but no heel convention in the beam data, 1 cm along the wedge's axis is not checked", () => {
     const { wedgeHeel: _, ...noHeel } = demo;
-    const b = at('w30-nh', w30(0), [0, 0, 10], noHeel);
+    const b = run('w30-nh', w30(0), [0, 0, 10], noHeel);
     expect(b.status === 'not checked' && b.reason).toMatchObject({ code: 'wedge-off-axis', values: { missing: 'heel' } });
   });
 });

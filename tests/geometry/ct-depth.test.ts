@@ -8,6 +8,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { ctNoiseHu } from '../helpers/noise.js';
 import { loadDensityTable } from '../../src/beamdata/index.js';
 import { readCtSeries } from '../../src/dicom/index.js';
 import { beamFrame, ctDepth, ctSsdAlongAxisMm, traceRay, type Vec3 } from '../../src/geometry/index.js';
@@ -165,13 +166,7 @@ describe('heterogeneous phantoms', () => {
   });
 });
 
-/** Seeded noise of ±15 HU (a uniform deviate from a linear congruential generator keyed by the voxel). */
-function noise(x: number, y: number, z: number): number {
-  let h = (Math.imul(Math.round(x) + 1000, 73856093) ^ Math.imul(Math.round(y) + 1000, 19349663) ^ Math.imul(Math.round(z) + 1000, 83492791)) >>> 0;
-  h = (Math.imul(h, 1664525) + 1013904223) >>> 0;
-  return (h / 2 ** 32) * 30 - 15;
-}
-const noisyWater = phantom('noisy-water', (x, y, z) => (inBox(x, y, z) ? noise(x, y, z) : -1000));
+const noisyWater = phantom('noisy-water', (x, y, z) => (inBox(x, y, z) ? ctNoiseHu(x, y, z) : -1000));
 
 describe('layers are media, not voxels', () => {
   it('CT noise of ±15 HU in water is one layer (its mean density within 0.01 of 1), not a layer per voxel', () => {

@@ -1,5 +1,8 @@
+import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { loadMachine } from '../../src/beamdata/index.js';
+import { type LoadedMachine, loadMachine } from '../../src/beamdata/index.js';
 import type { MachineModel } from '../../src/model/index.js';
 
 export const manifestPath = (rel: string) => fileURLToPath(new URL(`../../${rel}`, import.meta.url));
@@ -17,4 +20,17 @@ export function beam(m: MachineModel, id: string) {
   const b = m.beams.find((x) => x.id === id);
   if (!b) throw new Error(`no beam ${id}`);
   return b;
+}
+
+/** The demo beam data copied to a temporary folder, its manifest edited, loaded (not validated). */
+export function demoBeamDataWith(edit: (manifest: Record<string, any>) => void): LoadedMachine {
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-demo-bd-'));
+  cpSync(dirname(DEMO_MANIFEST), dir, { recursive: true });
+  const file = join(dir, 'manifest.json');
+  const m = JSON.parse(readFileSync(file, 'utf8'));
+  edit(m);
+  writeFileSync(file, JSON.stringify(m));
+  const r = loadMachine(file);
+  if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
+  return r.value;
 }

@@ -58,7 +58,8 @@ export function listPage(
         c,
       ) => `<tr data-check="${c.id}"><td>${esc(c.recordedAt.replace('T', ' ').slice(0, 16))}</td><td><a href="/check/${c.id}">${esc(c.planLabel)}</a></td>
 <td>${esc(c.patientId ?? '—')}</td><td>${esc(c.machine ?? '—')}</td><td
-class="${cls(c.verdict)}">${esc(c.verdict)}</td><td class="cause">${esc(c.topCause ?? '')}</td><td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
+class="${cls(c.verdict)}">${esc(c.verdict)}</td><td class="cause">${esc(c.topCause ?? '')}</td>
+<td>${c.fullyVerified ? 'yes' : 'no'}</td><td>${c.reviews}</td></tr>`,
     )
     .join('');
   return page(

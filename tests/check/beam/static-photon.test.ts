@@ -5,6 +5,7 @@
  * source); the phantom's depths follow from its geometry.
  */
 import { describe, expect, it } from 'vitest';
+import { ctNoiseHu } from '../../helpers/noise.js';
 import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
 import { checkPlan, DEFAULT_POLICY } from '../../../src/check/index.js';
 import type { LookupLog, MachineModel } from '../../../src/model/index.js';
@@ -76,13 +77,6 @@ describe('a static photon beam through the CT', () => {
   });
 });
 
-/** Seeded CT noise of ±15 HU (a hash of the voxel position through a linear congruential step). */
-function noise(x: number, y: number, z: number): number {
-  let h = (Math.imul(Math.round(x) + 1000, 73856093) ^ Math.imul(Math.round(y) + 1000, 19349663) ^ Math.imul(Math.round(z) + 1000, 83492791)) >>> 0;
-  h = (Math.imul(h, 1664525) + 1013904223) >>> 0;
-  return (h / 2 ** 32) * 30 - 15;
-}
-
 describe("Batho's law on a real-looking CT", () => {
   const point: [number, number, number] = [0, 0, 0];
   const gantries = Array.from({ length: 12 }, (_, k) => k * 30);
@@ -110,7 +104,7 @@ describe("Batho's law on a real-looking CT", () => {
         spacingMm: [4, 4, 4],
         originMm: [-126, -126, -22],
         frameOfReferenceUid: plan.frameOfReferenceUid!,
-        hu: (x, y, z) => (x * x + y * y > 100 * 100 ? -1000 : lung(x, y) ? -750 + noise(x, y, z) : noise(x, y, z)),
+        hu: (x, y, z) => (x * x + y * y > 100 * 100 ? -1000 : lung(x, y) ? -750 + ctNoiseHu(x, y, z) : ctNoiseHu(x, y, z)),
       },
       -400,
     );
