@@ -173,3 +173,28 @@ describe('wedges off the central axis along their gradient', () => {
     expect(b.status === 'not checked' && b.reason).toMatchObject({ code: 'wedge-off-axis', values: { missing: 'heel' } });
   });
 });
+
+describe('the suggested point of a wedged beam', () => {
+  it('takes the wedge profile at its own place: its dose equals a check made at that point (the same calculation, by definition)', () => {
+    // Point 1 cm inside the +Y edge of a 15 × 15 W30 field: near the edge, so a better point is suggested elsewhere along Y.
+    const edge: [number, number, number] = [0, 0, 65];
+    const spec = (name: string, point: [number, number, number]) => ({
+      file: `${name}.dcm`,
+      patientId: 'W-3',
+      patientName: 'Wedge^Suggest',
+      label: name,
+      name,
+      description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
+      beams: [w30(0)],
+    });
+    const b = beams(check(planFromSpec(spec('w-suggest', edge)).plan, demo, { suggest: true }))[0]!;
+    if (b.status !== 'checked') throw new Error('not checked');
+    const s = b.suggestedPoint!;
+    expect(Math.abs(s.patientMm[2] - edge[2])).toBeGreaterThan(5); // moved along the wedge's gradient
+    const there = beams(check(planFromSpec(spec('w-suggest-there', s.patientMm)).plan, demo))[0]!;
+    if (there.status !== 'checked') throw new Error('not checked');
+    expect(s.independentDoseCGy / there.calculation.independentDoseCGy - 1).toBeCloseTo(0, 9);
+  });
+});

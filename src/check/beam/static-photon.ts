@@ -49,7 +49,7 @@ export function checkStaticPhotonBeam(ctx: BeamCheckContext): BeamOutcome {
     ...buildUpFlags(g.depthCm, data.calibration.dmaxCm),
     ...interfaceFlags(ct?.nearestInterfaceMm, ctx.policy),
   ];
-  const suggested = flags.length ? suggestedPoint(ctx, data, g, f) : undefined;
+  const suggested = flags.length ? suggestedPoint(ctx, data, g, f, modifiers) : undefined;
   const category = categorize(ctx.policy, {
     wedged: !!modifiers.wedgeIn,
     offAxisCm: g.offAxisCm,

@@ -5,10 +5,12 @@ import { fieldInput } from '../field-input.js';
 import { heterogeneityCorrection } from '../heterogeneity-correction.js';
 import { ctDepthOptions } from '../patient-ct.js';
 import type { Policy } from '../policy.js';
-import type { BeamCheckContext } from './context.js';
+import { type BeamCheckContext, isStopped } from './context.js';
 import { clampRows } from './dose-comparison.js';
 import type { StaticField } from './static-field.js';
+import type { Modifiers } from './modifiers.js';
 import type { StaticGeometry } from './static-geometry.js';
+import { wedgePosition } from './wedge-position.js';
 
 type Suggestion = NonNullable<CheckedBeam['fitness']['suggestion']>;
 
@@ -22,6 +24,7 @@ export function suggestedPoint(
   data: PhotonBeamModel,
   g: StaticGeometry,
   f: StaticField,
+  m: Modifiers,
 ): { suggestion?: Suggestion; dose?: CheckedBeam['suggestedPoint'] } {
   const s = betterPoint(g.aperture, g.blocks, g, ctx.policy);
   if (!s) return {};
@@ -32,8 +35,13 @@ export function suggestedPoint(
   const there = traced?.ok ? { ok: true as const, value: projectOnAxis(traced.value, g.frame, s.patientMm) } : traced;
   const depthThereCm = there?.ok ? there.value.geometricDepthMm / MM_PER_CM : s.depthCm;
   const [sx, sy] = s.atIsocenterPlaneMm;
+  // A wedge's profile at the suggested point's own place along the gradient (or no dose there without one).
+  const w = wedgePosition(ctx, data, { ...g, at: { ...g.at, atIsocenterPlaneMm: s.atIsocenterPlaneMm } }, m);
+  if (isStopped(w)) return { suggestion };
+  const { towardHeelCm: _, ...input } = f.input;
   const r = photonDosePerMu(data, machine.sadCm, {
-    ...f.input,
+    ...input,
+    ...(w.towardHeelCm !== undefined ? { towardHeelCm: w.towardHeelCm } : {}),
     offAxisCm: s.offAxisCm,
     depthCm: depthThereCm,
     ...(there?.ok ? { ssdCm: there.value.ssdMm / MM_PER_CM } : {}),
