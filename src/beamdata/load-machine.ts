@@ -24,6 +24,8 @@ export interface LoadedTable {
   readonly lookup: TableLookup;
   /** Multiplier from the file's value unit to the engine's (100 for a PDD given as a fraction). */
   readonly valueScale: number;
+  /** The file's bytes as read and parsed. */
+  readonly bytes: Uint8Array;
 }
 
 export interface LoadedMachine {
@@ -31,6 +33,8 @@ export interface LoadedMachine {
   readonly manifest: Manifest;
   readonly manifestFile: string;
   readonly tables: readonly LoadedTable[];
+  /** The manifest's bytes as read: with each table's, what the data's SHA-256 is taken over (never a second read). */
+  readonly manifestBytes: Uint8Array;
 }
 
 /** Axis units to the engine's: lengths to cm; angles stay in degrees. */
@@ -43,8 +47,10 @@ const TO_CM = { cm: 1, mm: 0.1, deg: 1 } as const;
 export function loadMachine(manifestFile: string): Result<LoadedMachine> {
   const issues: Issue[] = [];
   let json: unknown;
+  let manifestBytes: Uint8Array = new Uint8Array();
   try {
     const bytes = readFileSync(manifestFile);
+    manifestBytes = bytes;
     if (bytes.length >= 132 && bytes.toString('latin1', 128, 132) === 'DICM')
       return fail({
         severity: 'error',
@@ -136,7 +142,7 @@ export function loadMachine(manifestFile: string): Result<LoadedMachine> {
     beams,
     electronBeams,
   };
-  return { ok: true, value: { machine, manifest, manifestFile, tables }, warnings: issues };
+  return { ok: true, value: { machine, manifest, manifestFile, tables, manifestBytes }, warnings: issues };
 }
 
 type TableLoader = (
@@ -153,8 +159,10 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
   return (quantity, spec, shape, rowAxis, columnAxis, valueScale = 1) => {
     const file = join(dir, spec.file);
     let text: string;
+    let bytes: Uint8Array;
     try {
-      text = readFileSync(file, 'utf8');
+      bytes = readFileSync(file);
+      text = Buffer.from(bytes).toString('utf8');
     } catch (e) {
       issues.push({
         severity: 'error',
@@ -206,7 +214,7 @@ function tableLoader(beamId: string, dir: string, tables: LoadedTable[], issues:
       interpolation: spec.interpolation,
       ...(clamp ? { clamp } : {}),
     });
-    tables.push({ beamId, quantity, csv: t, lookup, valueScale });
+    tables.push({ beamId, quantity, csv: t, lookup, valueScale, bytes });
     return lookup;
   };
 }

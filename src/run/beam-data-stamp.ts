@@ -1,5 +1,4 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import type { LoadedMachine } from '../beamdata/index.js';
 import { InternalError } from '../errors.js';
 
@@ -34,12 +33,16 @@ function validationWarningsOf(m: LoadedMachine): number {
 
 const hashes = new WeakMap<LoadedMachine, string>();
 
-/** The SHA-256 of loaded beam data: over the manifest and every table it names, in a fixed order, once per load. */
+/**
+ * The SHA-256 of loaded beam data: over the manifest and every table it names, in a fixed order,
+ * once per load, from the very bytes that were parsed (a file changed since cannot slip in).
+ */
 export function beamDataSha256(m: LoadedMachine): string {
   const known = hashes.get(m);
   if (known) return known;
-  const h = createHash('sha256').update(readFileSync(m.manifestFile));
-  for (const f of [...new Set(m.tables.map((t) => t.csv.file))].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(readFileSync(f));
+  const h = createHash('sha256').update(m.manifestBytes);
+  const byFile = new Map(m.tables.map((t) => [t.csv.file, t.bytes]));
+  for (const f of [...byFile.keys()].sort()) h.update(f.slice(f.lastIndexOf('/') + 1)).update(byFile.get(f)!);
   const sha = h.digest('hex');
   hashes.set(m, sha);
   return sha;
