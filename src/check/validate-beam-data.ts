@@ -1,8 +1,14 @@
 import { comparePublishedPdd, type LoadedMachine, PUBLISHED_TOLERANCE_PERCENT, validateTables } from '../beamdata/index.js';
-import type { Issue } from '../model/index.js';
+import type { ElectronBeamModel, Issue } from '../model/index.js';
 import { pddTprAgreement, referenceFieldFactors } from '../physics/index.js';
 import { coverageIssues, effectiveSsdIssues } from './validate-coverage.js';
-import { compareElectronEnergy, ELECTRON_ENERGY_TOLERANCE_PERCENT, PRACTICAL_RANGE_TOLERANCE_PERCENT } from './electron-energy.js';
+import {
+  compareElectronEnergy,
+  E0_PER_R50_MEV_PER_CM,
+  ELECTRON_ENERGY_TOLERANCE_PERCENT,
+  PRACTICAL_RANGE_TOLERANCE_PERCENT,
+  RP_PER_MEV_CM,
+} from './electron-energy.js';
 
 /** Largest PDD/TPR disagreement (after exact conversion) accepted between two measured tables. */
 const PDD_TPR_TOLERANCE_PERCENT = 1;
@@ -94,32 +100,42 @@ export function validateBeamData(lm: LoadedMachine): Issue[] {
       });
     }
   }
-  for (const [bi, beam] of lm.machine.electronBeams.entries()) {
-    const e = compareElectronEnergy(beam);
-    if (e.differencePercent !== undefined && Math.abs(e.differencePercent) > ELECTRON_ENERGY_TOLERANCE_PERCENT)
-      issues.push({
-        severity: 'warning',
-        code: 'physical-range',
-        file: lm.manifestFile,
-        path: `electronBeams[${bi}].pdd`,
-        message:
-          `beam ${beam.id}: its PDD gives R50 ${e.r50Cm!.toFixed(2)} cm, so E0 ≈ ${e.e0MeV!.toFixed(1)} MeV (2.33 MeV/cm × R50), ` +
-          `${e.differencePercent.toFixed(0)} % from the nominal ${beam.nominalEnergyMeV} MeV: a table of another energy, or depths in another unit?`,
-        expected: `within ±${ELECTRON_ENERGY_TOLERANCE_PERCENT} % of ${beam.nominalEnergyMeV} MeV`,
-        found: `${e.e0MeV!.toFixed(1)} MeV`,
-      });
-    if (e.rpDifferencePercent !== undefined && Math.abs(e.rpDifferencePercent) > PRACTICAL_RANGE_TOLERANCE_PERCENT)
-      issues.push({
-        severity: 'warning',
-        code: 'physical-range',
-        file: lm.manifestFile,
-        path: `electronBeams[${bi}].pdd`,
-        message:
-          `beam ${beam.id}: its PDD gives a practical range of ${e.rpCm!.toFixed(2)} cm, ${e.rpDifferencePercent.toFixed(0)} % from ` +
-          `E/2 = ${(beam.nominalEnergyMeV / 2).toFixed(1)} cm for ${beam.nominalEnergyMeV} MeV: a table of another energy, or depths in another unit?`,
-        expected: `within ±${PRACTICAL_RANGE_TOLERANCE_PERCENT} % of ${(beam.nominalEnergyMeV / 2).toFixed(1)} cm`,
-        found: `${e.rpCm!.toFixed(2)} cm`,
-      });
-  }
+  for (const [bi, beam] of lm.machine.electronBeams.entries())
+    issues.push(...electronEnergyWarnings(beam, `electronBeams[${bi}].pdd`, lm.manifestFile));
   return issues;
+}
+
+/** An electron PDD against its nominal energy: R50 (E0 ≈ 2.33 MeV/cm × R50) and the practical range (Rp ≈ E/2 cm). */
+function electronEnergyWarnings(beam: ElectronBeamModel, path: string, file: string): Issue[] {
+  const e = compareElectronEnergy(beam);
+  const warn = (message: string, expected: string, found: string): Issue => ({
+    severity: 'warning',
+    code: 'physical-range',
+    file,
+    path,
+    message: `beam ${beam.id}: ${message}: a table of another energy, or depths in another unit?`,
+    expected,
+    found,
+  });
+  const out: Issue[] = [];
+  if (e.differencePercent !== undefined && Math.abs(e.differencePercent) > ELECTRON_ENERGY_TOLERANCE_PERCENT)
+    out.push(
+      warn(
+        `its PDD gives R50 ${e.r50Cm!.toFixed(2)} cm, so E0 ≈ ${e.e0MeV!.toFixed(1)} MeV (${E0_PER_R50_MEV_PER_CM} MeV/cm × R50), ` +
+          `${e.differencePercent.toFixed(0)} % from the nominal ${beam.nominalEnergyMeV} MeV`,
+        `within ±${ELECTRON_ENERGY_TOLERANCE_PERCENT} % of ${beam.nominalEnergyMeV} MeV`,
+        `${e.e0MeV!.toFixed(1)} MeV`,
+      ),
+    );
+  const rpCm = RP_PER_MEV_CM * beam.nominalEnergyMeV;
+  if (e.rpDifferencePercent !== undefined && Math.abs(e.rpDifferencePercent) > PRACTICAL_RANGE_TOLERANCE_PERCENT)
+    out.push(
+      warn(
+        `its PDD gives a practical range of ${e.rpCm!.toFixed(2)} cm, ${e.rpDifferencePercent.toFixed(0)} % from ` +
+          `E/2 = ${rpCm.toFixed(1)} cm for ${beam.nominalEnergyMeV} MeV`,
+        `within ±${PRACTICAL_RANGE_TOLERANCE_PERCENT} % of ${rpCm.toFixed(1)} cm`,
+        `${e.rpCm!.toFixed(2)} cm`,
+      ),
+    );
+  return out;
 }

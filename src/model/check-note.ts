@@ -48,6 +48,7 @@ export const NOTE_CODES = [
   // Approximations a calculation made.
   'ssd-irregular-tpr-form',
   'clarkson-irregular',
+  // No longer written (wedge-off-axis took its place); kept so documents recorded before still word.
   'wedge-profile-not-applied',
   'wedge-central-axis-factor',
   'swept-wedge-asymmetric',

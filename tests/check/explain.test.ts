@@ -10,7 +10,7 @@ import { typingSlip } from '../../src/check/explain.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
 import type { CheckedBeam, DoseGrid, PhotonBeamModel, Plan } from '../../src/model/index.js';
 import { projectFieldCm, tprAt } from '../../src/physics/index.js';
-import { beams, planFromSpec } from '../helpers/check-run.js';
+import { beams, planFromSpec, oneBeamPlan } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
 import { phantomCt } from '../helpers/phantom-ct.js';
 
@@ -171,22 +171,11 @@ describe('explaining a deviation', () => {
         doseCoefficient: j / 10,
       })),
     };
-    const spec = (name: string, doseGy: number) => ({
-      file: `${name}.dcm`,
-      patientId: 'WHY-2',
-      patientName: 'Why^Leaves',
-      label: name,
-      name,
-      description: 'test',
-      doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 100, doseGy, specPoint: iso }] }],
-      beams: [arc],
-    });
     const higherT = { ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, mlcTransmission: 1.2 * (x.mlcTransmission ?? 0) } : x)) };
     const at = (doseGy: number, m = demo) =>
       beams(
         checkPlan(
-          planFromSpec(spec('why-leaves', doseGy)).plan,
+          oneBeamPlan('why-leaves', arc, iso, { mu: 100, doseGy, patientId: 'WHY-2' }),
           { path: 'l.dcm', sha256: '' },
           { machine: m, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, explainAll: true },
         ),

@@ -6,30 +6,15 @@
  * machine's; what the tests check is that the right entry is found for the geometry.
  */
 import { describe, expect, it } from 'vitest';
-import { coordinatesDoseReference, staticBeam, type BeamSpec } from '../../scripts/fixtures/plan-parts.js';
+import { staticBeam, type BeamSpec } from '../../scripts/fixtures/plan-parts.js';
 import type { BeamCheck } from '../../src/model/index.js';
-import { beams, check, planFromSpec } from '../helpers/check-run.js';
+import { beams, check, oneBeamPlan } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
 const run = (name: string, b: BeamSpec, point: [number, number, number] = iso, m = demo): BeamCheck =>
-  beams(
-    check(
-      planFromSpec({
-        file: `${name}.dcm`,
-        patientId: 'W-1',
-        patientName: 'Wedge^Test',
-        label: name,
-        name,
-        description: 'test',
-        doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-        beams: [b],
-      }).plan,
-      m,
-    ),
-  )[0]!;
+  beams(check(oneBeamPlan(name, b, point, { patientId: 'W-1' }), m))[0]!;
 const w30 = (orientation: number) =>
   staticBeam(1, 'AP W30', 6, 0, 900, iso, {
     wedge: { id: 'W30', angle: 30, factor: 0.68, orientation },
@@ -62,6 +47,7 @@ describe('physical wedge profiles', () => {
 
 describe('the wedge factor of a rectangular field', () => {
   it("is looked up at the jaw rectangle's equivalent square by 4A/P (20 × 10: 13.33 cm), the square the wedge data were measured with", () => {
+    // A rectangle's equivalent square by 4A/P, wedge factors tabulated for square jaw settings (common practice, no source).
     // The collimator-exchange constant weights the jaws for Sc (head scatter) only: Sc's square differs.
     const b = run(
       'w-rect',
@@ -178,22 +164,11 @@ describe('the suggested point of a wedged beam', () => {
   it('takes the wedge profile at its own place: its dose equals a check made at that point (the same calculation, by definition)', () => {
     // Point 1 cm inside the +Y edge of a 15 × 15 W30 field: near the edge, so a better point is suggested elsewhere along Y.
     const edge: [number, number, number] = [0, 0, 65];
-    const spec = (name: string, point: [number, number, number]) => ({
-      file: `${name}.dcm`,
-      patientId: 'W-3',
-      patientName: 'Wedge^Suggest',
-      label: name,
-      name,
-      description: 'test',
-      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-      beams: [w30(0)],
-    });
-    const b = beams(check(planFromSpec(spec('w-suggest', edge)).plan, demo, { suggest: true }))[0]!;
+    const b = beams(check(oneBeamPlan('w-suggest', w30(0), edge), demo, { suggest: true }))[0]!;
     if (b.status !== 'checked') throw new Error('not checked');
     const s = b.suggestedPoint!;
     expect(Math.abs(s.patientMm[2] - edge[2])).toBeGreaterThan(5); // moved along the wedge's gradient
-    const there = beams(check(planFromSpec(spec('w-suggest-there', s.patientMm)).plan, demo))[0]!;
+    const there = beams(check(oneBeamPlan('w-suggest-there', w30(0), s.patientMm), demo))[0]!;
     if (there.status !== 'checked') throw new Error('not checked');
     expect(s.independentDoseCGy / there.calculation.independentDoseCGy - 1).toBeCloseTo(0, 9);
   });

@@ -5,7 +5,7 @@ import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
 import { importPlanFile } from '../../src/dicom/index.js';
 import type { MachineModel, Plan, PlanCheck } from '../../src/model/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
-import { type PlanSpec, planDataset } from '../../scripts/fixtures/plan-parts.js';
+import { type BeamSpec, coordinatesDoseReference, type PlanSpec, planDataset } from '../../scripts/fixtures/plan-parts.js';
 
 const work = mkdtempSync(join(tmpdir(), 'plumbline-check-'));
 
@@ -44,3 +44,25 @@ export function check(
 }
 
 export const beams = (r: PlanCheck) => r.fractionGroups.flatMap((g) => g.beams);
+
+/** A one-beam test plan whose Beam Dose is stated at `point` (MU and dose as given, 200 MU and 2 Gy by default), imported back. */
+export function oneBeamPlan(
+  name: string,
+  beam: BeamSpec,
+  point: readonly [number, number, number],
+  o: { mu?: number; doseGy?: number; patientId?: string } = {},
+): Plan {
+  return planFromSpec({
+    file: `${name}.dcm`,
+    patientId: o.patientId ?? 'TEST-1',
+    patientName: 'Test^Plan',
+    label: name,
+    name,
+    description: 'test',
+    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+    fractionGroups: [
+      { number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: o.mu ?? 200, doseGy: o.doseGy ?? 2, specPoint: point }] },
+    ],
+    beams: [beam],
+  }).plan;
+}

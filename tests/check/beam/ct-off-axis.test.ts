@@ -7,29 +7,17 @@
  * source); ±0.2 % leaves room for the voxel grid (4 mm) at the surface.
  */
 import { describe, expect, it } from 'vitest';
-import { type BeamSpec, coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
+import { type BeamSpec, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
 import type { BeamCheck, Plan } from '../../../src/model/index.js';
-import { beams, planFromSpec } from '../../helpers/check-run.js';
+import { beams, oneBeamPlan } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 import { phantomCt } from '../../helpers/phantom-ct.js';
 
 const demo = machine(DEMO_MANIFEST);
 const SURFACE_Y_MM = -100; // gantry 0, head-first supine: the beam enters from −y
 
-function planWith(name: string, beam: BeamSpec, point: [number, number, number]): Plan {
-  return planFromSpec({
-    file: `${name}.dcm`,
-    patientId: 'BOX-1',
-    patientName: 'Water^Box',
-    label: name,
-    name,
-    description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-    beams: [beam],
-  }).plan;
-}
+const planWith = (name: string, beam: BeamSpec, point: [number, number, number]): Plan => oneBeamPlan(name, beam, point, { patientId: 'BOX-1' });
 
 let box: PatientCt | undefined;
 function waterBox(plan: Plan): PatientCt {

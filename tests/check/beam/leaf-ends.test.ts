@@ -8,9 +8,9 @@
  * source: the first-order primary-plus-scatter estimate below).
  */
 import { describe, expect, it } from 'vitest';
-import { type BeamSpec, coordinatesDoseReference, MLC_BOUNDARIES_MM, MLC_PAIRS, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
+import { type BeamSpec, MLC_BOUNDARIES_MM, MLC_PAIRS, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
 import type { BeamCheck, MachineModel } from '../../../src/model/index.js';
-import { beams, check, planFromSpec } from '../../helpers/check-run.js';
+import { beams, check, oneBeamPlan } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 /** The demo machine without its dosimetric leaf gap (leaf ends not modelled). */
@@ -50,18 +50,7 @@ function slidingWindow(widthMm: number, n = 241): BeamSpec {
 }
 
 function run(name: string, b: BeamSpec, m: MachineModel): BeamCheck {
-  const plan = planFromSpec({
-    file: `${name}.dcm`,
-    patientId: 'DLG-1',
-    patientName: 'Leaf^Ends',
-    label: name,
-    name,
-    description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
-    fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-    beams: [b],
-  }).plan;
-  return beams(check(plan, m))[0]!;
+  return beams(check(oneBeamPlan(name, b, iso, { patientId: 'DLG-1' }), m))[0]!;
 }
 const dpm = (b: BeamCheck): number => {
   if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
