@@ -20,7 +20,7 @@ import { checkBeam, notCheckedBeam } from './beam/index.js';
 import { choosePoint } from './choose-point.js';
 import { atUserPoint } from './dose-at-user-point.js';
 import { attachDoseGrids, withGrid } from './dose-grids.js';
-import { explainBeams } from './explain.js';
+import { explainPlan } from './explain-totals.js';
 import { judge } from './judge.js';
 import { machineLimitIssues } from './machine-limits.js';
 import { matchMachine } from './match-machine.js';
@@ -39,6 +39,8 @@ export interface CheckOptions {
   readonly suggestPoint: boolean;
   /** Explain every beam's deviation (by default only beams not within tolerance). */
   readonly explainAll?: boolean;
+  /** Whether to explain deviations at all (default yes; the bench times the check without). */
+  readonly explain?: boolean;
   readonly ct?: PatientCt;
   /** The planning system's RT Dose grids for this plan (any summation type). */
   readonly doseGrids?: readonly DoseGrid[];
@@ -99,7 +101,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       machine ??= r.machine;
       return atUserPoint(r.beam, grids);
     });
-    const judged = explainBeams(judge(beams, o.policy), o.machine, o.explainAll, grids);
+    const judged = judge(beams, o.policy);
     return {
       number: g.number,
       ...(g.fractionsPlanned !== undefined ? { fractionsPlanned: g.fractionsPlanned } : {}),
@@ -107,7 +109,23 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       totals: groupTotals(plan, g, judged),
     };
   });
-  const groups = attachDoseGrids(checkedGroups, grids);
+  const beamContext = { ...o, ct, ctRefused: !!o.ct && !ct, planningSystemCorrected, suggestPoint: false };
+  const explained =
+    (o.explain ?? true) === false
+      ? { groups: checkedGroups, courseTotals: courseTotals(checkedGroups) }
+      : explainPlan(
+          checkedGroups,
+          { machine: o.machine, all: o.explainAll ?? false, grids, largeSsdCm: o.policy.classification.largeSsdCm, machineMatch: machine },
+          (number) => {
+            const g = plan.fractionGroups.find((x) => x.number === number)!;
+            return (beamNumber, edited) => {
+              const entry = g.beams.find((e) => e.beamNumber === beamNumber);
+              const r = entry ? checkEntry(plan, g, entry, { ...beamContext, machine: edited }).beam : undefined;
+              return r?.status === 'checked' ? r.calculation.independentDoseCGy : undefined;
+            };
+          },
+        );
+  const groups = attachDoseGrids(explained.groups, grids);
   const all = groups.flatMap((g) => g.beams);
   // A setup beam delivers no dose: it needs no check and leaves the plan verified.
   const notChecked = all.filter((b) => b.status !== 'checked' && b.reason.code !== 'setup-beam').length;
@@ -131,7 +149,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
     ...(plan.approvalStatus ? { approvalStatus: plan.approvalStatus } : {}),
     ...(machine ? { machine } : {}),
     fractionGroups: groups,
-    courseTotals: courseTotals(groups).map((t) =>
+    courseTotals: explained.courseTotals.map((t) =>
       withGrid(
         t,
         grids.find((g) => g.summationType === 'PLAN'),

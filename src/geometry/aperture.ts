@@ -30,6 +30,8 @@ export interface Aperture {
   isOpen(x: number, y: number): boolean;
   /** Signed distance from (x, y) to the nearest edge: positive inside the opening. */
   edgeDistanceMm(x: number, y: number): number;
+  /** The width of the opening along the leaves' travel at (x, y): its leaf pair's gap within the jaws, 0 where closed. */
+  openWidthMm(x: number, y: number): number;
   /**
    * For n equal sectors around (x, y) (mid-sector directions), the distances along each to where it
    * crosses the outline, in order: leaving the opening, entering it again, …
@@ -127,7 +129,7 @@ export function apertureAt(beam: Beam, cp: ControlPoint, leafGapMm = 0): Apertur
   // apart as (position, from, to) triples, a ray's crossing with each is one multiplication.
   let outline: { edgesV: Float64Array; edgesU: Float64Array } | undefined;
   const edges = () => (outline ??= boundary(bands));
-  const inOpen = (u: number, v: number): boolean => {
+  const openBandAt = (u: number, v: number): Band | undefined => {
     let lo = 0;
     let hi = open.length - 1;
     while (lo <= hi) {
@@ -138,10 +140,11 @@ export function apertureAt(beam: Beam, cp: ControlPoint, leafGapMm = 0): Apertur
     // Bands share their boundary lines: a point on one belongs to either neighbour.
     for (let k = hi; k >= 0 && k >= hi - 1; k--) {
       const b = open[k]!;
-      if (v >= b.y0 && v <= b.y1 && u >= b.x0 && u <= b.x1) return true;
+      if (v >= b.y0 && v <= b.y1 && u >= b.x0 && u <= b.x1) return b;
     }
-    return false;
+    return undefined;
   };
+  const inOpen = (u: number, v: number): boolean => openBandAt(u, v) !== undefined;
   // The open bands' extent, and the open bands as flat (v0, v1, u0, u1) for the sector walk.
   let [uMin, uMax, vMin, vMax] = [Infinity, -Infinity, Infinity, -Infinity];
   const openFlat: number[] = [];
@@ -175,6 +178,10 @@ export function apertureAt(beam: Beam, cp: ControlPoint, leafGapMm = 0): Apertur
       const v = swapped ? x : y;
       const d = outlineDistance(bands, u, v);
       return inOpen(u, v) ? d : -d;
+    },
+    openWidthMm(x: number, y: number): number {
+      const b = swapped ? openBandAt(y, x) : openBandAt(x, y);
+      return b ? b.x1 - b.x0 : 0;
     },
     sectorCrossingsMm(x: number, y: number, n: number): number[][] {
       const [pu, pv] = swapped ? [y, x] : [x, y];

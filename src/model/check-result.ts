@@ -154,6 +154,8 @@ export const Calculation = z.object({
             radiologicalDepthCm: z.number().optional(),
             sc: z.number(),
             primaryFluence: z.number(),
+            /** The opening's width along the leaves' travel through the point, at the isocenter plane (0: covered; absent in older documents). */
+            openWidthCm: z.number().optional(),
             spTpr: z.number(),
             scatterSpTpr: z.number().optional(),
             dosePerMuCGy: z.number(),
@@ -183,8 +185,24 @@ export type Calculation = z.infer<typeof Calculation>;
  * is, and the numbers it rests on.
  */
 export const DeviationCause = z.object({
-  code: z.enum(['depth', 'heterogeneity', 'ssd-ct-vs-plan', 'gradient', 'leaf-transmission', 'mu-as-typed']),
+  code: z.enum([
+    'depth',
+    'heterogeneity',
+    'ssd-ct-vs-plan',
+    'gradient',
+    'field-edge',
+    'leaf-transmission',
+    'leaf-end-offset',
+    'extended-ssd',
+    'machine-alias',
+    'table-edge',
+    'mu-as-typed',
+  ]),
+  /** For a plan total: the beams whose causes these are. */
+  beams: z.array(z.number()).optional(),
   contributionPercent: z.number(),
+  /** False when the cause is named but its share could not be estimated (its contribution is then 0). */
+  estimated: z.boolean().optional(),
   confidence: z.enum(['measured', 'estimated', 'possible']),
   evidence: z.record(z.string(), z.union([z.number(), z.string()])),
 });
@@ -253,6 +271,8 @@ export const PointTotal = z.object({
   /** The planning system's own dose grid (RT Dose) at the point, and which summation it is. */
   doseGridCGy: z.number().optional(),
   doseGridSummation: z.string().optional(),
+  /** Why the total may differ, from its beams' causes weighed by their share of the planning system's dose there. */
+  explanation: Explanation.optional(),
 });
 
 export const FractionGroupCheck = z.object({

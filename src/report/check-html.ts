@@ -110,7 +110,7 @@ planning system ${t.planningSystemDoseCGy.toFixed(1)} cGy (${signed(t.deviationP
           t.doseGridCGy !== undefined ? `; planning system's dose ` + `grid (${esc(t.doseGridSummation ?? '')}) ${t.doseGridCGy.toFixed(1)} cGy` : ''
         }${
           t.prescriptionPerFractionCGy !== undefined ? `; prescription ` + `${t.prescriptionPerFractionCGy.toFixed(1)} cGy per fraction` : ''
-        }${t.complete ? '' : ' — incomplete'}</li>`,
+        }${t.complete ? '' : ' — incomplete'}${t.explanation ? explanationHtml(t.explanation) : ''}</li>`,
       ),
     )
     .join('');

@@ -3,7 +3,7 @@ import { IssueJson, PlanCheck } from '../model/index.js';
 
 /** The `check --json` document. Bump schemaVersion on any change a consumer could notice. */
 export const CheckDocument = z.object({
-  schemaVersion: z.literal(4),
+  schemaVersion: z.literal(5),
   kind: z.literal('plumbline.check'),
   tool: z.object({ name: z.literal('plumbline'), version: z.string() }),
   createdAt: z.string(),

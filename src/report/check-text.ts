@@ -43,6 +43,7 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
           `${t.planningSystemDoseCGy.toFixed(1)} cGy, ${signed(t.deviationPercent)} ` +
           `%${rx}${grid}${t.complete ? '' : ' (incomplete: some beams at this point not checked)'}`,
       );
+      if (t.explanation) out.push(...wrapped(explanationLines(t.explanation).map((l) => `      ${l}`)));
     }
   }
   for (const t of p.courseTotals) {
@@ -52,6 +53,7 @@ export function planCheckText(p: PlanCheck, o: CheckTextOptions = {}): string[] 
       `  course total at ${mm(t.pointPatientMm)}: independent ${(t.independentDoseCGy / CGY_PER_GY).toFixed(2)} Gy, planning system ` +
         `${(t.planningSystemDoseCGy / CGY_PER_GY).toFixed(2)} Gy, ${signed(t.deviationPercent)} %${grid}${t.complete ? '' : ' (incomplete)'}`,
     );
+    if (t.explanation) out.push(...wrapped(explanationLines(t.explanation).map((l) => `    ${l}`)));
   }
   const notes: string[] = [];
   for (const b of p.fractionGroups.flatMap((g) => g.beams)) {

@@ -24,14 +24,35 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
   'leaf-transmission': (e) =>
     `the point under the leaves for ${num(e, 'coveredMuPercent', 0)} % of the MU: ${num(e, 'throughLeavesPercent', 1)} % of the dose comes through ` +
     `them, so a leaf transmission 20 % different moves the dose ${num(e, 'sensitivityPercent', 1)} %`,
+  'field-edge': (e) =>
+    `the point ${num(e, 'edgeDistanceCm', 1)} cm from the field edge: the dose there changes ${num(e, 'edgeChangeFor2MmPercent', 1)} % for a 2 mm ` +
+    `shift (a ${num(e, 'penumbraMm', 0)} mm penumbra assumed)` +
+    (e.profileChangeFor2MmPercent !== undefined ? `, the off-axis profile ${num(e, 'profileChangeFor2MmPercent', 1)} %` : ''),
+  'leaf-end-offset': (e) =>
+    `leaf ends: with the leaf-end offset ${num(e, 'spreadMm', 1)} mm wider than the beam data's ${num(e, 'gapMm', 1)} mm our dose moves ` +
+    `${num(e, 'sensitivityPercent', 1)} %` +
+    (e.narrowMuPercent !== undefined ? ` (${num(e, 'narrowMuPercent', 0)} % of the MU through openings under 2 cm at the point)` : ''),
+  'extended-ssd': (e) =>
+    `extended SSD ${num(e, 'ssdCm', 1)} cm (beyond ${num(e, 'largeSsdCm', 0)} cm)` +
+    (e.mayneordAgainstTprPercent !== undefined
+      ? `: the PDD carried there by the Mayneord F factor differs ${signed(e.mayneordAgainstTprPercent as number, 1)} % from ours by TPR`
+      : ''),
+  'machine-alias': (e) => `the plan's machine ${str(e, 'planMachine')} checked with the beam data of ${str(e, 'beamData')} (${str(e, 'via')})`,
+  'table-edge': (e) =>
+    `beam data: ${str(e, 'table')} looked up at ${str(e, 'axis')} ${num(e, 'requested', 2)} ${str(e, 'unit')}, ` +
+    `used at the table's edge ${num(e, 'used', 2)}${(e.clamps as number) > 1 ? ` (and ${(e.clamps as number) - 1} more)` : ''}`,
   'mu-as-typed': (e) =>
     `MU as typed? ${num(e, 'plannedMu', 1)} MU planned; ${num(e, 'muAtTheOtherBeamsAgreement', 1)} MU would agree as the plan's other beams do ` +
     `(${signed(e.othersMeanDeviationPercent as number, 1)} %)${e.slip ? `: ${str(e, 'slip')}` : ''}`,
 };
 
-/** One cause as a line: its words, its contribution with a sign, how sure. */
+/** One cause as a line: its words (a total's: the cause and its beams), its contribution with a sign, how sure. */
 export function causeText(c: DeviationCause): string {
-  return `${CAUSE_TEXT[c.code](c.evidence)}: ${signed(c.contributionPercent, 1)} % (${c.confidence})`;
+  const words = c.beams
+    ? `${CAUSE_SHORT[c.code] ?? c.code} (beam${c.beams.length > 1 ? 's' : ''} ${c.beams.join(', ')})`
+    : CAUSE_TEXT[c.code](c.evidence);
+  const share = c.estimated === false ? 'share not estimated' : `${signed(c.contributionPercent, 1)} %`;
+  return `${words}: ${share} (${c.confidence})`;
 }
 
 /** The explanation as lines for the terminal: the causes, largest first, and what is left. */
@@ -70,7 +91,12 @@ const CAUSE_SHORT: Readonly<Record<string, string>> = {
   heterogeneity: 'heterogeneity correction',
   'ssd-ct-vs-plan': 'SSD: CT against plan',
   gradient: 'point in a gradient',
+  'field-edge': 'point near a field edge',
   'leaf-transmission': 'point under the leaves',
+  'leaf-end-offset': 'leaf ends',
+  'extended-ssd': 'extended SSD',
+  'machine-alias': 'machine alias',
+  'table-edge': "beam data at a table's edge",
   'mu-as-typed': 'MU as typed?',
 };
 

@@ -18,7 +18,7 @@ export function checkDocument(
   createdAt: Date,
 ): CheckDocument {
   return CheckDocument.parse({
-    schemaVersion: 4,
+    schemaVersion: 5,
     kind: 'plumbline.check',
     tool: { name: 'plumbline', version: VERSION },
     createdAt: createdAt.toISOString(),

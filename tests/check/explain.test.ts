@@ -9,7 +9,7 @@ import { type BeamSpec, coordinatesDoseReference, MLC_BOUNDARIES_MM, MLC_PAIRS, 
 import { typingSlip } from '../../src/check/explain.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../src/check/index.js';
 import type { CheckedBeam, DoseGrid, PhotonBeamModel, Plan } from '../../src/model/index.js';
-import { projectFieldCm, tprAt } from '../../src/physics/index.js';
+import { pddAt, projectFieldCm, tprAt } from '../../src/physics/index.js';
 import { beams, planFromSpec, oneBeamPlan } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../helpers/machines.js';
 import { phantomCt } from '../helpers/phantom-ct.js';
@@ -21,11 +21,18 @@ const iso: [number, number, number] = [0, 0, 0];
 const tpr = (d: number) => tprAt(x6, d, projectFieldCm(10, 100, 100), []);
 
 type Planted = { mu?: number[]; doseGy: number[]; depthData?: BeamSpec['depthData'] };
-function run(
-  name: string,
-  planted: Planted,
-  extra: { ct?: PatientCt; explainAll?: boolean; gantries?: number[]; ssdMm?: number; grids?: (p: Plan) => DoseGrid[] } = {},
-) {
+type Extra = {
+  ct?: PatientCt;
+  explainAll?: boolean;
+  gantries?: number[];
+  ssdMm?: number;
+  grids?: (p: Plan) => DoseGrid[];
+  jawsXMm?: [number, number];
+  machine?: typeof demo;
+  point?: [number, number, number];
+};
+function run(name: string, planted: Planted, extra: Extra = {}) {
+  const point = extra.point ?? iso;
   const gantries = extra.gantries ?? [0];
   const { plan } = planFromSpec({
     file: `${name}.dcm`,
@@ -34,18 +41,18 @@ function run(
     label: name,
     name,
     description: 'test',
-    doseReferences: [coordinatesDoseReference(1, 'point', iso, 2)],
+    doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
     fractionGroups: [
       {
         number: 1,
         fractions: 1,
         prescriptionGy: 2,
-        beams: gantries.map((_, k) => ({ number: k + 1, mu: planted.mu?.[k] ?? 100, doseGy: planted.doseGy[k]!, specPoint: iso })),
+        beams: gantries.map((_, k) => ({ number: k + 1, mu: planted.mu?.[k] ?? 100, doseGy: planted.doseGy[k]!, specPoint: point })),
       },
     ],
     beams: gantries.map((g, k) =>
       staticBeam(k + 1, `G${g}`, 6, g, extra.ssdMm ?? 900, iso, {
-        first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] },
+        first: { jawsXMm: extra.jawsXMm ?? [-50, 50], jawsYMm: [-50, 50] },
         ...(k === 0 && planted.depthData ? { depthData: planted.depthData } : {}),
       }),
     ),
@@ -54,7 +61,7 @@ function run(
     plan,
     { path: `${name}.dcm`, sha256: '' },
     {
-      machine: demo,
+      machine: extra.machine ?? demo,
       policy: DEFAULT_POLICY,
       aliases: new Map(),
       suggestPoint: false,
@@ -63,7 +70,7 @@ function run(
       explainAll: extra.explainAll ?? false,
     },
   );
-  return { plan, beams: beams(r) as CheckedBeam[] };
+  return { plan, check: r, beams: beams(r) as CheckedBeam[] };
 }
 /** Our dose (cGy) for 100 MU of a 10 × 10 AP beam at 10 cm, SAD setup: from a first run with the planning system agreeing exactly. */
 const ours = () => run('ours', { doseGy: [1] }).beams[0]!.calculation.independentDoseCGy;
@@ -192,6 +199,109 @@ describe('explaining a deviation', () => {
     const each = ours() / 100;
     const { beams: bs } = run('why-none', { doseGy: [each, each] }, { gantries: [0, 180], explainAll: true });
     for (const b of bs) expect(b.explanation!.causes.every((c) => Math.abs(c.contributionPercent) <= 0.5)).toBe(true);
+  });
+  it('a point 3 mm inside a field edge, no RT Dose: the field edge ranks first, its slope from a blurred edge', () => {
+    // A 10 × 10 field, the point 47 mm off axis in the isocenter plane (3 mm inside the edge). The edge as a step blurred by
+    // a Gaussian whose 80–20 % width is 6 mm: σ = 6/1.683 = 3.565 mm; 2 mm toward the edge the dose falls by
+    // Φ(1/3.565)/Φ(3/3.565) − 1 = Φ(0.28)/Φ(0.84) − 1 = 0.6103/0.7995 − 1 = −23.7 % (standard normal table values).
+    const point: [number, number, number] = [47, 0, 0];
+    const mine = run('why-edge-ours', { doseGy: [1] }, { point }).beams[0]!.calculation.independentDoseCGy;
+    const planted = 0.1; // the planning system's dose 10 % below ours, as one modelling the penumbra would be
+    const b = run('why-edge', { doseGy: [(mine / 100) * (1 - planted)] }, { point }).beams[0]!;
+    expect(b.fitness.edgeDistanceCm).toBeCloseTo(0.3, 6);
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('field-edge');
+    expect(first.confidence).toBe('possible');
+    expect(first.evidence.edgeChangeFor2MmPercent as number).toBeCloseTo(23.7, 0);
+    expect(Math.abs(first.contributionPercent / (100 * (1 / (1 - planted) - 1)) - 1)).toBeLessThan(0.2);
+  });
+  it('a narrow sliding window whose planning system puts the leaf ends 0.5 mm wider: the leaf ends rank first', () => {
+    // Eleven identical control points, the leaves open 10 mm around the point (the demo gap 1.5 mm widens it to 11.5 mm): every
+    // MU through an opening under 2 cm. The planted effect is the real one: the check run with the leaf-end offset 0.5 mm wider
+    // (with the point open throughout, only the output and scatter of the wider opening: small, but above noise).
+    const leaves = [...Array.from({ length: MLC_PAIRS }, () => -5), ...Array.from({ length: MLC_PAIRS }, () => 5)];
+    const base = staticBeam(1, 'WINDOW', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm: [-20, 20] } });
+    const arc: BeamSpec = {
+      ...base,
+      dynamic: true,
+      controlPoints: Array.from({ length: 11 }, (_, j) => ({
+        ...(j === 0 ? base.controlPoints[0]! : { gantryDeg: 0, jawsXMm: [-50, 50] as const, jawsYMm: [-20, 20] as const }),
+        leaves,
+        weight: j / 10,
+        doseCoefficient: j / 10,
+      })),
+    };
+    const wider = { ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, dosimetricLeafGapMm: (x.dosimetricLeafGapMm ?? 0) + 0.5 } : x)) };
+    const at = (doseGy: number, m = demo) =>
+      beams(
+        checkPlan(
+          oneBeamPlan('why-leaf-ends', arc, iso, { mu: 100, doseGy, patientId: 'WHY-3' }),
+          { path: 'e.dcm', sha256: '' },
+          { machine: m, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, explainAll: true },
+        ),
+      )[0] as CheckedBeam;
+    const theirs = at(1, wider).calculation.independentDoseCGy;
+    const b = at(theirs / 100);
+    const planted = b.calculation.doseDeviationPercent!;
+    expect(Math.abs(planted)).toBeGreaterThan(0.2);
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('leaf-end-offset');
+    expect(first.evidence.narrowMuPercent).toBeCloseTo(100, 6);
+    expect(Math.abs(first.contributionPercent / planted - 1)).toBeLessThan(0.2);
+  });
+  it('an extended SSD (120 cm) whose planning system carried the PDD by the Mayneord F factor: the extended SSD ranks first', () => {
+    // The point 10 cm deep under an SSD of 120 cm (gantry 0, surface 200 mm beyond the isocenter). Mayneord's F factor from the
+    // table's SSD f0 to f at depth d, normalised at d0: F = ((f + d0)/(f0 + d0))² · ((f0 + d)/(f + d))²; the surface field
+    // 10 cm × 120/100 = 12 cm.
+    const point: [number, number, number] = [0, 300, 0];
+    const [f0, f, d, d0, r] = [x6.pdd!.ssdCm, 120, 10, x6.calibration.d0Cm, 12];
+    const F = ((f + d0) / (f0 + d0)) ** 2 * ((f0 + d) / (f + d)) ** 2;
+    const planted = (pddAt(x6, d, r, f0, []) * F) / pddAt(x6, d, r, f, []) - 1;
+    const mine = run('why-ssd120-ours', { doseGy: [1] }, { point, ssdMm: 1200 }).beams[0]!;
+    expect(mine.calculation.ssdCm).toBeCloseTo(120, 6);
+    expect(mine.calculation.depthCm).toBeCloseTo(10, 6);
+    const b = run('why-ssd120', { doseGy: [(mine.calculation.independentDoseCGy / 100) * (1 + planted)] }, { point, ssdMm: 1200, explainAll: true })
+      .beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('extended-ssd');
+    expect(first.evidence.mayneordAgainstTprPercent as number).toBeCloseTo(100 * planted, 6);
+    expect(Math.abs(first.contributionPercent / b.calculation.doseDeviationPercent! - 1)).toBeLessThan(0.2);
+  });
+  it('names, without a share, the machine alias the plan was matched through when the deviation stays unexplained', () => {
+    const other = { ...demo, name: 'OTHER_LINAC', aliases: ['OTHER_LINAC', 'NG_LINAC1'] };
+    const mine = run('why-alias-ours', { doseGy: [1] }, { machine: other }).beams[0]!.calculation.independentDoseCGy;
+    const b = run('why-alias', { doseGy: [(mine / 100) * 0.9] }, { machine: other }).beams[0]!;
+    const alias = b.explanation!.causes.find((c) => c.code === 'machine-alias')!;
+    expect(alias.estimated).toBe(false);
+    expect(alias.contributionPercent).toBe(0);
+    expect(alias.evidence).toMatchObject({ planMachine: 'NG_LINAC1', beamData: 'OTHER_LINAC' });
+    expect(b.explanation!.unexplained).toBe(true);
+    // Matched by its own name: no alias named.
+    const same = run('why-no-alias', { doseGy: [(ours() / 100) * 0.9] }).beams[0]!;
+    expect(same.explanation!.causes.some((c) => c.code === 'machine-alias')).toBe(false);
+  });
+  it('a plan total beyond tolerance: its causes from its beams, weighed by their share of the point dose', () => {
+    // Two equal AP beams; the first's planning system states a depth 2 cm deeper (its dose TPR(12)/TPR(10) of ours), the second
+    // agrees. The total's deviation is the first's weighed by its share of the planning system's dose: p·w1 with
+    // w1 = (1/(1+p))/(1/(1+p) + 1), p = TPR(10)/TPR(12) − 1.
+    const each = ours() / 100;
+    const p = tpr(10) / tpr(12) - 1;
+    const { check, beams: bs } = run(
+      'why-total',
+      { doseGy: [each / (1 + p), each], depthData: { depthMm: 120, equivalentDepthMm: 120, ssdMm: 880 } },
+      { gantries: [0, 0] },
+    );
+    const total = check.fractionGroups[0]!.totals[0]!;
+    const w1 = 1 / (1 + p) / (1 / (1 + p) + 1);
+    expect(total.deviationPercent! / (100 * p * w1)).toBeCloseTo(1, 6);
+    const first = total.explanation!.causes[0]!;
+    expect(first.code).toBe('depth');
+    expect(first.beams).toEqual([1]);
+    expect(Math.abs(first.contributionPercent / total.deviationPercent! - 1)).toBeLessThan(0.2);
+    // The second beam, within tolerance, keeps no explanation of its own; the course total (one fraction) is explained too.
+    expect(bs[1]!.verdict).toBe('within tolerance');
+    expect(bs[1]!.explanation).toBeUndefined();
+    expect(check.courseTotals[0]!.explanation!.causes[0]!.code).toBe('depth');
   });
   it('names typing slips: a digit too many, two digits swapped, a 1 for a 7', () => {
     expect(typingSlip(1234, 10)).toBe('a digit too many (×10)');

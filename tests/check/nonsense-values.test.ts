@@ -65,7 +65,7 @@ const SOURCES = DEMO_PLAN_SPECS.map((spec) => {
 
 function document(plans: CheckDocument['plans']): CheckDocument {
   return {
-    schemaVersion: 4,
+    schemaVersion: 5,
     kind: 'plumbline.check',
     tool: { name: 'plumbline', version: 'test' },
     createdAt: '2026-12-03T00:00:00Z',

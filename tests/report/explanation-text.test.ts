@@ -33,4 +33,43 @@ describe('explanation text', () => {
     expect(html).toContain('left unexplained');
     expect(html).toContain('the plan&#39;s other beams');
   });
+  it("words a total's causes by their beams, and a cause without a share as such", () => {
+    const total: Explanation = {
+      deviationPercent: 3,
+      causes: [
+        { code: 'depth', beams: [1, 3], contributionPercent: 2.5, confidence: 'measured', evidence: { beams: '1, 3' } },
+        {
+          code: 'machine-alias',
+          contributionPercent: 0,
+          estimated: false,
+          confidence: 'possible',
+          evidence: { planMachine: 'A', beamData: 'B', via: 'x' },
+        },
+      ],
+      residualPercent: 0.49,
+      unexplained: false,
+    };
+    const lines = explanationLines(total);
+    expect(lines[1]).toBe('depth differs (beams 1, 3): +2.5 % (measured)');
+    expect(lines[2]).toBe("the plan's machine A checked with the beam data of B (x): share not estimated (possible)");
+  });
+  it('words the field edge, the leaf ends, the extended SSD and a clamped table with their numbers', () => {
+    const line = (code: Explanation['causes'][number]['code'], evidence: Record<string, number | string>) =>
+      explanationLines({
+        deviationPercent: 1,
+        causes: [{ code, contributionPercent: 1, confidence: 'possible', evidence }],
+        residualPercent: 0,
+        unexplained: false,
+      })[1];
+    expect(line('field-edge', { edgeDistanceCm: 0.3, edgeChangeFor2MmPercent: 23.7, penumbraMm: 6 })).toBe(
+      'the point 0.3 cm from the field edge: the dose there changes 23.7 % for a 2 mm shift (a 6 mm penumbra assumed): +1.0 % (possible)',
+    );
+    expect(line('leaf-end-offset', { gapMm: 1.5, spreadMm: 0.5, sensitivityPercent: 0.8, narrowMuPercent: 40 })).toContain(
+      "0.5 mm wider than the beam data's 1.5 mm our dose moves 0.8 % (40 % of the MU through openings under 2 cm at the point)",
+    );
+    expect(line('extended-ssd', { ssdCm: 120, largeSsdCm: 110, mayneordAgainstTprPercent: -1.2 })).toContain('Mayneord F factor differs -1.2 %');
+    expect(line('table-edge', { table: 'TMR', axis: 'depth', requested: 38, used: 35, unit: 'cm', clamps: 2 })).toContain(
+      "TMR looked up at depth 38.00 cm, used at the table's edge 35.00 (and 1 more)",
+    );
+  });
 });

@@ -16,7 +16,7 @@ describe('the check document', () => {
     expect(a).toEqual(b);
     expect(a.createdAt).toBe('2026-12-03T00:00:00.000Z');
     expect(a.beamData).toEqual(stamp);
-    expect(a.schemaVersion).toBe(4);
+    expect(a.schemaVersion).toBe(5);
     expect(CheckDocument.safeParse(a).success).toBe(true);
   });
 });

@@ -171,6 +171,7 @@ function segmentRows(doses: readonly SegmentDose[], mu: number): NonNullable<Cal
     ...(d.radiologicalDepthCm !== undefined ? { radiologicalDepthCm: d.radiologicalDepthCm } : {}),
     sc: d.sc,
     primaryFluence: d.primaryFluence,
+    openWidthCm: d.openWidthCm,
     spTpr: d.spTpr,
     ...(d.scatterSpTpr !== undefined ? { scatterSpTpr: d.scatterSpTpr } : {}),
     dosePerMuCGy: d.dosePerMuCGy * d.correction,

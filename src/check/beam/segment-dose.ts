@@ -26,6 +26,8 @@ export interface SegmentDose {
   readonly depthScale: number;
   /** Leaves or jaws cover the point. */
   readonly covered: boolean;
+  /** The opening's width along the leaves' travel through the point, at the isocenter plane (0 where covered). */
+  readonly openWidthCm: number;
   /** Integrated by Clarkson (else a plain rectangle by its equivalent square). */
   readonly clarkson: boolean;
   readonly radiologicalDepthCm?: number;
@@ -108,6 +110,7 @@ export function segmentDose(ctx: BeamCheckContext, data: PhotonBeamModel, s: Seg
     edgeDistanceMm: fieldEdgeDistanceMm(aperture, [], px, py),
     depthScale,
     covered: field.primaryWeight < 1,
+    openWidthCm: aperture.openWidthMm(px, py) / MM_PER_CM,
     clarkson: !!field.clarksonSectors,
     ...(traced ? { radiologicalDepthCm: traced.radiologicalDepthMm / MM_PER_CM, densityRange: traced.densityRange } : {}),
     ...(ssdDifferenceMm !== undefined ? { ssdDifferenceMm } : {}),
