@@ -115,7 +115,14 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       ? { groups: checkedGroups, courseTotals: courseTotals(checkedGroups) }
       : explainPlan(
           checkedGroups,
-          { machine: o.machine, all: o.explainAll ?? false, grids, largeSsdCm: o.policy.classification.largeSsdCm, machineMatch: machine },
+          {
+            machine: o.machine,
+            all: o.explainAll ?? false,
+            grids,
+            largeSsdCm: o.policy.classification.largeSsdCm,
+            machineMatch: machine,
+            planningSystemCorrected,
+          },
           (number) => {
             const g = plan.fractionGroups.find((x) => x.number === number)!;
             return (beamNumber, edited) => {

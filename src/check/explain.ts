@@ -1,6 +1,6 @@
 import type { BeamCheck, CheckedBeam, DeviationCause, DoseGrid, Explanation, MachineModel, PhotonBeamModel } from '../model/index.js';
 import { photonDataOf, tableEdgeCause } from './causes/beam-data.js';
-import { depthCause, depthDose, heterogeneityCause, ssdCause } from './causes/depth.js';
+import { depthCause, depthDose, heterogeneityCause, ssdCause, statedHeterogeneityCause } from './causes/depth.js';
 import { fieldEdgeCause, gradientCause } from './causes/gradient.js';
 import { LEAF_END_SPREAD_MM, leafEndCause, transmissionCause } from './causes/modulation.js';
 import { muCause } from './causes/mu-as-typed.js';
@@ -22,6 +22,8 @@ export interface ExplainOptions {
   /** How the plan's machine was matched to the beam data. */
   readonly machineMatch?: { readonly planName: string; readonly via: string } | undefined;
   readonly recheck?: Recheck | undefined;
+  /** Whether the planning system's dose is heterogeneity corrected, as its RT Dose or plan states (undefined: not known). */
+  readonly planningSystemCorrected?: boolean | undefined;
 }
 
 /**
@@ -48,6 +50,8 @@ function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], o: ExplainO
   const deviationPercent = b.calculation.doseDeviationPercent!;
   const data = photonDataOf(b, o.machine);
   const causes = measuredCauses(b, data, o.machine.sadCm);
+  const stated = statedHeterogeneityCause(b, o.planningSystemCorrected);
+  if (stated && (stated.estimated === false || Math.abs(stated.contributionPercent) >= NOISE_PERCENT)) causes.push(stated);
   const left = () => residual(deviationPercent, causes);
   const add = (c: DeviationCause | undefined) => {
     if (c) causes.push(c);

@@ -12,9 +12,11 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
     `depth: ours ${num(e, 'oursCm', 2)} cm, the planning system's ${num(e, 'planningSystemCm', 2)} cm ` +
     `(${signed(e.differenceCm as number, 2)} cm)`,
   heterogeneity: (e) =>
-    `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} ` +
-    `(equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm at ${num(e, 'planningSystemDepthCm', 2)} cm), ` +
-    `ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,
+    e.planningSystemCorrection === undefined
+      ? `heterogeneity: the planning system ${str(e, 'planningSystem')}; ours ${e.ourCorrection !== undefined ? `by ${num(e, 'ourCorrection', 4)} (the CT)` : str(e, 'ours')}`
+      : `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} ` +
+        `(equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm at ${num(e, 'planningSystemDepthCm', 2)} cm), ` +
+        `ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,
   'ssd-ct-vs-plan': (e) =>
     `SSD: the CT's ${num(e, 'ctSsdCm', 1)} cm against the plan's ${num(e, 'planSsdCm', 1)} cm puts the point at ${num(e, 'depthCm', 2)} cm, ` +
     `not ${num(e, 'depthByPlanSsdCm', 2)} cm`,

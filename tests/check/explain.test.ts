@@ -303,6 +303,53 @@ describe('explaining a deviation', () => {
     expect(bs[1]!.explanation).toBeUndefined();
     expect(check.courseTotals[0]!.explanation!.causes[0]!.code).toBe('depth');
   });
+  it('a lung slab corrected by us through the CT, the planning system stating in its RT Dose that it did not correct (WATER)', () => {
+    // Water from 10 cm above the isocenter, lung (−750 HU) from 6 to 2 cm above it. The planted effect: the TPR-ratio correction
+    // CF = TPR(d_eff)/TPR(d) (AAPM TG-71's heterogeneity correction by effective depth), d and d_eff as traced through the CT.
+    const { plan } = run('why-lung-frame', { doseGy: [1] });
+    const ct = phantomCt(
+      {
+        name: 'why-lung',
+        columns: 64,
+        rows: 64,
+        slices: 8,
+        spacingMm: [4, 4, 4],
+        originMm: [-126, -126, -14],
+        frameOfReferenceUid: plan.frameOfReferenceUid!,
+        hu: (_x, y) => (y < -100 ? -1000 : y >= -60 && y < -20 ? -750 : 0),
+      },
+      -400,
+    );
+    const water = (p: Plan): DoseGrid => ({
+      file: 'plan-dose.dcm',
+      frameOfReferenceUid: p.frameOfReferenceUid!,
+      referencedPlanUid: p.sopInstanceUid,
+      summationType: 'PLAN',
+      units: 'GY',
+      type: 'PHYSICAL',
+      columns: 2,
+      rows: 2,
+      originMm: [-10, -10, -10],
+      rowDirection: [1, 0, 0],
+      columnDirection: [0, 1, 0],
+      normal: [0, 0, 1],
+      columnSpacingMm: 20,
+      rowSpacingMm: 20,
+      frameOffsetsMm: [0, 20],
+      doseGy: new Float32Array(8).fill(1),
+      tissueHeterogeneityCorrection: ['WATER'],
+    });
+    const mine = run('why-lung-ours', { doseGy: [1] }, { ct, grids: (p) => [water(p)] }).beams[0]!;
+    const t = mine.calculation.ct!;
+    const planted = tpr(t.radiologicalDepthMm / 10) / tpr(t.geometricDepthMm / 10) - 1;
+    expect(planted).toBeGreaterThan(0.03);
+    // The planning system's dose: ours without the correction.
+    const b = run('why-lung-stated', { doseGy: [t.homogeneousDoseCGy / 100] }, { ct, grids: (p) => [water(p)], explainAll: true }).beams[0]!;
+    const first = b.explanation!.causes[0]!;
+    expect(first.code).toBe('heterogeneity');
+    expect(first.confidence).toBe('measured');
+    expect(Math.abs(first.contributionPercent / (100 * planted) - 1)).toBeLessThan(0.2);
+  });
   it('names typing slips: a digit too many, two digits swapped, a 1 for a 7', () => {
     expect(typingSlip(1234, 10)).toBe('a digit too many (×10)');
     expect(typingSlip(213, 213 / 123)).toMatch(/two digits swapped/);

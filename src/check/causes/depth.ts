@@ -81,3 +81,29 @@ export function ssdCause(b: CheckedBeam, f: (depthCm: number) => number): Deviat
     },
   };
 }
+
+/**
+ * Without the planning system's Equivalent Depth, its RT Dose's word on heterogeneity against ours:
+ * ours corrected through the CT where it says it did not correct (our correction factor is the
+ * cause, measured), or ours homogeneous where it says it corrected (named, its share not known).
+ */
+export function statedHeterogeneityCause(b: CheckedBeam, planningSystemCorrected: boolean | undefined): DeviationCause | undefined {
+  if (b.calculation.planningSystemDepths?.equivalentDepthMm !== undefined || planningSystemCorrected === undefined) return undefined;
+  const ours = b.calculation.ct?.correctionFactor ?? b.calculation.modulated?.correctionFactor;
+  if (ours !== undefined && !planningSystemCorrected)
+    return {
+      code: 'heterogeneity',
+      contributionPercent: 100 * (ours - 1),
+      confidence: 'measured',
+      evidence: { ourCorrection: ours, planningSystem: 'not corrected, as its RT Dose states' },
+    };
+  if (ours === undefined && planningSystemCorrected)
+    return {
+      code: 'heterogeneity',
+      contributionPercent: 0,
+      estimated: false,
+      confidence: 'possible',
+      evidence: { ours: 'none (no CT)', planningSystem: 'corrected, as its RT Dose or plan states' },
+    };
+  return undefined;
+}
