@@ -1,5 +1,5 @@
 import type { BeamCheck, CheckedBeam, DeviationCause, DoseGrid, Explanation, MachineModel, PhotonBeamModel } from '../model/index.js';
-import { photonDataOf, tableEdgeCause } from './causes/beam-data.js';
+import { photonDataOf, tableEdgeCause, zeroFieldCause } from './causes/beam-data.js';
 import { depthCause, depthDose, heterogeneityCause, ssdCause, statedHeterogeneityCause } from './causes/depth.js';
 import { fieldEdgeCause, gradientCause } from './causes/gradient.js';
 import { LEAF_END_SPREAD_MM, leafEndCause, transmissionCause } from './causes/modulation.js';
@@ -80,6 +80,7 @@ function explainBeam(b: CheckedBeam, others: readonly CheckedBeam[], o: ExplainO
   else {
     add(machineAliasCause(o.machineMatch?.via, o.machineMatch?.planName, o.machine.name));
     add(tableEdgeCause(b));
+    add(zeroFieldCause(b, data));
   }
   causes.sort((x, y) => Math.abs(y.contributionPercent) - Math.abs(x.contributionPercent));
   return summarised(deviationPercent, causes);

@@ -196,6 +196,7 @@ export const DeviationCause = z.object({
     'extended-ssd',
     'machine-alias',
     'table-edge',
+    'zero-field',
     'mu-as-typed',
   ]),
   /** For a plan total: the beams whose causes these are. */

@@ -43,6 +43,10 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
   'table-edge': (e) =>
     `beam data: ${str(e, 'table')} looked up at ${str(e, 'axis')} ${num(e, 'requested', 2)} ${str(e, 'unit')}, ` +
     `used at the table's edge ${num(e, 'used', 2)}${(e.clamps as number) > 1 ? ` (and ${(e.clamps as number) - 1} more)` : ''}`,
+  'zero-field': (e) =>
+    `beam data: the primary rests on TPR and Sp extrapolated to zero field from the smallest measured field ` +
+    `(${num(e, 'smallestFieldCm', 1)} cm; the field at the point ${num(e, 'irradiatedSquareCm', 1)} cm, under the leaves for ` +
+    `${num(e, 'coveredMuPercent', 0)} % of the MU)`,
   'mu-as-typed': (e) =>
     `MU as typed? ${num(e, 'plannedMu', 1)} MU planned; ${num(e, 'muAtTheOtherBeamsAgreement', 1)} MU would agree as the plan's other beams do ` +
     `(${signed(e.othersMeanDeviationPercent as number, 1)} %)${e.slip ? `: ${str(e, 'slip')}` : ''}`,
@@ -99,6 +103,7 @@ const CAUSE_SHORT: Readonly<Record<string, string>> = {
   'extended-ssd': 'extended SSD',
   'machine-alias': 'machine alias',
   'table-edge': "beam data at a table's edge",
+  'zero-field': 'beam data extrapolated to zero field',
   'mu-as-typed': 'MU as typed?',
 };
 
