@@ -2,7 +2,8 @@ import { defineConfig } from 'vitest/config';
 
 /**
  * The quick loop (`npm run test:unit`): every test that needs neither the reference tools (dcmtk,
- * dicom3tools, pydicom), nor a browser, nor the built bundle. `npm test` runs everything.
+ * dicom3tools, pydicom), nor a browser, nor a PostgreSQL server, nor the built bundle. `npm test`
+ * runs everything.
  */
 export default defineConfig({
   test: {
@@ -17,6 +18,7 @@ export default defineConfig({
       'tests/dicom/transfer-syntaxes.test.ts',
       'tests/dicom/dictionary.test.ts',
       'tests/geometry/ct-depth.test.ts',
+      'tests/service/history/postgres-store.test.ts',
     ],
     // Beam-data validation is never served from a cache in tests (tests/run/validation-cache.test.ts tests the cache itself).
     env: { PLUMBLINE_CACHE_DIR: 'off' },

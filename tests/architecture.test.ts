@@ -26,7 +26,7 @@ const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   // The command line; it may start the service (its `receive`, `watch`, `serve`, `history` commands).
   cli: ['model', 'report', 'run', 'service', 'cli', 'zod', 'commander', 'cli-progress', ...NODE],
   // Intake, the record and the page: never the command line, never below the application layer.
-  service: ['model', 'report', 'run', 'service', 'zod', 'dcmjs-dimse', 'better-sqlite3', ...NODE],
+  service: ['model', 'report', 'run', 'service', 'zod', 'dcmjs-dimse', 'better-sqlite3', 'pg', ...NODE],
   types: [],
 };
 

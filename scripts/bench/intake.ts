@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { coordinatesDoseReference, planDataset, staticBeam } from '../fixtures/plan-parts.js';
 import { RT_PLAN_STORAGE, writeDataset } from '../lib/dcmjs-writer.js';
-import { HistoryStore } from '../../src/service/history/store.js';
+import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const N = 500;
@@ -103,10 +103,10 @@ try {
     await waitListening(port);
     const t0 = process.hrtime.bigint();
     const plumbline = send(port, files);
-    const history = new HistoryStore(join(work, 'history.sqlite'));
-    while (history.listChecks().length < N) await sleep(20);
+    const history = new SqliteHistoryStore(join(work, 'history.sqlite'));
+    while ((await history.listChecks()).length < N) await sleep(20);
     const endToEnd = Number(process.hrtime.bigint() - t0) / 1e9;
-    history.close();
+    await history.close();
     receiver.kill('SIGTERM');
     results.push({ storescp, plumbline, endToEnd });
   }

@@ -138,16 +138,26 @@ export async function main(argv: readonly string[]): Promise<number> {
       outcome = await (await service()).runServe(resolveServiceConfig(opts.config));
     });
 
-  program
-    .command('history')
-    .description('the recorded checks, newest first')
+  const history = program.command('history').description('the recorded checks: listed (the default), or exported for chart rounds');
+  history
+    .command('list', { isDefault: true })
+    .description('the recorded checks, newest first (`plumbline history --config C` is the same)')
     .requiredOption('--config <file>', configOption)
     .option('--since <date>', 'only checks recorded at or after this date (YYYY-MM-DD)')
     .option('--verdict <verdict...>', "only these verdicts: 'within tolerance', 'needs review', 'not verified', 'beyond action level'")
     .option('--machine <name>', 'only this machine')
     .option('--json', 'print one versioned JSON document')
     .action(async (opts: Record<string, unknown>) => {
-      outcome = (await service()).runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
+      outcome = await (await service()).runHistory({ ...opts, config: resolveServiceConfig(String(opts.config)) });
+    });
+  history
+    .command('export')
+    .description('the chart-round list as CSV, oldest first: verdict, worst beam, likely cause and last review of each check')
+    .requiredOption('--config <file>', configOption)
+    .requiredOption('--since <date>', 'checks recorded at or after this date (YYYY-MM-DD)')
+    .option('--out <file>', 'write the CSV here (atomically) instead of to standard output')
+    .action(async (opts: Record<string, unknown>) => {
+      outcome = await (await service()).runHistoryExport({ ...opts, config: resolveServiceConfig(String(opts.config)) });
     });
 
   const beams = program.command('beams').description('commissioning beam data');

@@ -3,11 +3,15 @@ import { formatIssue, PlanVerdict, printable } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
 import { fixed, textTable } from '../report/table.js';
 import { loadServiceConfig } from '../service/config.js';
-import { CheckRecord, HistoryStore } from '../service/history/store.js';
+import { chartRoundEntry } from '../service/history/chart-round.js';
+import { chartRoundCsv } from '../service/history/export-csv.js';
+import { openHistoryStore } from '../service/history/open-store.js';
+import { CheckRecord } from '../service/history/store.js';
 import { openService, runService } from '../service/run-service.js';
 import { startWebServer } from '../service/web/server.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from '../run/index.js';
+import { writeFileAtomic } from './atomic-write.js';
 
 // Calling AE titles, file names and plan labels come from outside: shown, never interpreted by the terminal.
 const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()} ${printable(line)}\n`);
@@ -27,7 +31,7 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
       }),
     ]);
   }
-  const opened = openService(config.value);
+  const opened = await openService(config.value);
   if (!opened.ok) return refuse(opened.issues.map(formatIssue));
   if (opened.value.machines.some((m) => m.machine.invented)) stamp('beam data of an INVENTED demo machine: never for a patient');
   stamp(CAUTION);
@@ -39,7 +43,7 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
     rc ? `${rc.host}:${rc.port}` : '',
   );
   if ('exitCode' in service) {
-    opened.value.history.close();
+    await opened.value.history.close();
     return service;
   }
   if (o.watch) stamp(`watching ${o.watch}`);
@@ -52,17 +56,19 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
 export async function runServe(configFile: string): Promise<CommandOutcome> {
   const config = loadServiceConfig(configFile);
   if (!config.ok) return refuse(config.issues.map(formatIssue));
-  const history = new HistoryStore(config.value.history.database);
+  const opened = await openHistoryStore(config.value.history);
+  if (!opened.ok) return refuse(opened.issues.map(formatIssue));
+  const history = opened.value;
   stamp(CAUTION);
   const { host, port, hostNames } = config.value.serve;
   const web = await listening(() => startWebServer({ host, port, hostNames, history, log: stamp }), configFile, 'serve', `${host}:${port}`);
   if ('exitCode' in web) {
-    history.close();
+    await history.close();
     return web;
   }
   await untilStopped();
   await web.close();
-  history.close();
+  await history.close();
   return { stdout: [], stderr: ['stopped'], exitCode: 0 };
 }
 
@@ -94,7 +100,7 @@ async function listening<T extends object>(
 }
 
 export const HistoryOptions = z.object({
-  config: z.string().min(1),
+  config: z.string({ message: '--config is required' }).min(1),
   since: z
     .string()
     .regex(/^\d{4}-\d{2}-\d{2}(T[\d:.]+Z?)?$/, '--since must be a date (YYYY-MM-DD) or an ISO date-time')
@@ -115,21 +121,23 @@ export const HistoryDocument = z.object({
 });
 
 /** `plumbline history`: the recorded checks, newest first. */
-export function runHistory(raw: Record<string, unknown>): CommandOutcome {
+export async function runHistory(raw: Record<string, unknown>): Promise<CommandOutcome> {
   const p = HistoryOptions.safeParse(raw);
   if (!p.success) return refuse(p.error.issues.map((i) => i.message));
   const o = p.data;
   const config = loadServiceConfig(o.config);
   if (!config.ok) return refuse(config.issues.map(formatIssue));
-  const store = new HistoryStore(config.value.history.database);
+  const opened = await openHistoryStore(config.value.history);
+  if (!opened.ok) return refuse(opened.issues.map(formatIssue));
+  const store = opened.value;
   try {
-    const checks = store
-      .listChecks({
-        ...(o.since ? { since: o.since } : {}),
-        ...(o.verdict ? { verdicts: o.verdict } : {}),
-        ...(o.machine ? { machine: o.machine } : {}),
-      })
-      .map((c) => ({ ...c, reviews: store.reviews(c.id).length }));
+    const listed = await store.listChecks({
+      ...(o.since ? { since: o.since } : {}),
+      ...(o.verdict ? { verdicts: o.verdict } : {}),
+      ...(o.machine ? { machine: o.machine } : {}),
+    });
+    const checks = [];
+    for (const c of listed) checks.push({ ...c, reviews: (await store.reviews(c.id)).length });
     if (o.json)
       return {
         stdout: [
@@ -160,7 +168,7 @@ export function runHistory(raw: Record<string, unknown>): CommandOutcome {
     ]);
     return {
       stdout: [
-        `${checks.length} check(s) in ${config.value.history.database}`,
+        `${checks.length} check(s) in ${store.where}`,
         ...textTable(['check', 'recorded (UTC)', 'plan', 'patient', 'machine', 'verdict', 'fully verified', 'reviews'], rows).map((l) => `  ${l}`),
         '',
         CAUTION,
@@ -169,7 +177,39 @@ export function runHistory(raw: Record<string, unknown>): CommandOutcome {
       exitCode: 0,
     };
   } finally {
-    store.close();
+    await store.close();
+  }
+}
+
+export const HistoryExportOptions = z.object({
+  config: z.string().min(1),
+  since: HistoryOptions.shape.since.unwrap(),
+  out: z.string().min(1).optional(),
+});
+
+/**
+ * `plumbline history export --since D`: the chart-round list as CSV, oldest first — each check with
+ * its patient, plan, machine, verdict, worst beam and deviation, likely cause and last review.
+ * Written atomically to `--out`, or to standard output.
+ */
+export async function runHistoryExport(raw: Record<string, unknown>): Promise<CommandOutcome> {
+  const p = HistoryExportOptions.safeParse(raw);
+  if (!p.success) return refuse(p.error.issues.map((i) => (i.path[0] === 'since' && i.code === 'invalid_type' ? '--since is required' : i.message)));
+  const config = loadServiceConfig(p.data.config);
+  if (!config.ok) return refuse(config.issues.map(formatIssue));
+  const opened = await openHistoryStore(config.value.history);
+  if (!opened.ok) return refuse(opened.issues.map(formatIssue));
+  const store = opened.value;
+  try {
+    const entries = [];
+    for (const c of (await store.listChecks({ since: p.data.since })).reverse())
+      entries.push(chartRoundEntry(c, await store.result(c.id), await store.reviews(c.id)));
+    const csv = chartRoundCsv(entries);
+    if (!p.data.out) return { stdout: [csv.replace(/\r\n$/, '')], stderr: [], exitCode: 0 };
+    writeFileAtomic(p.data.out, csv);
+    return { stdout: [], stderr: [`${entries.length} check(s) since ${p.data.since} written to ${p.data.out}`], exitCode: 0 };
+  } finally {
+    await store.close();
   }
 }
 

@@ -20,6 +20,36 @@ const MaxObjectBytes = z
   .max(2 ** 31 - 1)
   .default(1024 ** 3);
 
+/**
+ * Where the history lives: a SQLite file (the embedded default; `{ "database": file }` as before),
+ * or a PostgreSQL database by URL, its password from an environment variable or a file, never in
+ * the URL (the configuration is read by people who should not learn it).
+ */
+const Postgres = z
+  .object({
+    kind: z.literal('postgres'),
+    url: z
+      .string()
+      .regex(/^postgres(ql)?:\/\//, 'a postgresql:// URL')
+      .refine((u) => !/^postgres(ql)?:\/\/[^/@]*:[^/@]*@/.test(u), 'no password in the URL: give passwordEnv or passwordFile'),
+    /** The environment variable holding the password. */
+    passwordEnv: z.string().min(1).optional(),
+    /** A file holding the password (its first line), readable by the service only. */
+    passwordFile: z.string().min(1).optional(),
+  })
+  .strict();
+export const HistoryConfig = z
+  .union([
+    z.object({ kind: z.literal('sqlite'), file: z.string().min(1) }).strict(),
+    Postgres,
+    z
+      .object({ database: z.string().min(1) })
+      .strict()
+      .transform((h) => ({ kind: 'sqlite' as const, file: h.database })),
+  ])
+  .describe('history');
+export type HistoryConfig = z.infer<typeof HistoryConfig>;
+
 export const ServiceConfig = z
   .object({
     format: z.literal('plumbline.service'),
@@ -56,7 +86,7 @@ export const ServiceConfig = z
         refused: z.string().min(1),
       })
       .strict(),
-    history: z.object({ database: z.string().min(1) }).strict(),
+    history: HistoryConfig,
     /** Beam-data manifests, one per machine (the manifest names the machine and its aliases), or 'demo'. */
     beamData: z.array(z.string().min(1)).min(1),
     policy: z.string().min(1).optional(),
@@ -97,7 +127,10 @@ export function loadServiceConfig(file: string): Result<ServiceConfig> {
     value: {
       ...c,
       folders: { inbox: at(c.folders.inbox), archive: at(c.folders.archive), refused: at(c.folders.refused) },
-      history: { database: at(c.history.database) },
+      history:
+        c.history.kind === 'sqlite'
+          ? { kind: 'sqlite', file: at(c.history.file) }
+          : { ...c.history, ...(c.history.passwordFile ? { passwordFile: at(c.history.passwordFile) } : {}) },
       beamData: c.beamData.map(at),
       ...(c.policy ? { policy: at(c.policy) } : {}),
       ...(c.ct ? { ct: { ...c.ct, density: at(c.ct.density) } } : {}),

@@ -55,7 +55,7 @@ interface Entry {
  * content hash, never by anything inside them. Idempotent: after a crash, the next pass redoes
  * only what was not recorded.
  */
-export function processInbox(ctx: PipelineContext): PipelineRound {
+export async function processInbox(ctx: PipelineContext): Promise<PipelineRound> {
   const { inbox } = ctx.config.folders;
   mkdirSync(inbox, { recursive: true });
   let refused = 0;
@@ -66,7 +66,7 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
     const e = entryOf(ctx, join(inbox, name));
     if (e === undefined) continue;
     if ('reason' in e) {
-      ctx.history.recordIntakeOutcome({
+      await ctx.history.recordIntakeOutcome({
         recordedAt: new Date(ctx.now()).toISOString(),
         outcome: 'refused',
         fileName: originalName(name),
@@ -103,11 +103,11 @@ export function processInbox(ctx: PipelineContext): PipelineRound {
     }
     // Each plan's failure is its own record (checkGroup); one here (the companions unreadable) is the
     // group's, recorded for each of its plans: either way the pass goes on with the next group.
-    let r: ReturnType<typeof checkGroup>;
+    let r: Awaited<ReturnType<typeof checkGroup>>;
     try {
-      r = checkGroup(ctx, group, plans);
+      r = await checkGroup(ctx, group, plans);
     } catch (err) {
-      for (const p of plans) recordOutcome(ctx, p, 'failed', failedReason(err));
+      for (const p of plans) await recordOutcome(ctx, p, 'failed', failedReason(err));
       setAside(ctx, group.map((e) => e.file).filter(existsSync), failedReason(err), 'failed');
       refused += plans.length;
       continue;
@@ -149,18 +149,18 @@ function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string }
  * A settled group's plans, each on its own: checked and recorded, a duplicate, or set aside as
  * refused (its input) or failed (an error of ours while checking it), each with its record.
  */
-function checkGroup(
+async function checkGroup(
   ctx: PipelineContext,
   group: readonly Entry[],
   plans: readonly Entry[],
-): { checked: number; duplicates: number; refused: number; setAside: Set<Entry> } {
+): Promise<{ checked: number; duplicates: number; refused: number; setAside: Set<Entry> }> {
   const of = (kind: string) => group.filter((e) => e.summary.kind === kind).map((e) => e.file);
   const companions = loadCompanions({ ctFiles: of('ct'), structuresFile: of('structures')[0], doseFiles: of('dose') }, ctx.config.ct, ctx.policy);
   const tally = { checked: 0, duplicates: 0, refused: 0, setAside: new Set<Entry>() };
   for (const p of plans) {
     let outcome: PlanOutcome;
     try {
-      outcome = checkOnePlan(ctx, group, p, companions);
+      outcome = await checkOnePlan(ctx, group, p, companions);
     } catch (err) {
       outcome = { failed: failedReason(err) };
     }
@@ -169,7 +169,7 @@ function checkGroup(
     else {
       // Acknowledged to the sender, so never dropped: recorded with its reason, the file kept beside it.
       const [kind, reason] = 'refused' in outcome ? (['refused', outcome.refused] as const) : (['failed', outcome.failed] as const);
-      recordOutcome(ctx, p, kind, reason);
+      await recordOutcome(ctx, p, kind, reason);
       setAside(ctx, [p.file], reason, kind);
       tally.setAside.add(p);
       tally.refused++;
@@ -183,13 +183,38 @@ const failedReason = (err: unknown): string =>
 
 type PlanOutcome = 'checked' | 'duplicate' | { readonly refused: string } | { readonly failed: string };
 
-function checkOnePlan(ctx: PipelineContext, group: readonly Entry[], p: Entry, companions: ReturnType<typeof loadCompanions>): PlanOutcome {
+/**
+ * One plan, alone across every node sharing the history: a plan another node recorded meanwhile is
+ * a duplicate, archived without a second check; else checked and recorded once.
+ */
+async function checkOnePlan(
+  ctx: PipelineContext,
+  group: readonly Entry[],
+  p: Entry,
+  companions: ReturnType<typeof loadCompanions>,
+): Promise<PlanOutcome> {
   const bytes = readFileSync(p.file);
   const content = planContentSha256(bytes, p.file);
-  if (ctx.history.alreadyChecked(p.summary.sopInstanceUid, p.sha256, content)) {
-    ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
-    return 'duplicate';
-  }
+  const key = { sopInstanceUid: p.summary.sopInstanceUid, sha256: p.sha256, contentSha256: content };
+  return ctx.history.exclusively(key, async () => {
+    if (await ctx.history.alreadyChecked(key)) return duplicate(ctx, p);
+    return checkAndRecord(ctx, group, p, companions, bytes, content);
+  });
+}
+
+function duplicate(ctx: PipelineContext, p: Entry): 'duplicate' {
+  ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} (sha256 ${p.sha256.slice(0, 12)}…) was already checked; archived`);
+  return 'duplicate';
+}
+
+async function checkAndRecord(
+  ctx: PipelineContext,
+  group: readonly Entry[],
+  p: Entry,
+  companions: ReturnType<typeof loadCompanions>,
+  bytes: Buffer,
+  content: string | undefined,
+): Promise<PlanOutcome> {
   const r = checkArrivedPlan(bytes, p.file, p.sha256, ctx.machines, ctx.policy, companions);
   if (!r.ok) return { refused: r.issues.map((i) => i.message).join('; ') };
   const { result, machine } = r.value;
@@ -201,7 +226,7 @@ function checkOnePlan(ctx: PipelineContext, group: readonly Entry[], p: Entry, c
   const inputs: CheckInput[] = group
     .filter((e) => e.summary.kind !== 'plan' || e === p)
     .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
-  const id = ctx.history.recordCheck({
+  const id = await ctx.history.recordCheck({
     recordedAt: recordedAt.toISOString(),
     result,
     planSha256: p.sha256,
@@ -212,6 +237,12 @@ function checkOnePlan(ctx: PipelineContext, group: readonly Entry[], p: Entry, c
     inputs,
     html: checkHtml(doc),
   });
+  // Recorded by another writer between our look and our insert (the database's unique key): one record
+  // stays, and the check made here was made twice — said, since `exclusively` should have kept it from happening.
+  if (id === undefined) {
+    ctx.log(`duplicate: plan ${p.summary.sopInstanceUid} was recorded by another node while it was checked here; archived`);
+    return 'duplicate';
+  }
   ctx.log(`checked plan "${result.planLabel}" (check ${id}): ${planHeadline(result)}`);
   return 'checked';
 }
@@ -240,8 +271,8 @@ function setAside(ctx: PipelineContext, files: readonly string[], why: string, o
 }
 
 /** A plan that arrived and was not checked, in the history with the reason. */
-function recordOutcome(ctx: PipelineContext, p: Entry, outcome: 'refused' | 'failed', reason: string): void {
-  ctx.history.recordIntakeOutcome({
+async function recordOutcome(ctx: PipelineContext, p: Entry, outcome: 'refused' | 'failed', reason: string): Promise<void> {
+  await ctx.history.recordIntakeOutcome({
     recordedAt: new Date(ctx.now()).toISOString(),
     outcome,
     fileName: originalName(basename(p.file)),

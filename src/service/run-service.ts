@@ -2,22 +2,22 @@ import { InternalError } from '../errors.js';
 import type { Result } from '../model/index.js';
 import { type LoadedMachine, loadBeamData, loadPolicy } from '../run/index.js';
 import type { ServiceConfig } from './config.js';
-import { HistoryStore } from './history/store.js';
+import { openHistoryStore } from './history/open-store.js';
 import { type PipelineContext, processInbox } from './pipeline.js';
 import { startReceiver } from './receiver.js';
 import { takeStableFiles, type WatchState } from './watch-folder.js';
 
 export interface RunningService {
   readonly receiverPort?: number;
-  /** Runs one pipeline pass now (also run every second). */
-  readonly pass: () => void;
+  /** Runs one pipeline pass now (also run every second); resolves when it is done. */
+  readonly pass: () => Promise<void>;
   readonly stop: () => Promise<void>;
 }
 
 const TICK_MS = 1000;
 
 /** The service's pieces from its configuration: beam data of every machine, the policy, the history. */
-export function openService(config: ServiceConfig): Result<Omit<PipelineContext, 'log' | 'now'>> {
+export async function openService(config: ServiceConfig): Promise<Result<Omit<PipelineContext, 'log' | 'now'>>> {
   const machines: LoadedMachine[] = [];
   for (const m of config.beamData) {
     const loaded = loadBeamData(m);
@@ -32,7 +32,9 @@ export function openService(config: ServiceConfig): Result<Omit<PipelineContext,
     };
   const policy = loadPolicy(config.policy);
   if (!policy.ok) return policy;
-  return { ok: true, value: { config, machines: [first, ...others], policy: policy.value, history: new HistoryStore(config.history.database) } };
+  const history = await openHistoryStore(config.history);
+  if (!history.ok) return history;
+  return { ok: true, value: { config, machines: [first, ...others], policy: policy.value, history: history.value } };
 }
 
 /**
@@ -44,19 +46,23 @@ export async function runService(
   o: { receive: boolean; watch?: string; log: (line: string) => void },
 ): Promise<RunningService> {
   const ctx: PipelineContext = { ...base, log: o.log, now: () => Date.now(), seen: new Map() };
-  let busy = false;
-  const pass = () => {
-    if (busy) return;
-    busy = true;
+  let busy: Promise<void> | undefined;
+  const once = async () => {
     try {
-      const r = processInbox(ctx);
+      const r = await processInbox(ctx);
       if (r.checked || r.duplicates || r.refused)
         o.log(`pass: ${r.checked} checked, ${r.duplicates} duplicate(s), ${r.refused} refused, ${r.waiting} waiting`);
     } catch (e) {
       o.log(`pipeline error (will retry): ${(e as Error).message}`);
-    } finally {
-      busy = false;
     }
+  };
+  // One pass at a time: a pass asked for while one runs waits for it and runs after.
+  const pass = async (): Promise<void> => {
+    while (busy) await busy;
+    busy = once().finally(() => {
+      busy = undefined;
+    });
+    return busy;
   };
   const rc = base.config.receiver;
   // runIntake refuses a `receive` without a receiver section before starting: reaching here is a bug.
@@ -85,7 +91,7 @@ export async function runService(
         o.log(`watch error (will retry): ${(e as Error).message}`);
       }
     }
-    pass();
+    if (!busy) void pass();
   }, TICK_MS);
   return {
     ...(receiver ? { receiverPort: receiver.port } : {}),
@@ -93,7 +99,8 @@ export async function runService(
     stop: async () => {
       clearInterval(timer);
       await receiver?.close();
-      base.history.close();
+      while (busy) await busy;
+      await base.history.close();
     },
   };
 }

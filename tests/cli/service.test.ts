@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { HistoryDocument } from '../../src/cli/service-commands.js';
-import { HistoryStore } from '../../src/service/history/store.js';
+import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { check, importOrThrow } from '../helpers/check-run.js';
 import { DEMO_MANIFEST, machine, manifestPath } from '../helpers/machines.js';
 
@@ -34,7 +34,7 @@ describe('plumbline history and the service configuration', () => {
     expect(r.stderr).toMatch(/receiver\.allowedCallingAeTitles\.0.*1 to 16 printable ASCII characters/);
   });
 
-  it('lists the recorded checks, filtered by verdict, as text and as a versioned JSON document', () => {
+  it('lists the recorded checks, filtered by verdict, as text and as a versioned JSON document', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-hist-cli-'));
     const file = join(dir, 'service.json');
     writeFileSync(
@@ -47,12 +47,12 @@ describe('plumbline history and the service configuration', () => {
         beamData: ['demo'],
       }),
     );
-    const store = new HistoryStore(join(dir, 'h.sqlite'));
+    const store = new SqliteHistoryStore(join(dir, 'h.sqlite'));
     for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm']) {
       const result = check(importOrThrow(manifestPath(`fixtures/demo/clinic/${f}`)), machine(DEMO_MANIFEST));
-      store.recordCheck({ recordedAt: new Date().toISOString(), result, planSha256: f, toolVersion: 'test', inputs: [], html: '' });
+      await store.recordCheck({ recordedAt: new Date().toISOString(), result, planSha256: f, toolVersion: 'test', inputs: [], html: '' });
     }
-    store.close();
+    await store.close();
     const text = run('history', '--config', file);
     expect(text.status).toBe(0);
     expect(text.stdout).toMatch(/2 check\(s\)/);
@@ -60,6 +60,64 @@ describe('plumbline history and the service configuration', () => {
     const doc = HistoryDocument.parse(JSON.parse(run('history', '--config', file, '--verdict', 'beyond action level', '--json').stdout));
     expect(doc.checks.map((c) => c.planLabel)).toEqual(['L BREAST TG']);
     expect(run('history', '--config', file, '--verdict', 'fine').stderr).toMatch(/--verdict must be/);
+  });
+
+  it("exports the chart-round list as CSV that Python's csv module reads back: one row per check, oldest first, with its review", async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-export-'));
+    const file = join(dir, 'service.json');
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { kind: 'sqlite', file: 'h.sqlite' },
+        beamData: ['demo'],
+      }),
+    );
+    const store = new SqliteHistoryStore(join(dir, 'h.sqlite'));
+    const ids: number[] = [];
+    for (const [k, f] of ['brain-laterals.dcm', 'breast-tangents.dcm'].entries()) {
+      const result = check(importOrThrow(manifestPath(`fixtures/demo/clinic/${f}`)), machine(DEMO_MANIFEST), { explain: true });
+      ids.push(
+        (await store.recordCheck({
+          recordedAt: `2026-12-0${k + 1}T09:00:00.000Z`,
+          result,
+          planSha256: f,
+          toolVersion: 'test',
+          inputs: [],
+          html: '',
+        }))!,
+      );
+    }
+    await store.addReview({
+      checkId: ids[1]!,
+      reviewer: 'Physicist, A. "Chart"',
+      reviewedAt: '2026-12-03T08:00:00.000Z',
+      accepted: false,
+      comment: '',
+    });
+    await store.close();
+    const out = join(dir, 'rounds.csv');
+    const r = run('history', 'export', '--config', file, '--since', '2026-12-01', '--out', out);
+    expect(r.status, r.stderr).toBe(0);
+    // Read back by a CSV reader of another project (Python's standard library).
+    const rows = JSON.parse(
+      spawnSync('python3', ['-c', 'import csv, json, sys; print(json.dumps(list(csv.reader(open(sys.argv[1], newline="")))))', out], {
+        encoding: 'utf8',
+      }).stdout,
+    ) as string[][];
+    expect(rows[0]).toEqual(expect.arrayContaining(['check', 'verdict', 'worst_beam', 'worst_deviation_percent', 'likely_cause', 'last_reviewer']));
+    const col = (name: string) => rows[0]!.indexOf(name);
+    expect(rows.slice(1).map((row) => row[col('plan')])).toEqual(['BRAIN LATS', 'L BREAST TG']);
+    const breast = rows[2]!;
+    expect(breast[col('verdict')]).toBe('beyond action level');
+    expect(breast[col('worst_beam')]).toBe('2');
+    expect(Number(breast[col('worst_deviation_percent')])).toBeCloseTo(10.25, 1);
+    expect(breast[col('likely_cause')]).toMatch(/^beam 2: MU as typed\? \+11\.\d %$/);
+    expect(breast[col('last_reviewer')]).toBe('Physicist, A. "Chart"');
+    expect(breast[col('last_review_accepted')]).toBe('no');
+    expect(run('history', 'export', '--config', file).stderr).toMatch(/--since/);
   });
 });
 

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { loadBeamData } from '../../src/run/index.js';
 import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
-import { HistoryStore } from '../../src/service/history/store.js';
+import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { DEMO_MANIFEST, manifestPath } from './machines.js';
 
 const machine = (() => {
@@ -26,7 +26,7 @@ export function setup() {
     settleSeconds: 30,
   });
   mkdirSync(config.folders.inbox, { recursive: true });
-  const history = new HistoryStore(config.history.database);
+  const history = new SqliteHistoryStore(join(root, 'history.sqlite'));
   const lines: string[] = [];
   let now = Date.now();
   const ctx = { config, machines: [machine], policy: DEFAULT_POLICY, history, log: (l: string) => lines.push(l), now: () => now };

@@ -12,7 +12,8 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts/fixtures/plan-parts.js';
-import { HistoryStore } from '../../src/service/history/store.js';
+import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
+import { waitFor } from '../helpers/wait-for.js';
 
 const BIN = fileURLToPath(new URL('../../dist/plumbline.mjs', import.meta.url));
 const freePort = () =>
@@ -22,11 +23,6 @@ const freePort = () =>
       s.close(() => done(p));
     });
   });
-const waitFor = async (test: () => boolean, ms: number) => {
-  const end = Date.now() + ms;
-  while (!test() && Date.now() < end) await new Promise((r) => setTimeout(r, 20));
-  return test();
-};
 
 describe('a receiver killed during a burst', () => {
   it('processes, after its restart, everything it acknowledged', async () => {
@@ -109,23 +105,24 @@ describe('a receiver killed during a burst', () => {
 
     receiver = start();
     const historyFile = join(root, 'history.sqlite');
-    const checkedLabels = () => {
-      const h = new HistoryStore(historyFile);
+    const checkedLabels = async () => {
+      const h = new SqliteHistoryStore(historyFile);
       try {
-        return new Set(h.listChecks().map((c) => c.planLabel));
+        return new Set((await h.listChecks()).map((c) => c.planLabel));
       } finally {
-        h.close();
+        await h.close();
       }
     };
     expect(
-      await waitFor(
-        () => readdirSync(inbox).filter((f) => !f.startsWith('.')).length === 0 && acknowledged.every((f) => checkedLabels().has(labels.get(f)!)),
-        60_000,
-      ),
+      await waitFor(async () => {
+        if (readdirSync(inbox).filter((f) => !f.startsWith('.')).length) return false;
+        const labelsChecked = await checkedLabels();
+        return acknowledged.every((f) => labelsChecked.has(labels.get(f)!));
+      }, 60_000),
     ).toBe(true);
-    const h = new HistoryStore(historyFile);
-    const checks = h.listChecks();
-    h.close();
+    const h = new SqliteHistoryStore(historyFile);
+    const checks = await h.listChecks();
+    await h.close();
     // None checked twice, though the kill may have fallen between a check and its archiving.
     expect(new Set(checks.map((c) => c.planSopInstanceUid)).size).toBe(checks.length);
     receiver.c.kill('SIGTERM');

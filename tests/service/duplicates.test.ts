@@ -7,7 +7,7 @@ import { processInbox } from '../../src/service/pipeline.js';
 import { clinic, put, setup } from '../helpers/inbox.js';
 
 describe('the same plan sent again in another transfer syntax', () => {
-  it('is recognised by its content and not checked twice (implicit VR written by dcmtk dcmconv)', () => {
+  it('is recognised by its content and not checked twice (implicit VR written by dcmtk dcmconv)', async () => {
     const s = setup();
     const implicit = join(s.root, 'implicit.dcm');
     const r = spawnSync('dcmconv', ['+ti', clinic('brain-laterals.dcm'), implicit], { encoding: 'utf8' }); // dcmtk
@@ -15,10 +15,10 @@ describe('the same plan sent again in another transfer syntax', () => {
     expect(readFileSync(implicit).equals(readFileSync(clinic('brain-laterals.dcm')))).toBe(false);
     put(s.config.folders.inbox, clinic('brain-laterals.dcm'));
     s.advance(60);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 1 });
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 1 });
     put(s.config.folders.inbox, implicit);
     s.advance(60);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, duplicates: 1 });
-    expect(s.history.listChecks()).toHaveLength(1);
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, duplicates: 1 });
+    expect(await s.history.listChecks()).toHaveLength(1);
   });
 });

@@ -6,6 +6,7 @@
 import { readdirSync, readFileSync, truncateSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import type { PlanKey } from '../../src/service/history/store.js';
 import { processInbox } from '../../src/service/pipeline.js';
 import { inboxNameFor } from '../../src/service/watch-folder.js';
 import { clinic, put, setup } from '../helpers/inbox.js';
@@ -15,54 +16,54 @@ import { writeVariant } from '../helpers/plan-variants.js';
 const ctDir = manifestPath('fixtures/demo/clinic-ct/pelvis-box');
 
 describe('the intake pipeline', () => {
-  it('a CT without its plan waits; after the orphan time it is archived unchecked, and said so', () => {
+  it('a CT without its plan waits; after the orphan time it is archived unchecked, and said so', async () => {
     const s = setup();
     for (const f of readdirSync(ctDir).slice(0, 3)) put(s.config.folders.inbox, join(ctDir, f));
     s.advance(3600);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 3 });
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 3 });
     s.advance(72 * 3600);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 0 });
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 0 });
     expect(s.lines.join('\n')).toMatch(/3 object\(s\) \(ct\) waited 72 h for a plan .*archived unchecked/);
   });
 
-  it('waits for the settle time, then checks each plan with its CT, records it and archives every input by content hash', () => {
+  it('waits for the settle time, then checks each plan with its CT, records it and archives every input by content hash', async () => {
     const s = setup();
     put(s.config.folders.inbox, clinic('pelvis-box.dcm'));
     put(s.config.folders.inbox, clinic('brain-laterals.dcm'));
     for (const f of readdirSync(ctDir)) put(s.config.folders.inbox, join(ctDir, f));
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 2 + readdirSync(ctDir).length });
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, waiting: 2 + readdirSync(ctDir).length });
     s.advance(31);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 2, duplicates: 0, refused: 0, waiting: 0 });
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 2, duplicates: 0, refused: 0, waiting: 0 });
     expect(readdirSync(s.config.folders.inbox)).toEqual([]);
     const archived = readdirSync(s.config.folders.archive).flatMap((d) => readdirSync(join(s.config.folders.archive, d)));
     expect(archived).toHaveLength(2 + readdirSync(ctDir).length);
     expect(archived.every((f) => /^[0-9a-f]{64}\.dcm$/.test(f))).toBe(true);
-    const checks = s.history.listChecks();
+    const checks = await s.history.listChecks();
     const pelvis = checks.find((c) => c.planLabel === 'PELVIS BOX')!;
     expect(pelvis.inputs.filter((i) => i.kind === 'ct')).toHaveLength(readdirSync(ctDir).length);
     // With its CT the pelvis plan is within tolerance (its planning system corrected for the bone).
     expect(pelvis.verdict).toBe('within tolerance');
-    expect(s.history.html(pelvis.id)).toMatch(/From the CT: SSD/);
-    expect(s.history.html(pelvis.id)).toMatch(/an aid to, never a replacement for/);
+    expect(await s.history.html(pelvis.id)).toMatch(/From the CT: SSD/);
+    expect(await s.history.html(pelvis.id)).toMatch(/an aid to, never a replacement for/);
   });
 
-  it('a second send of the same plan is archived without a second check; a non-DICOM file is refused with its reason', () => {
+  it('a second send of the same plan is archived without a second check; a non-DICOM file is refused with its reason', async () => {
     const s = setup();
     put(s.config.folders.inbox, clinic('spine-ssd.dcm'));
     s.advance(31);
-    expect(processInbox(s.ctx).checked).toBe(1);
+    expect((await processInbox(s.ctx)).checked).toBe(1);
     put(s.config.folders.inbox, clinic('spine-ssd.dcm'));
     writeFileSync(join(s.config.folders.inbox, 'notes.txt'), 'not DICOM');
     s.advance(31);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, duplicates: 1, refused: 1 });
-    expect(s.history.listChecks()).toHaveLength(1);
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, duplicates: 1, refused: 1 });
+    expect(await s.history.listChecks()).toHaveLength(1);
     expect(readdirSync(s.config.folders.refused).sort()).toHaveLength(2);
     expect(s.lines.join('\n')).toMatch(/duplicate: plan .* was already checked/);
   });
 });
 
 describe('every plan ends as a record, whatever else is in the inbox', () => {
-  it('100 plans behind two poison objects, a refused plan and a 2.2 GB sparse file: 100 checked, the rest recorded with reasons', () => {
+  it('100 plans behind two poison objects, a refused plan and a 2.2 GB sparse file: 100 checked, the rest recorded with reasons', async () => {
     const s = setup();
     const uid = (k: number, what: string) => `2.25.${what === 'sop' ? 1 : 2}${String(k).padStart(6, '0')}`;
     const plans = Array.from({ length: 102 }, (_, k) =>
@@ -86,19 +87,20 @@ describe('every plan ends as a record, whatever else is in the inbox', () => {
     const history = new Proxy(s.history, {
       get(target, prop, receiver) {
         if (prop === 'alreadyChecked')
-          return (sop: string, ...rest: [string, string?]) => {
+          return async (key: PlanKey) => {
+            const sop = key.sopInstanceUid;
             if (poison.has(sop)) throw new Error('poisoned for the test');
-            return target.alreadyChecked(sop, ...rest);
+            return target.alreadyChecked(key);
           };
         const v = Reflect.get(target, prop, receiver);
         return typeof v === 'function' ? v.bind(target) : v;
       },
     });
     s.advance(60);
-    const round = processInbox({ ...s.ctx, history });
+    const round = await processInbox({ ...s.ctx, history });
     expect(round).toMatchObject({ checked: 100, waiting: 0 });
-    expect(s.history.listChecks()).toHaveLength(100);
-    const outcomes = s.history.intakeOutcomes();
+    expect(await s.history.listChecks()).toHaveLength(100);
+    const outcomes = await s.history.intakeOutcomes();
     expect(
       outcomes
         .filter((o) => o.outcome === 'failed')
@@ -120,36 +122,36 @@ describe('every plan ends as a record, whatever else is in the inbox', () => {
 });
 
 describe('a file still being written', () => {
-  it('is refused only once it has been still for the settle time, under the name it was exported with', () => {
+  it('is refused only once it has been still for the settle time, under the name it was exported with', async () => {
     const s = setup();
     const name = inboxNameFor('/export/RP.half.dcm');
     writeFileSync(join(s.config.folders.inbox, name), readFileSync(clinic('brain-laterals.dcm')).subarray(0, 300));
-    expect(processInbox(s.ctx).refused).toBe(0);
+    expect((await processInbox(s.ctx)).refused).toBe(0);
     expect(readdirSync(s.config.folders.inbox)).toEqual([name]);
     s.advance(60);
-    expect(processInbox(s.ctx).refused).toBe(1);
-    expect(s.history.intakeOutcomes()).toEqual([expect.objectContaining({ outcome: 'refused', fileName: 'RP.half.dcm' })]);
+    expect((await processInbox(s.ctx)).refused).toBe(1);
+    expect(await s.history.intakeOutcomes()).toEqual([expect.objectContaining({ outcome: 'refused', fileName: 'RP.half.dcm' })]);
   });
 });
 
 describe('a plan the check itself refuses', () => {
-  it('a machine no beam data know is recorded as refused, as the command line refuses it, not as a check', () => {
+  it('a machine no beam data know is recorded as refused, as the command line refuses it, not as a check', async () => {
     const s = setup();
     const f = writeVariant('four-field-box.dcm', (ds) => {
       for (const b of ds.BeamSequence) b.TreatmentMachineName = 'NO_SUCH_LINAC';
     });
     put(s.config.folders.inbox, f, 'unknown-machine.dcm');
     s.advance(60);
-    expect(processInbox(s.ctx)).toMatchObject({ checked: 0, refused: 1 });
-    expect(s.history.listChecks()).toEqual([]);
-    expect(s.history.intakeOutcomes()).toEqual([
+    expect(await processInbox(s.ctx)).toMatchObject({ checked: 0, refused: 1 });
+    expect(await s.history.listChecks()).toEqual([]);
+    expect(await s.history.intakeOutcomes()).toEqual([
       expect.objectContaining({ outcome: 'refused', fileName: 'unknown-machine.dcm', reason: expect.stringMatching(/NO_SUCH_LINAC/) }),
     ]);
   });
 });
 
 describe('two plans of one frame of reference, one of them poisoned', () => {
-  it('the good one is checked and archived, the poisoned one alone recorded as failed', () => {
+  it('the good one is checked and archived, the poisoned one alone recorded as failed', async () => {
     const s = setup();
     for (const sop of ['2.25.71', '2.25.72'])
       put(
@@ -163,18 +165,19 @@ describe('two plans of one frame of reference, one of them poisoned', () => {
     const history = new Proxy(s.history, {
       get(target, prop, receiver) {
         if (prop === 'alreadyChecked')
-          return (sop: string, ...rest: [string, string?]) => {
+          return async (key: PlanKey) => {
+            const sop = key.sopInstanceUid;
             if (sop === '2.25.72') throw new Error('poisoned for the test');
-            return target.alreadyChecked(sop, ...rest);
+            return target.alreadyChecked(key);
           };
         const v = Reflect.get(target, prop, receiver);
         return typeof v === 'function' ? v.bind(target) : v;
       },
     });
     s.advance(60);
-    expect(processInbox({ ...s.ctx, history })).toMatchObject({ checked: 1, refused: 1 });
-    expect(s.history.listChecks().map((c) => c.planSopInstanceUid)).toEqual(['2.25.71']);
-    expect(s.history.intakeOutcomes().map((o) => [o.outcome, o.sopInstanceUid])).toEqual([['failed', '2.25.72']]);
+    expect(await processInbox({ ...s.ctx, history })).toMatchObject({ checked: 1, refused: 1 });
+    expect((await s.history.listChecks()).map((c) => c.planSopInstanceUid)).toEqual(['2.25.71']);
+    expect((await s.history.intakeOutcomes()).map((o) => [o.outcome, o.sopInstanceUid])).toEqual([['failed', '2.25.72']]);
     expect(readdirSync(s.config.folders.inbox)).toEqual([]);
   });
 });

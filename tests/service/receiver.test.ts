@@ -15,6 +15,7 @@ import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts
 import { runPython } from '../../scripts/lib/find-python.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { openService, type RunningService, runService } from '../../src/service/run-service.js';
+import { waitFor } from '../helpers/wait-for.js';
 import { DEMO_MANIFEST } from '../helpers/machines.js';
 
 const root = mkdtempSync(join(tmpdir(), 'plumbline-rx-'));
@@ -23,7 +24,7 @@ const config = ServiceConfig.parse({
   formatVersion: 1,
   receiver: { host: '127.0.0.1', port: 0, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'], maxObjectBytes: 64 * 1024 * 1024 },
   folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
-  history: { database: join(root, 'history.sqlite') },
+  history: { kind: 'sqlite', file: join(root, 'history.sqlite') },
   beamData: [DEMO_MANIFEST],
   settleSeconds: 0,
 });
@@ -33,7 +34,7 @@ const lines: string[] = [];
 const incoming = () => readdirSync(join(config.folders.inbox, '.incoming'));
 
 beforeAll(async () => {
-  const opened = openService(config);
+  const opened = await openService(config);
   if (!opened.ok) throw new Error(opened.issues.map((i) => i.message).join('; '));
   service = await runService(opened.value, { receive: true, log: (l) => lines.push(l) });
   port = service.receiverPort!;
@@ -57,11 +58,6 @@ const run = (cmd: string, args: string[]) =>
     c.on('exit', (status) => done({ status, stdout, stderr }));
   });
 const store = (files: string[], aet = 'NG_TPS') => run('storescu', ['-aet', aet, '-aec', 'PLUMBLINE', '127.0.0.1', String(port), ...files]);
-const waitFor = async (test: () => boolean, ms: number) => {
-  const end = Date.now() + ms;
-  while (!test() && Date.now() < end) await new Promise((r) => setTimeout(r, 50));
-  return test();
-};
 
 /** n distinct single-field plans (their own SOP instance and frame of reference each). */
 function plans(dir: string, prefix: string, n: number): string[] {
@@ -110,18 +106,15 @@ describe('the DICOM receiver', () => {
     const batches = Array.from({ length: 20 }, (_, a) => plans(join(root, 'load', String(a)), `L${a}`, 50));
     const results = await Promise.all(batches.map((b) => store(b)));
     expect(results.every((r) => r.status === 0)).toBe(true);
-    const opened = () => {
-      const o = openService(config);
-      if (!o.ok) throw new Error('open');
-      return o.value.history;
-    };
-    const history = opened();
-    expect(await waitFor(() => history.listChecks().length >= 1000, 60_000)).toBe(true);
-    const checks = history.listChecks();
+    const o = await openService(config);
+    if (!o.ok) throw new Error('open');
+    const history = o.value.history;
+    expect(await waitFor(async () => (await history.listChecks()).length >= 1000, 60_000, 50)).toBe(true);
+    const checks = await history.listChecks();
     expect(checks).toHaveLength(1000);
     expect(new Set(checks.map((c) => c.planSopInstanceUid)).size).toBe(1000);
     expect(checks.every((c) => c.verdict !== undefined)).toBe(true);
-    history.close();
+    await history.close();
     expect(readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.'))).toEqual([]);
     // Files stay in the configured folders, named by content hash: nothing in an object decides a path.
     const archived = readdirSync(config.folders.archive).flatMap((d) => readdirSync(join(config.folders.archive, d)));
@@ -135,10 +128,10 @@ describe('the DICOM receiver', () => {
     expect((await store(again)).status).toBe(0);
     await waitFor(() => readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.')).length === 0, 20_000);
     expect(lines.join('\n')).toMatch(/duplicate: plan/);
-    const o = openService(config);
+    const o = await openService(config);
     if (!o.ok) throw new Error('open');
-    expect(o.value.history.listChecks()).toHaveLength(1000);
-    o.value.history.close();
+    expect(await o.value.history.listChecks()).toHaveLength(1000);
+    await o.value.history.close();
   }, 30_000);
 
   it('an association killed in the middle of a large object leaves no partial file; an object over the size limit is refused', async () => {

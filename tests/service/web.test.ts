@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadBeamData } from '../../src/run/index.js';
 import { DEFAULT_POLICY } from '../../src/check/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
-import { HistoryStore } from '../../src/service/history/store.js';
+import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { processInbox } from '../../src/service/pipeline.js';
 import { controlLimits } from '../../src/service/web/control-limits.js';
 import { startWebServer } from '../../src/service/web/server.js';
@@ -23,11 +23,11 @@ const config = ServiceConfig.parse({
   format: 'plumbline.service',
   formatVersion: 1,
   folders: { inbox: join(root, 'inbox'), archive: join(root, 'archive'), refused: join(root, 'refused') },
-  history: { database: join(root, 'history.sqlite') },
+  history: { kind: 'sqlite', file: join(root, 'history.sqlite') },
   beamData: [DEMO_MANIFEST],
   settleSeconds: 0,
 });
-let history: HistoryStore;
+let history: SqliteHistoryStore;
 let browser: Browser;
 let base = '';
 let close: () => Promise<void>;
@@ -35,11 +35,11 @@ let close: () => Promise<void>;
 beforeAll(async () => {
   const m = loadBeamData(DEMO_MANIFEST);
   if (!m.ok) throw new Error('demo');
-  history = new HistoryStore(config.history.database);
+  history = new SqliteHistoryStore(join(root, 'history.sqlite'));
   mkdirSync(config.folders.inbox, { recursive: true });
   for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm', 'spine-ssd.dcm', 'lung-mlc.dcm'])
     copyFileSync(manifestPath(`fixtures/demo/clinic/${f}`), join(config.folders.inbox, f));
-  processInbox({ config, machines: [m.value], policy: DEFAULT_POLICY, history, log: () => {}, now: () => Date.now() + 1000 });
+  await processInbox({ config, machines: [m.value], policy: DEFAULT_POLICY, history, log: () => {}, now: () => Date.now() + 1000 });
   const web = await startWebServer({ host: '127.0.0.1', port: 0, history, log: () => {} });
   base = `http://127.0.0.1:${web.port}`;
   close = web.close;
@@ -49,7 +49,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await browser?.close();
   await close?.();
-  history?.close();
+  await history?.close();
 });
 
 describe('the chart-round page', () => {
@@ -75,10 +75,8 @@ describe('the chart-round page', () => {
     expect(await six.locator('circle.point').count()).toBe(6); // 2 laterals + 2 tangents + 1 spine + 1 MLC field
     expect(await six.locator('line.limit').count()).toBe(4); // 0 %, mean, +3σ, −3σ
     // The caption's limits are those of the beams' deviations (sample standard deviation).
-    const devs = history
-      .listChecks()
-      .flatMap((c) => history.result(c.id)!.fractionGroups.flatMap((g) => g.beams))
-      .map((b) => b.calculation!.doseDeviationPercent!);
+    const results = await Promise.all((await history.listChecks()).map((c) => history.result(c.id)));
+    const devs = results.flatMap((r) => r!.fractionGroups.flatMap((g) => g.beams)).map((b) => b.calculation!.doseDeviationPercent!);
     const lim = controlLimits(devs)!;
     expect(await six.locator('figcaption').textContent()).toContain(`limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`);
     await page.close();
@@ -99,14 +97,14 @@ describe('the chart-round page', () => {
       .poll(async () => (await page.locator('#reviews').textContent()) ?? '')
       .toMatch(/Physicist Demo: not accepted — lateral MU mistyped: replan/);
     const id = Number(/\/check\/(\d+)/.exec(page.url())![1]);
-    expect(history.reviews(id)).toHaveLength(1);
+    expect(await history.reviews(id)).toHaveLength(1);
     await page.goto(`${base}/`);
     expect(await page.locator(`tr[data-check="${id}"] td`).last().textContent()).toBe('1');
     await page.close();
   });
 
   it('refuses a review posted from another origin, and a review without a reviewer', async () => {
-    const id = history.listChecks()[0]!.id;
+    const id = (await history.listChecks())[0]!.id;
     const foreign = await fetch(`${base}/check/${id}/review`, {
       method: 'POST',
       headers: { origin: 'http://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
@@ -119,7 +117,7 @@ describe('the chart-round page', () => {
       body: 'reviewer=&accepted=yes',
     });
     expect(empty.status).toBe(400);
-    expect(history.reviews(id)).toHaveLength(0);
+    expect(await history.reviews(id)).toHaveLength(0);
   });
 
   /** A raw request, so the Host header can be set as a rebinding page would send it (fetch fixes it). */
@@ -135,7 +133,7 @@ describe('the chart-round page', () => {
     });
 
   it('answers only to its own host names: a DNS-rebinding request (another Host) reads nothing and reviews nothing', async () => {
-    const id = history.listChecks()[0]!.id;
+    const id = (await history.listChecks())[0]!.id;
     expect((await raw('GET', '/', { host: 'attacker.example:80' })).status).toBe(421);
     const post = await raw(
       'POST',
@@ -144,7 +142,7 @@ describe('the chart-round page', () => {
       'reviewer=x&accepted=yes',
     );
     expect(post.status).toBe(421);
-    expect(history.reviews(id)).toHaveLength(0);
+    expect(await history.reviews(id)).toHaveLength(0);
     expect((await raw('GET', '/', { host: new URL(base).host })).status).toBe(200);
   });
 
@@ -152,7 +150,7 @@ describe('the chart-round page', () => {
     const page = await fetch(`${base}/`);
     expect(page.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
     expect((await fetch(`${base}/`, { method: 'HEAD' })).status).toBe(200);
-    const id = history.listChecks()[0]!.id;
+    const id = (await history.listChecks())[0]!.id;
     const big = await fetch(`${base}/check/${id}/review`, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded' },

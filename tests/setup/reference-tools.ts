@@ -4,6 +4,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { findPythonWithPydicom } from '../../scripts/lib/find-python.js';
+import { postgresBinDir } from '../helpers/postgres.js';
 
 export default function setup(): void {
   const missing: string[] = [];
@@ -15,6 +16,8 @@ export default function setup(): void {
   if (!has('dciodvfy', ['-help'])) missing.push('dicom3tools');
   if (!findPythonWithPydicom()) missing.push('python3-pydicom');
   if (!has('chromium', ['--version'])) missing.push('chromium');
+  // The PostgreSQL history is tested on a server the tests start from Debian's programs.
+  if (!postgresBinDir()) missing.push('postgresql');
   if (missing.length) {
     throw new Error(
       `the tests need Debian packages that are not installed: ${missing.join(' ')}\n` +

@@ -2,8 +2,8 @@ import http from 'node:http';
 import type net from 'node:net';
 import { z } from 'zod';
 import { PlanVerdict } from '../../model/index.js';
-import { topCauseText } from '../../report/explanation-text.js';
-import type { HistoryStore, StoredResult } from '../history/store.js';
+import { topCause } from '../history/chart-round.js';
+import type { HistoryStore } from '../history/store.js';
 import { checkPage, listPage, notFoundPage, type TrendPoint } from './pages.js';
 
 const DAY_MS = 86_400_000;
@@ -44,14 +44,19 @@ export function startWebServer(o: {
       // A request naming another host (DNS rebinding: a page elsewhere resolving its name to this address) is refused.
       if (!allowedHosts(o.host, port, o.hostNames ?? []).has((req.headers.host ?? '').toLowerCase()))
         return send(res, 421, 'text/plain; charset=utf-8', 'this page answers only to its configured host names');
-      route(req, res);
+      route(req, res).catch((e) => failed(res, e));
     } catch (e) {
-      o.log(`web: ${(e as Error).message}`);
-      send(res, 500, 'text/plain; charset=utf-8', 'internal error');
+      failed(res, e);
     }
   });
 
-  function route(req: http.IncomingMessage, res: http.ServerResponse): void {
+  function failed(res: http.ServerResponse, e: unknown): void {
+    o.log(`web: ${(e as Error).message}`);
+    if (!res.headersSent) send(res, 500, 'text/plain; charset=utf-8', 'internal error');
+    else res.end();
+  }
+
+  async function route(req: http.IncomingMessage, res: http.ServerResponse): Promise<void> {
     const url = new URL(req.url ?? '/', 'http://localhost');
     const check = /^\/check\/(\d+)(\/report|\/review)?$/.exec(url.pathname);
     // HEAD is GET without the body (Node leaves the body out of a HEAD response).
@@ -59,7 +64,7 @@ export function startWebServer(o: {
     if (read && url.pathname === '/') return list(url, res);
     if (check && read && !check[2]) return one(Number(check[1]), res);
     if (check && read && check[2] === '/report') {
-      const html = o.history.html(Number(check[1]));
+      const html = await o.history.html(Number(check[1]));
       // The stored report is shown framed in its check's page, and nowhere else.
       return html
         ? send(res, 200, 'text/html; charset=utf-8', html, "'self'")
@@ -69,7 +74,7 @@ export function startWebServer(o: {
     send(res, 404, 'text/html; charset=utf-8', notFoundPage(`nothing at ${url.pathname}`));
   }
 
-  function list(url: URL, res: http.ServerResponse): void {
+  async function list(url: URL, res: http.ServerResponse): Promise<void> {
     const raw = Object.fromEntries(url.searchParams);
     const q = ListQuery.parse(raw);
     // A filter that cannot be read is said on the page, never dropped unsaid.
@@ -77,15 +82,15 @@ export function startWebServer(o: {
       .filter(([k, v]) => v !== '' && (q as Record<string, unknown>)[k] === undefined)
       .map(([k, v]) => `${k}=${v}`);
     const since = q.since ?? new Date(now() - 7 * DAY_MS).toISOString().slice(0, 10);
-    const all = o.history.listChecks({ since });
+    const all = await o.history.listChecks({ since });
     const machines = [...new Set(all.map((c) => c.machine).filter((m): m is string => !!m))].sort();
-    const checks = all
-      .filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict))
-      .map((c) => ({ ...c, reviews: o.history.reviews(c.id).length }));
+    const checks = [];
+    for (const c of all.filter((c) => (!q.machine || c.machine === q.machine) && (!q.verdict || c.verdict === q.verdict)))
+      checks.push({ ...c, reviews: (await o.history.reviews(c.id)).length });
     const trend: TrendPoint[] = [];
     const topCauses = new Map<number, string>();
     for (const c of checks) {
-      const r = o.history.result(c.id);
+      const r = await o.history.result(c.id);
       const top = topCause(r);
       if (top) topCauses.set(c.id, top);
       for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? []) {
@@ -107,20 +112,20 @@ export function startWebServer(o: {
         { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) },
         machines,
         trend,
-        o.history.intakeOutcomes(since),
+        await o.history.intakeOutcomes(since),
         ignored,
       ),
     );
   }
 
-  function one(id: number, res: http.ServerResponse): void {
-    const record = o.history.listChecks().find((c) => c.id === id);
-    const result = record ? o.history.result(id) : undefined;
+  async function one(id: number, res: http.ServerResponse): Promise<void> {
+    const [record] = await o.history.listChecks({ id });
+    const result = record ? await o.history.result(id) : undefined;
     if (!record || !result) return send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
-    send(res, 200, 'text/html; charset=utf-8', checkPage(record, result, o.history.reviews(id)));
+    send(res, 200, 'text/html; charset=utf-8', checkPage(record, result, await o.history.reviews(id)));
   }
 
-  function review(id: number, req: http.IncomingMessage, res: http.ServerResponse): void {
+  async function review(id: number, req: http.IncomingMessage, res: http.ServerResponse): Promise<void> {
     // Only the page itself may post: a form from another origin is refused.
     const origin = req.headers.origin;
     if (origin && !allowedOrigins(o.host, port, o.hostNames ?? []).has(origin.toLowerCase()))
@@ -137,22 +142,25 @@ export function startWebServer(o: {
       }
     });
     req.on('end', () => {
-      if (over) return;
-      const form = ReviewForm.safeParse(Object.fromEntries(new URLSearchParams(body)));
-      if (!form.success || !o.history.listChecks().some((c) => c.id === id)) {
-        return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
-      }
-      o.history.addReview({
-        checkId: id,
-        reviewer: form.data.reviewer,
-        reviewedAt: new Date(now()).toISOString(),
-        accepted: form.data.accepted === 'yes',
-        comment: form.data.comment,
-      });
-      o.log(`review of check ${id} by ${form.data.reviewer}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
-      res.writeHead(303, { location: `/check/${id}` });
-      res.end();
+      if (!over) recordReview(id, body, res).catch((e) => failed(res, e));
     });
+  }
+
+  async function recordReview(id: number, body: string, res: http.ServerResponse): Promise<void> {
+    const form = ReviewForm.safeParse(Object.fromEntries(new URLSearchParams(body)));
+    if (!form.success || !(await o.history.listChecks({ id })).length) {
+      return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
+    }
+    await o.history.addReview({
+      checkId: id,
+      reviewer: form.data.reviewer,
+      reviewedAt: new Date(now()).toISOString(),
+      accepted: form.data.accepted === 'yes',
+      comment: form.data.comment,
+    });
+    o.log(`review of check ${id} by ${form.data.reviewer}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
+    res.writeHead(303, { location: `/check/${id}` });
+    res.end();
   }
 
   return new Promise((resolvePromise, reject) => {
@@ -204,11 +212,3 @@ const allowedOrigins = (host: string, port: number, names: readonly string[]): S
   new Set([...allowedHosts(host, port, names)].map((h) => `http://${h}`));
 
 /** The largest cause explaining a check's beams, in words, if the result explains any. */
-function topCause(r: StoredResult | undefined): string | undefined {
-  let best: { beam?: number; code: string; value: number } | undefined;
-  for (const b of r?.fractionGroups.flatMap((g) => g.beams) ?? [])
-    for (const c of b.explanation?.causes ?? [])
-      if (!best || Math.abs(c.contributionPercent) > Math.abs(best.value))
-        best = { ...(b.beamNumber !== undefined ? { beam: b.beamNumber } : {}), code: c.code, value: c.contributionPercent };
-  return best ? topCauseText(best.beam, best.code, best.value) : undefined;
-}

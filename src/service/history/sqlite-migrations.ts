@@ -1,8 +1,9 @@
 /**
- * The history database's schema, one migration per step, applied in order and recorded in
- * `schema_migrations`. Never edit a migration that has shipped: add the next one.
+ * The SQLite history's schema, one migration per step, applied in order and recorded in
+ * `schema_migrations`; postgres-migrations.ts keeps the same versions for PostgreSQL. Never edit a
+ * migration that has shipped: add the next one, to both.
  */
-export const MIGRATIONS: readonly { readonly version: number; readonly sql: string }[] = [
+export const SQLITE_MIGRATIONS: readonly { readonly version: number; readonly sql: string }[] = [
   {
     version: 1,
     sql: `
@@ -72,6 +73,14 @@ export const MIGRATIONS: readonly { readonly version: number; readonly sql: stri
       -- The plan's content whatever its encoding (the importer's reading of it): a plan sent again in another transfer syntax is the same plan.
       ALTER TABLE checks ADD COLUMN plan_content_sha256 TEXT;
       CREATE INDEX checks_plan_content ON checks (plan_sop_instance_uid, plan_content_sha256);
+    `,
+  },
+  {
+    version: 4,
+    sql: `
+      -- One record per plan, whichever node checked it: the same SOP instance with the same file or content is one check.
+      CREATE UNIQUE INDEX checks_once_file ON checks (plan_sop_instance_uid, plan_sha256);
+      CREATE UNIQUE INDEX checks_once_content ON checks (plan_sop_instance_uid, plan_content_sha256) WHERE plan_content_sha256 IS NOT NULL;
     `,
   },
 ];
