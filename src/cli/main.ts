@@ -117,8 +117,10 @@ export async function main(argv: readonly string[]): Promise<number> {
     .command('receive')
     .description('DICOM storage receiver (C-STORE, C-ECHO): every plan received is checked and recorded')
     .requiredOption('--config <file>', configOption)
-    .action(async (opts: { config: string }) => {
-      outcome = await (await service()).runIntake(resolveServiceConfig(opts.config), { receive: true });
+    .option('--port <port>', "listen on this port instead of the configuration's (0: any free port)")
+    .option('--host <address>', "listen on this address instead of the configuration's")
+    .action(async (opts: { config: string; port?: string; host?: string }) => {
+      outcome = await (await service()).runIntake(resolveServiceConfig(opts.config), { receive: true, port: opts.port, host: opts.host });
     });
 
   program
@@ -134,8 +136,10 @@ export async function main(argv: readonly string[]): Promise<number> {
     .command('serve')
     .description("the chart-round web page on loopback: the week's checks, trends with control limits, reviews")
     .requiredOption('--config <file>', configOption)
-    .action(async (opts: { config: string }) => {
-      outcome = await (await service()).runServe(resolveServiceConfig(opts.config));
+    .option('--port <port>', "serve on this port instead of the configuration's")
+    .option('--host <address>', "serve on this address instead of the configuration's")
+    .action(async (opts: { config: string; port?: string; host?: string }) => {
+      outcome = await (await service()).runServe(resolveServiceConfig(opts.config), { port: opts.port, host: opts.host });
     });
 
   const history = program.command('history').description('the recorded checks: listed (the default), or exported for chart rounds');

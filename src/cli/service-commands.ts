@@ -16,10 +16,29 @@ import { writeFileAtomic } from './atomic-write.js';
 // Calling AE titles, file names and plan labels come from outside: shown, never interpreted by the terminal.
 const stamp = (line: string) => process.stderr.write(`${new Date().toISOString()} ${printable(line)}\n`);
 
+/** `--port` and `--host` of `receive` and `serve`, over the configuration's. */
+const ListenOverrides = z.object({
+  port: z.coerce
+    .number({ message: '--port must be a port number' })
+    .int('--port must be a whole number')
+    .min(0, '--port must be 0 to 65535')
+    .max(65535, '--port must be 0 to 65535')
+    .optional(),
+  host: z.string().trim().min(1, '--host must name an address').optional(),
+});
+type ListenOptions = { port?: string | undefined; host?: string | undefined };
+
 /** `plumbline receive` / `plumbline watch <folder>`: intake until SIGINT or SIGTERM. */
-export async function runIntake(configFile: string, o: { receive: boolean; watch?: string }): Promise<CommandOutcome> {
-  const config = loadServiceConfig(configFile);
-  if (!config.ok) return refuse(config.issues.map(formatIssue));
+export async function runIntake(configFile: string, o: { receive: boolean; watch?: string } & ListenOptions): Promise<CommandOutcome> {
+  const over = ListenOverrides.safeParse({ port: o.port, host: o.host });
+  if (!over.success) return refuse(over.error.issues.map((i) => i.message));
+  const loaded = loadServiceConfig(configFile);
+  if (!loaded.ok) return refuse(loaded.issues.map(formatIssue));
+  const rx = loaded.value.receiver;
+  const config = {
+    ok: true as const,
+    value: { ...loaded.value, ...(rx ? { receiver: { ...rx, ...definedOf(over.data) } } : {}) },
+  };
   if (o.receive && !config.value.receiver) {
     return refuse([
       formatIssue({
@@ -53,9 +72,13 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
 }
 
 /** `plumbline serve`: the chart-round page, until SIGINT or SIGTERM. */
-export async function runServe(configFile: string): Promise<CommandOutcome> {
-  const config = loadServiceConfig(configFile);
-  if (!config.ok) return refuse(config.issues.map(formatIssue));
+export async function runServe(configFile: string, o: ListenOptions = {}): Promise<CommandOutcome> {
+  const over = ListenOverrides.safeParse({ port: o.port, host: o.host });
+  if (!over.success) return refuse(over.error.issues.map((i) => i.message));
+  if (over.data.port === 0) return refuse(['--port of serve must be 1 to 65535']);
+  const loaded = loadServiceConfig(configFile);
+  if (!loaded.ok) return refuse(loaded.issues.map(formatIssue));
+  const config = { ok: true as const, value: { ...loaded.value, serve: { ...loaded.value.serve, ...definedOf(over.data) } } };
   const opened = await openHistoryStore(config.value.history);
   if (!opened.ok) return refuse(opened.issues.map(formatIssue));
   const history = opened.value;
@@ -211,6 +234,11 @@ export async function runHistoryExport(raw: Record<string, unknown>): Promise<Co
   } finally {
     await store.close();
   }
+}
+
+/** The options given, without those left out. */
+function definedOf<T extends object>(o: T): Partial<T> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as Partial<T>;
 }
 
 /** Long-running commands run until SIGINT or SIGTERM. */

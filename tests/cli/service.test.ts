@@ -150,4 +150,41 @@ describe('a port already in use', () => {
     expect(r.stderr).toMatch(new RegExp(`serve: 127\\.0\\.0\\.1:${port} is already in use.*choose another host or port`));
     expect(r.stderr).not.toMatch(/internal error|EADDRINUSE/);
   });
+
+  it('--port and --host override the configuration for serve and receive; a port that is no number is refused', async () => {
+    const blocker = createServer();
+    await new Promise<void>((done) => blocker.listen(0, '127.0.0.1', done));
+    const port = (blocker.address() as AddressInfo).port;
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-port-over-'));
+    const file = join(dir, 'service.json');
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        receiver: { host: '127.0.0.1', port: 1, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { kind: 'sqlite', file: 'h.sqlite' },
+        beamData: ['demo'],
+        serve: { host: '127.0.0.1', port: 1 },
+      }),
+    );
+    const started = (...args: string[]) =>
+      new Promise<{ status: number | null; stderr: string }>((done) => {
+        const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args, '--config', file], { cwd: ROOT });
+        let stderr = '';
+        child.stderr.on('data', (d) => (stderr += d));
+        child.on('close', (status) => done({ status, stderr }));
+      });
+    // The configuration's port 1 would be refused for want of permission; the override's port is the one found busy.
+    for (const command of ['serve', 'receive']) {
+      const r = await started(command, '--port', String(port), '--host', '127.0.0.1');
+      expect(r.status, r.stderr).toBe(2);
+      expect(r.stderr).toMatch(new RegExp(`127\\.0\\.0\\.1:${port} is already in use`));
+    }
+    blocker.close();
+    const bad = await started('serve', '--port', 'eighty');
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--port must be a port number/);
+  });
 });
