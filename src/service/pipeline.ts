@@ -5,6 +5,7 @@ import {
   beamDataStamp,
   checkArrivedPlan,
   checkDocument,
+  datasetSha256,
   type LoadedMachine,
   loadCompanions,
   planContentSha256,
@@ -17,7 +18,7 @@ import { checkHtml } from '../report/check-html.js';
 import { planHeadline } from '../report/plan-headline.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
-import { originalName } from './watch-folder.js';
+import { arrivalOf } from './inbox-names.js';
 
 export interface PipelineContext {
   readonly config: ServiceConfig;
@@ -43,7 +44,13 @@ interface Entry {
   readonly file: string;
   readonly size: number;
   readonly summary: ObjectSummary;
+  /** The file's SHA-256 (its archive name). */
   readonly sha256: string;
+  /**
+   * The hash recorded: for an object received over the network, its data set as sent (the receiver
+   * wrote the file meta group); for a file taken from the watched folder, the exported file's.
+   */
+  readonly sentSha256: string;
   readonly mtimeMs: number;
 }
 
@@ -69,7 +76,7 @@ export async function processInbox(ctx: PipelineContext): Promise<PipelineRound>
       await ctx.history.recordIntakeOutcome({
         recordedAt: new Date(ctx.now()).toISOString(),
         outcome: 'refused',
-        fileName: originalName(name),
+        ...sender(name),
         reason: e.reason,
       });
       setAside(ctx, [join(inbox, name)], e.reason, 'refused');
@@ -137,7 +144,10 @@ function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string }
   try {
     const s = readObjectSummary(file);
     if (!s.ok) return settling ? undefined : { reason: s.issues.map((i) => i.message).join('; ') };
-    const e: Entry = { file, size: st.size, summary: s.value, sha256: sha256Of(file), mtimeMs: st.mtimeMs };
+    const bytes = readFileSync(file);
+    const sha256 = createHash('sha256').update(bytes).digest('hex');
+    const sentSha256 = arrivalOf(name).received ? datasetSha256(bytes) : sha256;
+    const e: Entry = { file, size: st.size, summary: s.value, sha256, sentSha256, mtimeMs: st.mtimeMs };
     ctx.seen?.set(name, e);
     return e;
   } catch (err) {
@@ -195,7 +205,7 @@ async function checkOnePlan(
 ): Promise<PlanOutcome> {
   const bytes = readFileSync(p.file);
   const content = planContentSha256(bytes, p.file);
-  const key = { sopInstanceUid: p.summary.sopInstanceUid, sha256: p.sha256, contentSha256: content };
+  const key = { sopInstanceUid: p.summary.sopInstanceUid, sha256: p.sentSha256, contentSha256: content };
   return ctx.history.exclusively(key, async () => {
     if (await ctx.history.alreadyChecked(key)) return duplicate(ctx, p);
     return checkAndRecord(ctx, group, p, companions, bytes, content);
@@ -215,7 +225,7 @@ async function checkAndRecord(
   bytes: Buffer,
   content: string | undefined,
 ): Promise<PlanOutcome> {
-  const r = checkArrivedPlan(bytes, p.file, p.sha256, ctx.machines, ctx.policy, companions);
+  const r = checkArrivedPlan(bytes, p.file, p.sentSha256, ctx.machines, ctx.policy, companions);
   if (!r.ok) return { refused: r.issues.map((i) => i.message).join('; ') };
   const { result, machine } = r.value;
   // Refused by the check itself (a machine the beam data do not know, a field beyond the machine): as the CLI refuses it.
@@ -225,11 +235,11 @@ async function checkAndRecord(
   const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
   const inputs: CheckInput[] = group
     .filter((e) => e.summary.kind !== 'plan' || e === p)
-    .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sha256 }));
+    .map((e) => ({ kind: e.summary.kind, sopInstanceUid: e.summary.sopInstanceUid, sha256: e.sentSha256 }));
   const id = await ctx.history.recordCheck({
     recordedAt: recordedAt.toISOString(),
     result,
-    planSha256: p.sha256,
+    planSha256: p.sentSha256,
     ...(content ? { planContentSha256: content } : {}),
     toolVersion: VERSION,
     beamDataVersion: stamp.dataVersion,
@@ -264,9 +274,9 @@ function setAside(ctx: PipelineContext, files: readonly string[], why: string, o
   for (const file of files) {
     const name = randomUUID();
     renameSync(file, join(dir, `${name}.bin`));
-    writeFileSync(join(dir, `${name}.txt`), `${outcome}: ${originalName(basename(file))}\n${why}\n`);
+    writeFileSync(join(dir, `${name}.txt`), `${outcome}: ${describe(basename(file))}\n${why}\n`);
     ctx.seen?.delete(basename(file));
-    ctx.log(`${outcome} ${originalName(basename(file))} (kept as ${name}.bin): ${why}`);
+    ctx.log(`${outcome} ${describe(basename(file))} (kept as ${name}.bin): ${why}`);
   }
 }
 
@@ -275,13 +285,21 @@ async function recordOutcome(ctx: PipelineContext, p: Entry, outcome: 'refused' 
   await ctx.history.recordIntakeOutcome({
     recordedAt: new Date(ctx.now()).toISOString(),
     outcome,
-    fileName: originalName(basename(p.file)),
+    ...sender(basename(p.file)),
     sopInstanceUid: p.summary.sopInstanceUid,
-    sha256: p.sha256,
+    sha256: p.sentSha256,
     reason,
   });
 }
 
-function sha256Of(file: string): string {
-  return createHash('sha256').update(readFileSync(file)).digest('hex');
+/** The file name and sender an intake record keeps of an inbox file. */
+function sender(inboxName: string): { fileName: string; callingAeTitle?: string } {
+  const a = arrivalOf(inboxName);
+  return { fileName: a.fileName, ...(a.callingAeTitle !== undefined ? { callingAeTitle: a.callingAeTitle } : {}) };
+}
+
+/** An inbox file in words: the exported file's name, or the received object's sender. */
+function describe(inboxName: string): string {
+  const a = arrivalOf(inboxName);
+  return a.callingAeTitle !== undefined ? `${a.fileName} (from AE title ${a.callingAeTitle})` : a.fileName;
 }

@@ -7,6 +7,7 @@ import dimse from 'dcmjs-dimse';
 import { InternalError } from '../errors.js';
 import { STORAGE_CLASSES, VERSION } from '../run/index.js';
 import { PduGuard } from './pdu-guard.js';
+import { receivedName } from './inbox-names.js';
 
 const { Scp, Dataset, constants, responses, log } = dimse;
 const { CEchoResponse, CStoreResponse } = responses;
@@ -59,6 +60,8 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
   class StoreScp extends Scp {
     private readonly partial = new Set<string>();
     private readonly socket: net.Socket;
+    /** The calling AE title of the association (allowed by then), kept in each received file's inbox name. */
+    private caller = '';
 
     constructor(socket: net.Socket) {
       super(socket, {});
@@ -78,6 +81,7 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
         this.sendAssociationReject(RejectResult.Permanent, RejectSource.ServiceUser, RejectReason.CallingAeNotRecognized);
         return;
       }
+      this.caller = a.getCallingAeTitle();
       for (const { context } of a.getPresentationContexts()) {
         if (!ACCEPTED_SOP_CLASSES.has(context.getAbstractSyntaxUid())) {
           context.setResult(PresentationContextResult.RejectAbstractSyntaxNotSupported);
@@ -162,8 +166,8 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
           o.log(`refused an object of ${info.bytes()} bytes (limit ${o.maxObjectBytes})`);
           r.setStatus(REFUSED_OUT_OF_RESOURCES);
         } else {
-          // Named by a random UUID: nothing in the object decides where a file goes.
-          renameSync(info.tmp, join(o.inbox, `${randomUUID()}.dcm`));
+          // Named by a random UUID and its sender: nothing in the object decides where a file goes.
+          renameSync(info.tmp, join(o.inbox, receivedName(this.caller)));
           this.partial.delete(info.tmp);
           fsyncDirectory(o.inbox);
           r.setStatus(Status.Success);

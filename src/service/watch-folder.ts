@@ -1,22 +1,15 @@
 import { randomUUID } from 'node:crypto';
 import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
 import { basename, join } from 'node:path';
+import { inboxNameFor } from './inbox-names.js';
+
+export { inboxNameFor, originalName } from './inbox-names.js';
 
 export interface WatchState {
   /** Per file seen: its size and modification time at the last look, and since when they have not changed. */
   readonly seen: Map<string, { size: number; mtimeMs: number; stableSinceMs: number }>;
   /** Hidden files already said to be left alone (said once each). */
   readonly told?: Set<string>;
-}
-
-/** The inbox name of a file taken from the watched folder: unique, and still naming the exported file. */
-export const inboxNameFor = (exported: string): string => `${randomUUID()}${ORIGIN}${basename(exported)}`;
-const ORIGIN = '--';
-
-/** The exported file's own name from its inbox name (the receiver's names are kept as they are). */
-export function originalName(inboxName: string): string {
-  const at = inboxName.indexOf(ORIGIN);
-  return at === 36 ? inboxName.slice(at + ORIGIN.length) : inboxName;
 }
 
 /**

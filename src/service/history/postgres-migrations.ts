@@ -76,4 +76,11 @@ export const POSTGRES_MIGRATIONS: readonly { readonly version: number; readonly 
       CREATE UNIQUE INDEX checks_once_content ON checks (plan_sop_instance_uid, plan_content_sha256) WHERE plan_content_sha256 IS NOT NULL;
     `,
   },
+  {
+    version: 5,
+    sql: `
+      -- Who sent an object refused or failed at intake (received over the network).
+      ALTER TABLE intake_outcomes ADD COLUMN calling_ae_title TEXT;
+    `,
+  },
 ];

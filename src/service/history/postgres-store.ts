@@ -198,15 +198,17 @@ export class PostgresHistoryStore implements HistoryStore {
   async recordIntakeOutcome(o: Omit<IntakeOutcome, 'id'>): Promise<number> {
     const v = IntakeOutcome.omit({ id: true }).parse(o);
     const q = await this.pool.query<{ id: number }>(
-      'INSERT INTO intake_outcomes (recorded_at, outcome, file_name, sop_instance_uid, sha256, reason) VALUES ($1, $2, $3, $4, $5, $6) RETURNING id',
-      [v.recordedAt, v.outcome, v.fileName, v.sopInstanceUid ?? null, v.sha256 ?? null, v.reason],
+      `INSERT INTO intake_outcomes (recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title)
+        VALUES ($1, $2, $3, $4, $5, $6, $7) RETURNING id`,
+      [v.recordedAt, v.outcome, v.fileName, v.sopInstanceUid ?? null, v.sha256 ?? null, v.reason, v.callingAeTitle ?? null],
     );
     return q.rows[0]!.id;
   }
 
   async intakeOutcomes(since = ''): Promise<IntakeOutcome[]> {
     const q = await this.pool.query<OutcomeRow>(
-      'SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason FROM intake_outcomes WHERE recorded_at >= $1 ORDER BY id DESC',
+      `SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title FROM intake_outcomes
+        WHERE recorded_at >= $1 ORDER BY id DESC`,
       [since],
     );
     return q.rows.map(toOutcome);

@@ -76,6 +76,8 @@ export const IntakeOutcome = z.object({
   sopInstanceUid: z.string().optional(),
   sha256: z.string().optional(),
   reason: z.string(),
+  /** For an object received over the network: the calling AE title that sent it. */
+  callingAeTitle: z.string().optional(),
 });
 export type IntakeOutcome = z.infer<typeof IntakeOutcome>;
 

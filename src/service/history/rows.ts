@@ -26,6 +26,7 @@ export interface OutcomeRow {
   sop_instance_uid: string | null;
   sha256: string | null;
   reason: string;
+  calling_ae_title: string | null;
 }
 
 export function toOutcome(r: OutcomeRow): IntakeOutcome {
@@ -37,6 +38,7 @@ export function toOutcome(r: OutcomeRow): IntakeOutcome {
     ...(r.sop_instance_uid !== null ? { sopInstanceUid: r.sop_instance_uid } : {}),
     ...(r.sha256 !== null ? { sha256: r.sha256 } : {}),
     reason: r.reason,
+    ...(r.calling_ae_title !== null ? { callingAeTitle: r.calling_ae_title } : {}),
   });
 }
 

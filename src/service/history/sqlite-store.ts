@@ -171,15 +171,17 @@ export class SqliteHistoryStore implements HistoryStore {
     const v = IntakeOutcome.omit({ id: true }).parse(o);
     return Number(
       this.db
-        .prepare('INSERT INTO intake_outcomes (recorded_at, outcome, file_name, sop_instance_uid, sha256, reason) VALUES (?, ?, ?, ?, ?, ?)')
-        .run(v.recordedAt, v.outcome, v.fileName, v.sopInstanceUid ?? null, v.sha256 ?? null, v.reason).lastInsertRowid,
+        .prepare(
+          'INSERT INTO intake_outcomes (recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title) VALUES (?, ?, ?, ?, ?, ?, ?)',
+        )
+        .run(v.recordedAt, v.outcome, v.fileName, v.sopInstanceUid ?? null, v.sha256 ?? null, v.reason, v.callingAeTitle ?? null).lastInsertRowid,
     );
   }
 
   async intakeOutcomes(since = ''): Promise<IntakeOutcome[]> {
     const rows = this.db
       .prepare(
-        'SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason FROM intake_outcomes WHERE recorded_at >= ? ORDER BY id DESC',
+        'SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title FROM intake_outcomes WHERE recorded_at >= ? ORDER BY id DESC',
       )
       .all(since) as OutcomeRow[];
     return rows.map(toOutcome);

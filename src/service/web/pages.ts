@@ -83,10 +83,11 @@ function intakeTable(outcomes: readonly IntakeOutcome[]): string {
     .map(
       (o) =>
         `<tr data-intake="${o.id}"><td>${esc(o.recordedAt.replace('T', ' ').slice(0, 16))}</td><td>${esc(o.outcome)}</td>` +
-        `<td>${esc(o.fileName)}</td><td>${esc(o.sopInstanceUid ?? '—')}</td><td>${esc(o.reason)}</td></tr>`,
+        `<td>${esc(o.callingAeTitle !== undefined ? `received from AE title ${o.callingAeTitle}` : o.fileName)}</td>` +
+        `<td>${esc(o.sopInstanceUid ?? '—')}</td><td>${esc(o.reason)}</td></tr>`,
     )
     .join('');
-  return `<h2>Arrived, not checked</h2><table id="intake"><thead><tr><th>recorded (UTC)</th><th>outcome</th><th>file</th>
+  return `<h2>Arrived, not checked</h2><table id="intake"><thead><tr><th>recorded (UTC)</th><th>outcome</th><th>file or sender</th>
 <th>SOP instance</th><th>reason</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
 

@@ -30,12 +30,12 @@ export interface StoreUnderTest {
 
 export function historyContract(name: string, t: StoreUnderTest): void {
   describe(`the history store contract: ${name}`, () => {
-    it('applies its migrations once, recorded: schema version 4, again after reopening', async () => {
+    it('applies its migrations once, recorded: schema version 5, again after reopening', async () => {
       const { store, reopen } = await t.open();
-      expect(await store.schemaVersion()).toBe(4);
+      expect(await store.schemaVersion()).toBe(5);
       await store.recordCheck(newCheck());
       const again = await reopen();
-      expect(await again.schemaVersion()).toBe(4);
+      expect(await again.schemaVersion()).toBe(5);
       expect(await again.listChecks()).toHaveLength(1);
       await again.close();
       await store.close();
