@@ -13,6 +13,7 @@ import { DEFAULT_POLICY, resolveServiceConfig, VERSION } from '../run/index.js';
 
 /** The service commands load the DICOM network and SQLite modules: only when one of them runs. */
 const service = () => import('./service-commands.js');
+const accounts = () => import('./users.js');
 
 /**
  * The one place that prints and picks exit codes: 0 done and within tolerance, 1 needs review,
@@ -138,8 +139,33 @@ export async function main(argv: readonly string[]): Promise<number> {
     .requiredOption('--config <file>', configOption)
     .option('--port <port>', "serve on this port instead of the configuration's")
     .option('--host <address>', "serve on this address instead of the configuration's")
-    .action(async (opts: { config: string; port?: string; host?: string }) => {
-      outcome = await (await service()).runServe(resolveServiceConfig(opts.config), { port: opts.port, host: opts.host });
+    .option('--behind-proxy', 'a reverse proxy in front does TLS: the page may listen beyond loopback without its own')
+    .action(async (opts: { config: string; port?: string; host?: string; behindProxy?: boolean }) => {
+      outcome = await (await service()).runServe(resolveServiceConfig(opts.config), {
+        port: opts.port,
+        host: opts.host,
+        ...(opts.behindProxy ? { behindProxy: true } : {}),
+      });
+    });
+
+  const users = program.command('users').description('accounts of the chart-round page: a physicist reviews, a viewer reads');
+  users
+    .command('add')
+    .description('add an account; its password is read from standard input (asked twice at a terminal), never from the command line')
+    .argument('<name>', "the person's name, as reviews will carry it")
+    .requiredOption('--role <role>', 'physicist or viewer')
+    .requiredOption('--config <file>', configOption)
+    .option('--reset', 'set a new password for an existing account instead')
+    .action(async (name: string, opts: Record<string, unknown>) => {
+      const { readPassword } = await import('./password-prompt.js');
+      outcome = await (await accounts()).runUsersAdd({ ...opts, name, config: resolveServiceConfig(String(opts.config)) }, readPassword);
+    });
+  users
+    .command('list')
+    .description('the accounts and their roles')
+    .requiredOption('--config <file>', configOption)
+    .action(async (opts: Record<string, unknown>) => {
+      outcome = await (await accounts()).runUsersList({ config: resolveServiceConfig(String(opts.config)) });
     });
 
   const history = program.command('history').description('the recorded checks: listed (the default), or exported for chart rounds');

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { z } from 'zod';
 import { formatIssue, PlanVerdict, printable } from '../model/index.js';
 import { CAUTION } from '../report/caution.js';
@@ -8,7 +9,7 @@ import { chartRoundCsv } from '../service/history/export-csv.js';
 import { openHistoryStore } from '../service/history/open-store.js';
 import { CheckRecord } from '../service/history/store.js';
 import { openService, runService } from '../service/run-service.js';
-import { startWebServer } from '../service/web/server.js';
+import { isLoopback, startWebServer } from '../service/web/server.js';
 import type { CommandOutcome } from './outcome.js';
 import { VERSION } from '../run/index.js';
 import { writeFileAtomic } from './atomic-write.js';
@@ -72,19 +73,47 @@ export async function runIntake(configFile: string, o: { receive: boolean; watch
 }
 
 /** `plumbline serve`: the chart-round page, until SIGINT or SIGTERM. */
-export async function runServe(configFile: string, o: ListenOptions = {}): Promise<CommandOutcome> {
+export async function runServe(configFile: string, o: ListenOptions & { behindProxy?: boolean } = {}): Promise<CommandOutcome> {
   const over = ListenOverrides.safeParse({ port: o.port, host: o.host });
   if (!over.success) return refuse(over.error.issues.map((i) => i.message));
   if (over.data.port === 0) return refuse(['--port of serve must be 1 to 65535']);
   const loaded = loadServiceConfig(configFile);
   if (!loaded.ok) return refuse(loaded.issues.map(formatIssue));
-  const config = { ok: true as const, value: { ...loaded.value, serve: { ...loaded.value.serve, ...definedOf(over.data) } } };
-  const opened = await openHistoryStore(config.value.history);
+  const serve = { ...loaded.value.serve, ...definedOf(over.data), ...(o.behindProxy ? { behindProxy: true } : {}) };
+  // Beyond this machine, sign-in cookies and passwords travel the network: only over TLS, ours or a proxy's.
+  if (!isLoopback(serve.host) && !serve.tls && !serve.behindProxy)
+    return refuse([
+      formatIssue({
+        severity: 'error',
+        code: 'invalid-option',
+        file: configFile,
+        path: 'serve',
+        message: `the page would listen on ${serve.host}, beyond this machine, without TLS: give serve.tls (certificate and key) or --behind-proxy`,
+      }),
+    ]);
+  const tls = serve.tls ? readTls(serve.tls, configFile) : undefined;
+  if (tls && 'exitCode' in tls) return tls;
+  const opened = await openHistoryStore(loaded.value.history);
   if (!opened.ok) return refuse(opened.issues.map(formatIssue));
   const history = opened.value;
   stamp(CAUTION);
-  const { host, port, hostNames } = config.value.serve;
-  const web = await listening(() => startWebServer({ host, port, hostNames, history, log: stamp }), configFile, 'serve', `${host}:${port}`);
+  const { host, port, hostNames } = serve;
+  const web = await listening(
+    () =>
+      startWebServer({
+        host,
+        port,
+        hostNames,
+        history,
+        log: stamp,
+        behindProxy: serve.behindProxy,
+        sessionHours: serve.sessionHours,
+        ...(tls ? { tls } : {}),
+      }),
+    configFile,
+    'serve',
+    `${host}:${port}`,
+  );
   if ('exitCode' in web) {
     await history.close();
     return web;
@@ -233,6 +262,24 @@ export async function runHistoryExport(raw: Record<string, unknown>): Promise<Co
     return { stdout: [], stderr: [`${entries.length} check(s) since ${p.data.since} written to ${p.data.out}`], exitCode: 0 };
   } finally {
     await store.close();
+  }
+}
+
+/** The page's certificate and key, read once at start; a file that cannot be read is the configuration's problem. */
+function readTls(t: { cert: string; key: string }, configFile: string): { cert: Buffer; key: Buffer } | CommandOutcome {
+  try {
+    return { cert: readFileSync(t.cert), key: readFileSync(t.key) };
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code ?? String(e);
+    return refuse([
+      formatIssue({
+        severity: 'error',
+        code: 'invalid-option',
+        file: configFile,
+        path: 'serve.tls',
+        message: `the certificate or key cannot be read (${code})`,
+      }),
+    ]);
   }
 }
 

@@ -108,9 +108,18 @@ export const ServiceConfig = z
         port: z.number().int().min(1).max(65535).default(8470),
         /** Other names the page is reached by (this machine's DNS name): any other Host header is refused. */
         hostNames: z.array(z.string().min(1)).default([]),
+        /** The page over TLS: certificate and key files (PEM). Required to serve beyond loopback, unless behind a proxy. */
+        tls: z
+          .object({ cert: z.string().min(1), key: z.string().min(1) })
+          .strict()
+          .optional(),
+        /** A reverse proxy in front does TLS: the page may listen beyond loopback without its own, and its cookies say Secure. */
+        behindProxy: z.boolean().default(false),
+        /** Hours a sign-in lasts. */
+        sessionHours: z.number().positive().max(24).default(8),
       })
       .strict()
-      .default({ host: '127.0.0.1', port: 8470, hostNames: [] }),
+      .default({ host: '127.0.0.1', port: 8470, hostNames: [], behindProxy: false, sessionHours: 8 }),
   })
   .strict();
 export type ServiceConfig = z.infer<typeof ServiceConfig>;
@@ -134,6 +143,7 @@ export function loadServiceConfig(file: string): Result<ServiceConfig> {
       beamData: c.beamData.map(at),
       ...(c.policy ? { policy: at(c.policy) } : {}),
       ...(c.ct ? { ct: { ...c.ct, density: at(c.ct.density) } } : {}),
+      serve: { ...c.serve, ...(c.serve.tls ? { tls: { cert: at(c.serve.tls.cert), key: at(c.serve.tls.key) } } : {}) },
     },
   };
 }

@@ -188,3 +188,110 @@ describe('a port already in use', () => {
     expect(bad.stderr).toMatch(/--port must be a port number/);
   });
 });
+
+describe('accounts of the page and where it may listen', () => {
+  const configIn = (dir: string, serve: Record<string, unknown> = {}) => {
+    const file = join(dir, 'service.json');
+    writeFileSync(
+      file,
+      JSON.stringify({
+        format: 'plumbline.service',
+        formatVersion: 1,
+        folders: { inbox: 'i', archive: 'a', refused: 'r' },
+        history: { kind: 'sqlite', file: 'h.sqlite' },
+        beamData: ['demo'],
+        serve,
+      }),
+    );
+    return file;
+  };
+  const withInput = (input: string, ...args: string[]) =>
+    spawnSync(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args], { cwd: ROOT, encoding: 'utf8', input });
+
+  it('users add reads the password from standard input, keeps only its scrypt hash, refuses a short one and a second account of a name', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-users-'));
+    const file = configIn(dir);
+    const added = withInput('a long demo passphrase\n', 'users', 'add', 'Physicist A', '--role', 'physicist', '--config', file);
+    expect(added.status, added.stderr).toBe(0);
+    expect(added.stdout).toMatch(/account Physicist A \(physicist\) added/);
+    expect(withInput('short\n', 'users', 'add', 'Viewer B', '--role', 'viewer', '--config', file).stderr).toMatch(/at least 12 characters/);
+    expect(withInput('a long demo passphrase\n', 'users', 'add', 'Physicist A', '--role', 'viewer', '--config', file).stderr).toMatch(
+      /exists already/,
+    );
+    expect(withInput('x\n', 'users', 'add', 'Physicist A', '--role', 'admin', '--config', file).stderr).toMatch(/--role must be physicist or viewer/);
+    const store = new SqliteHistoryStore(join(dir, 'h.sqlite'));
+    const u = (await store.user('Physicist A'))!;
+    await store.close();
+    expect(u.role).toBe('physicist');
+    expect(u.passwordHash).toMatch(/^scrypt\$16384\$8\$1\$/);
+    expect(u.passwordHash).not.toContain('passphrase');
+    expect(run('users', 'list', '--config', file).stdout).toMatch(/^Physicist A\tphysicist\tsince \d{4}-\d{2}-\d{2}$/m);
+  });
+
+  it('serve refuses an address beyond loopback without TLS or --behind-proxy (exit 2), naming both', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-serve-net-'));
+    const r = run('serve', '--config', configIn(dir, { host: '0.0.0.0', port: 8471 }));
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/beyond this machine, without TLS: give serve\.tls \(certificate and key\) or --behind-proxy/);
+  });
+
+  it('serves over TLS with the configured certificate: the sign-in cookie says Secure', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-serve-tls-'));
+    const made = spawnSync(
+      'openssl',
+      [
+        'req',
+        '-x509',
+        '-newkey',
+        'rsa:2048',
+        '-nodes',
+        '-keyout',
+        join(dir, 'key.pem'),
+        '-out',
+        join(dir, 'cert.pem'),
+        '-days',
+        '1',
+        '-subj',
+        '/CN=127.0.0.1',
+      ],
+      { encoding: 'utf8' },
+    );
+    expect(made.status, made.stderr).toBe(0);
+    const blocker = createServer();
+    await new Promise<void>((done) => blocker.listen(0, '127.0.0.1', done));
+    const port = (blocker.address() as AddressInfo).port;
+    await new Promise<void>((done) => blocker.close(() => done()));
+    const file = configIn(dir, { host: '127.0.0.1', port, tls: { cert: 'cert.pem', key: 'key.pem' } });
+    expect(withInput('a long demo passphrase\n', 'users', 'add', 'Viewer B', '--role', 'viewer', '--config', file).status).toBe(0);
+    const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'serve', '--config', file], { cwd: ROOT });
+    let log = '';
+    child.stderr.on('data', (d) => (log += d));
+    try {
+      const { waitFor } = await import('../helpers/wait-for.js');
+      expect(await waitFor(() => log.includes(`https://127.0.0.1:${port}/`), 20_000)).toBe(true);
+      const { request } = await import('node:https');
+      const res = await new Promise<{ status: number; cookie: string }>((done, fail) => {
+        const req = request(
+          {
+            host: '127.0.0.1',
+            port,
+            path: '/signin',
+            method: 'POST',
+            rejectUnauthorized: false,
+            headers: { 'content-type': 'application/x-www-form-urlencoded' },
+          },
+          (r) => {
+            r.resume();
+            done({ status: r.statusCode ?? 0, cookie: String(r.headers['set-cookie'] ?? '') });
+          },
+        );
+        req.on('error', fail);
+        req.end('name=Viewer+B&password=a+long+demo+passphrase');
+      });
+      expect(res.status).toBe(303);
+      expect(res.cookie).toMatch(/HttpOnly; SameSite=Strict; Path=\/; Max-Age=28800; Secure$/);
+    } finally {
+      child.kill('SIGTERM');
+    }
+  });
+});

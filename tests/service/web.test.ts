@@ -1,20 +1,23 @@
 /**
  * The chart-round page in a real browser: Debian's headless Chromium driven by playwright-core (no
- * browser download), over a history filled by the intake pipeline from the demo clinic.
+ * browser download), over a history filled by the intake pipeline from the demo clinic. Signed in:
+ * a physicist reviews under their own name, a viewer reads, every form carries its sign-in's token.
  */
 import { copyFileSync, mkdirSync, mkdtempSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { type Browser, chromium } from 'playwright-core';
+import { type Browser, chromium, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadBeamData } from '../../src/run/index.js';
 import { DEFAULT_POLICY } from '../../src/check/index.js';
+import { loadBeamData } from '../../src/run/index.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { processInbox } from '../../src/service/pipeline.js';
 import { controlLimits } from '../../src/service/web/control-limits.js';
+import { hashPassword } from '../../src/service/web/passwords.js';
 import { startWebServer } from '../../src/service/web/server.js';
+import { FAILURE_WINDOW_MS, MAX_FAILURES } from '../../src/service/web/sessions.js';
 import { chromiumPath } from '../helpers/browser.js';
 import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
 
@@ -27,10 +30,13 @@ const config = ServiceConfig.parse({
   beamData: [DEMO_MANIFEST],
   settleSeconds: 0,
 });
+const PHYSICIST = { name: 'Physicist Demo', password: 'a long demo passphrase' };
+const VIEWER = { name: 'Viewer Demo', password: 'another demo passphrase' };
 let history: SqliteHistoryStore;
 let browser: Browser;
 let base = '';
 let close: () => Promise<void>;
+let clock = Date.now();
 
 beforeAll(async () => {
   const m = loadBeamData(DEMO_MANIFEST);
@@ -40,7 +46,10 @@ beforeAll(async () => {
   for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm', 'spine-ssd.dcm', 'lung-mlc.dcm'])
     copyFileSync(manifestPath(`fixtures/demo/clinic/${f}`), join(config.folders.inbox, f));
   await processInbox({ config, machines: [m.value], policy: DEFAULT_POLICY, history, log: () => {}, now: () => Date.now() + 1000 });
-  const web = await startWebServer({ host: '127.0.0.1', port: 0, history, log: () => {} });
+  const createdAt = new Date().toISOString();
+  await history.addUser({ name: PHYSICIST.name, role: 'physicist', passwordHash: await hashPassword(PHYSICIST.password), createdAt });
+  await history.addUser({ name: VIEWER.name, role: 'viewer', passwordHash: await hashPassword(VIEWER.password), createdAt });
+  const web = await startWebServer({ host: '127.0.0.1', port: 0, history, log: () => {}, now: () => clock });
   base = `http://127.0.0.1:${web.port}`;
   close = web.close;
   // As root (CI containers) Chromium needs --no-sandbox.
@@ -52,14 +61,62 @@ afterAll(async () => {
   await history?.close();
 });
 
+/** A browser page signed in as the user (its own context: its own cookies). */
+async function signedIn(user: { name: string; password: string }): Promise<Page> {
+  const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
+  await page.goto(`${base}/`);
+  expect(page.url()).toBe(`${base}/signin`);
+  await page.fill('input[name="name"]', user.name);
+  await page.fill('input[name="password"]', user.password);
+  await page.click('#signin button[type="submit"]');
+  await expect.poll(() => page.url()).toBe(`${base}/`);
+  return page;
+}
+
+/** A sign-in by fetch: its cookie and the CSRF token its forms carry. */
+async function session(user: { name: string; password: string }): Promise<{ cookie: string; csrf: string; setCookie: string }> {
+  const r = await fetch(`${base}/signin`, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: new URLSearchParams(user).toString(),
+  });
+  expect(r.status).toBe(303);
+  const setCookie = r.headers.get('set-cookie')!;
+  const cookie = setCookie.split(';')[0]!;
+  const home = await (await fetch(`${base}/`, { headers: { cookie } })).text();
+  const csrf = /name="csrf" value="([^"]+)"/.exec(home)![1]!;
+  return { cookie, csrf, setCookie };
+}
+
+const post = (path: string, body: string, headers: Record<string, string> = {}) =>
+  fetch(`${base}${path}`, { method: 'POST', redirect: 'manual', headers: { 'content-type': 'application/x-www-form-urlencoded', ...headers }, body });
+
 describe('the chart-round page', () => {
+  it('asks for a sign-in before anything: pages lead to it, a review unsigned is refused', async () => {
+    const r = await fetch(`${base}/`, { redirect: 'manual' });
+    expect(r.status).toBe(303);
+    expect(r.headers.get('location')).toBe('/signin');
+    const id = (await history.listChecks())[0]!.id;
+    expect((await post(`/check/${id}/review`, 'accepted=yes')).status).toBe(401);
+    expect((await fetch(`${base}/check/${id}/report`, { redirect: 'manual' })).status).toBe(303);
+  });
+
+  it('signs in with a cookie scripts cannot read and other sites never send, for the hours set', async () => {
+    const { setCookie } = await session(VIEWER);
+    expect(setCookie).toMatch(/^plumbline_session=[\w-]{43}; HttpOnly; SameSite=Strict; Path=\/; Max-Age=28800$/);
+    const wrong = await post('/signin', new URLSearchParams({ name: VIEWER.name, password: 'not it at all' }).toString());
+    expect(wrong.status).toBe(401);
+    expect(await wrong.text()).toMatch(/The name or the password is not right/);
+  });
+
   it("lists the week's plans with verdict counts and filters them by verdict", async () => {
-    const page = await browser.newPage();
-    await page.goto(`${base}/`);
+    const page = await signedIn(VIEWER);
+    expect(await page.locator('#who').textContent()).toBe('Viewer Demo (viewer)');
     expect(await page.locator('#checks tbody tr').count()).toBe(4);
     expect(await page.locator('[data-verdict="beyond action level"] b').textContent()).toBe('1');
     await page.selectOption('select[name="verdict"]', 'beyond action level');
-    await page.click('button[type="submit"]');
+    await page.click('form.filters button[type="submit"]');
     expect(await page.locator('#checks tbody tr').count()).toBe(1);
     expect(await page.locator('#checks tbody tr td a').textContent()).toBe('L BREAST TG');
     // The likely cause of its deviation beside it: the lateral tangent's MU as typed (planted 10 % high in the demo).
@@ -69,8 +126,7 @@ describe('the chart-round page', () => {
   });
 
   it('shows a trend per machine and energy with the mean and ±3σ control limits of its points', async () => {
-    const page = await browser.newPage();
-    await page.goto(`${base}/`);
+    const page = await signedIn(VIEWER);
     const six = page.locator('figure.trend[data-series="NG_LINAC1 6 MV"]');
     expect(await six.locator('circle.point').count()).toBe(6); // 2 laterals + 2 tangents + 1 spine + 1 MLC field
     expect(await six.locator('line.limit').count()).toBe(4); // 0 %, mean, +3σ, −3σ
@@ -82,14 +138,13 @@ describe('the chart-round page', () => {
     await page.close();
   });
 
-  it("opens a plan's report (the same HTML as check --html) and adds a review as a new record", async () => {
-    const page = await browser.newPage();
-    await page.goto(`${base}/`);
+  it("a physicist opens a plan's report (the same HTML as check --html) and reviews it under their own name, a new record", async () => {
+    const page = await signedIn(PHYSICIST);
     await page.click('text=L BREAST TG');
     await expect.poll(() => page.url()).toMatch(/\/check\/\d+$/);
     const report = page.frameLocator('iframe[title="report"]');
     await expect.poll(async () => (await report.locator('body').textContent()) ?? '').toMatch(/L BREAST TG[\s\S]*an aid to, never a replacement for/);
-    await page.fill('input[name="reviewer"]', 'Physicist Demo');
+    expect(await page.locator('input[name="reviewer"]').count()).toBe(0);
     await page.check('input[name="accepted"][value="no"]');
     await page.fill('input[name="comment"]', 'lateral MU mistyped: replan');
     await page.click('#review button[type="submit"]');
@@ -97,27 +152,41 @@ describe('the chart-round page', () => {
       .poll(async () => (await page.locator('#reviews').textContent()) ?? '')
       .toMatch(/Physicist Demo: not accepted — lateral MU mistyped: replan/);
     const id = Number(/\/check\/(\d+)/.exec(page.url())![1]);
-    expect(await history.reviews(id)).toHaveLength(1);
+    expect((await history.reviews(id)).map((r) => r.reviewer)).toEqual(['Physicist Demo']);
     await page.goto(`${base}/`);
     expect(await page.locator(`tr[data-check="${id}"] td`).last().textContent()).toBe('1');
     await page.close();
   });
 
-  it('refuses a review posted from another origin, and a review without a reviewer', async () => {
-    const id = (await history.listChecks())[0]!.id;
-    const foreign = await fetch(`${base}/check/${id}/review`, {
-      method: 'POST',
-      headers: { origin: 'http://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
-      body: 'reviewer=x&accepted=yes',
+  it('a viewer reads but cannot review: no form on the page, and a review posted with their token is refused', async () => {
+    const page = await signedIn(VIEWER);
+    await page.click('text=BRAIN LATS');
+    await expect.poll(() => page.url()).toMatch(/\/check\/\d+$/);
+    expect(await page.locator('#review').count()).toBe(0);
+    expect(await page.locator('#read-only').textContent()).toMatch(/reviews are recorded by physicists/);
+    const id = Number(/\/check\/(\d+)/.exec(page.url())![1]);
+    await page.close();
+    const v = await session(VIEWER);
+    const r = await post(`/check/${id}/review`, `csrf=${encodeURIComponent(v.csrf)}&accepted=yes`, { cookie: v.cookie });
+    expect(r.status).toBe(403);
+    expect(await history.reviews(id)).toHaveLength(0);
+  });
+
+  it("refuses a physicist's review without the sign-in's token, with another's, or from another origin", async () => {
+    const id = (await history.listChecks()).find((c) => c.planLabel === 'BRAIN LATS')!.id;
+    const p = await session(PHYSICIST);
+    const other = await session(PHYSICIST);
+    expect((await post(`/check/${id}/review`, 'accepted=yes', { cookie: p.cookie })).status).toBe(403);
+    expect((await post(`/check/${id}/review`, `csrf=${encodeURIComponent(other.csrf)}&accepted=yes`, { cookie: p.cookie })).status).toBe(403);
+    const foreign = await post(`/check/${id}/review`, `csrf=${encodeURIComponent(p.csrf)}&accepted=yes`, {
+      cookie: p.cookie,
+      origin: 'http://elsewhere.example',
     });
     expect(foreign.status).toBe(403);
-    const empty = await fetch(`${base}/check/${id}/review`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/x-www-form-urlencoded' },
-      body: 'reviewer=&accepted=yes',
-    });
-    expect(empty.status).toBe(400);
     expect(await history.reviews(id)).toHaveLength(0);
+    // With its own token: recorded.
+    expect((await post(`/check/${id}/review`, `csrf=${encodeURIComponent(p.csrf)}&accepted=yes`, { cookie: p.cookie })).status).toBe(303);
+    expect((await history.reviews(id)).map((r) => [r.reviewer, r.accepted])).toEqual([['Physicist Demo', true]]);
   });
 
   /** A raw request, so the Host header can be set as a rebinding page would send it (fetch fixes it). */
@@ -134,30 +203,46 @@ describe('the chart-round page', () => {
 
   it('answers only to its own host names: a DNS-rebinding request (another Host) reads nothing and reviews nothing', async () => {
     const id = (await history.listChecks())[0]!.id;
-    expect((await raw('GET', '/', { host: 'attacker.example:80' })).status).toBe(421);
-    const post = await raw(
+    const before = (await history.reviews(id)).length;
+    const p = await session(PHYSICIST);
+    expect((await raw('GET', '/', { host: 'attacker.example:80', cookie: p.cookie })).status).toBe(421);
+    const attempt = await raw(
       'POST',
       `/check/${id}/review`,
-      { host: 'attacker.example', origin: 'http://attacker.example', 'content-type': 'application/x-www-form-urlencoded' },
-      'reviewer=x&accepted=yes',
+      { host: 'attacker.example', origin: 'http://attacker.example', 'content-type': 'application/x-www-form-urlencoded', cookie: p.cookie },
+      `csrf=${encodeURIComponent(p.csrf)}&accepted=yes`,
     );
-    expect(post.status).toBe(421);
-    expect(await history.reviews(id)).toHaveLength(0);
-    expect((await raw('GET', '/', { host: new URL(base).host })).status).toBe(200);
+    expect(attempt.status).toBe(421);
+    expect(await history.reviews(id)).toHaveLength(before);
+    expect((await raw('GET', '/', { host: new URL(base).host, cookie: p.cookie })).status).toBe(200);
   });
 
   it('forbids framing by other pages, answers HEAD, refuses an oversized review with 413, and says which filters it ignored', async () => {
-    const page = await fetch(`${base}/`);
-    expect(page.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
-    expect((await fetch(`${base}/`, { method: 'HEAD' })).status).toBe(200);
+    const p = await session(PHYSICIST);
+    const home = await fetch(`${base}/`, { headers: { cookie: p.cookie } });
+    expect(home.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
+    expect((await fetch(`${base}/`, { method: 'HEAD', headers: { cookie: p.cookie } })).status).toBe(200);
     const id = (await history.listChecks())[0]!.id;
-    const big = await fetch(`${base}/check/${id}/review`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/x-www-form-urlencoded' },
-      body: `reviewer=x&accepted=yes&comment=${'a'.repeat(20_000)}`,
-    });
+    const big = await post(`/check/${id}/review`, `csrf=${p.csrf}&accepted=yes&comment=${'a'.repeat(20_000)}`, { cookie: p.cookie });
     expect(big.status).toBe(413);
-    const filtered = await (await fetch(`${base}/?verdict=maybe&since=yesterday`)).text();
+    const filtered = await (await fetch(`${base}/?verdict=maybe&since=yesterday`, { headers: { cookie: p.cookie } })).text();
     expect(filtered).toMatch(/Not understood, so not applied: verdict=maybe, since=yesterday/);
+  });
+
+  it('signing out ends the sign-in; a sign-in expires after its hours', async () => {
+    const p = await session(VIEWER);
+    expect((await post('/signout', `csrf=${encodeURIComponent(p.csrf)}`, { cookie: p.cookie })).status).toBe(303);
+    expect((await fetch(`${base}/`, { headers: { cookie: p.cookie }, redirect: 'manual' })).status).toBe(303);
+    const q = await session(VIEWER);
+    clock += 8 * 3_600_000 + 1;
+    expect((await fetch(`${base}/`, { headers: { cookie: q.cookie }, redirect: 'manual' })).status).toBe(303);
+  });
+
+  it(`limits sign-in attempts: after ${MAX_FAILURES} failures even the right password is refused, until the window has passed`, async () => {
+    for (let i = 0; i < MAX_FAILURES; i++)
+      expect((await post('/signin', new URLSearchParams({ name: PHYSICIST.name, password: `wrong ${i}` }).toString())).status).toBe(401);
+    expect((await post('/signin', new URLSearchParams(PHYSICIST).toString())).status).toBe(429);
+    clock += FAILURE_WINDOW_MS + 1;
+    expect((await post('/signin', new URLSearchParams(PHYSICIST).toString())).status).toBe(303);
   });
 });

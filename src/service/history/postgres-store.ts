@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import pg from 'pg';
 import { POSTGRES_MIGRATIONS } from './postgres-migrations.js';
-import { type CheckRow, type OutcomeRow, toOutcome, toRecord } from './rows.js';
+import { type CheckRow, type OutcomeRow, toOutcome, toRecord, toUser, type UserRow } from './rows.js';
 import {
   type CheckFilter,
   type CheckRecord,
@@ -11,6 +11,7 @@ import {
   type PlanKey,
   ReviewRecord,
   StoredResult,
+  UserRecord,
 } from './store.js';
 
 /** The advisory lock under which migrations run (any constant of ours). */
@@ -212,6 +213,28 @@ export class PostgresHistoryStore implements HistoryStore {
       [since],
     );
     return q.rows.map(toOutcome);
+  }
+
+  async addUser(u: UserRecord): Promise<boolean> {
+    const v = UserRecord.parse(u);
+    const r = await this.pool.query(
+      'INSERT INTO users (name, role, password_hash, created_at) VALUES ($1, $2, $3, $4) ON CONFLICT (name) DO NOTHING',
+      [v.name, v.role, v.passwordHash, v.createdAt],
+    );
+    return r.rowCount === 1;
+  }
+
+  async setPassword(name: string, passwordHash: string): Promise<boolean> {
+    return (await this.pool.query('UPDATE users SET password_hash = $1 WHERE name = $2', [passwordHash, name])).rowCount === 1;
+  }
+
+  async user(name: string): Promise<UserRecord | undefined> {
+    const r = (await this.pool.query<UserRow>('SELECT name, role, password_hash, created_at FROM users WHERE name = $1', [name])).rows[0];
+    return r ? toUser(r) : undefined;
+  }
+
+  async users(): Promise<UserRecord[]> {
+    return (await this.pool.query<UserRow>('SELECT name, role, password_hash, created_at FROM users ORDER BY name')).rows.map(toUser);
   }
 
   async close(): Promise<void> {

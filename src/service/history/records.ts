@@ -103,3 +103,20 @@ export interface CheckFilter {
   readonly verdicts?: readonly PlanVerdict[];
   readonly machine?: string;
 }
+
+/** Who may sign in to the page: a physicist records reviews under their own name; a viewer reads. */
+export const Role = z.enum(['physicist', 'viewer']);
+export type Role = z.infer<typeof Role>;
+
+/** An account: its name, role and password as an scrypt hash (see web/passwords.ts), never the password. */
+export const UserRecord = z.object({
+  name: z
+    .string()
+    .min(1)
+    .max(64)
+    .regex(/^[\p{L}\p{N} .'-]+$/u, 'a name of letters, digits, spaces, dots, apostrophes and hyphens'),
+  role: Role,
+  passwordHash: z.string().startsWith('scrypt$'),
+  createdAt: z.string(),
+});
+export type UserRecord = z.infer<typeof UserRecord>;

@@ -1,4 +1,4 @@
-import { CheckRecord, IntakeOutcome } from './records.js';
+import { CheckRecord, IntakeOutcome, UserRecord } from './records.js';
 
 /** The columns of checks a list reads (without the result and the page), as either store returns them. */
 export interface CheckRow {
@@ -60,3 +60,14 @@ export function toRecord(r: CheckRow): CheckRecord {
     inputs: JSON.parse(r.inputs_json),
   });
 }
+
+/** A row of users, in either store. */
+export interface UserRow {
+  name: string;
+  role: string;
+  password_hash: string;
+  created_at: string;
+}
+
+export const toUser = (r: UserRow): UserRecord =>
+  UserRecord.parse({ name: r.name, role: r.role, passwordHash: r.password_hash, createdAt: r.created_at });

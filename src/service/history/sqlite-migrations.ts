@@ -90,4 +90,17 @@ export const SQLITE_MIGRATIONS: readonly { readonly version: number; readonly sq
       ALTER TABLE intake_outcomes ADD COLUMN calling_ae_title TEXT;
     `,
   },
+  {
+    version: 6,
+    sql: `
+      -- Who may sign in to the page: a physicist records reviews, a viewer reads. The password as an scrypt hash only.
+      -- Not append-only: an account's password changes.
+      CREATE TABLE users (
+        name TEXT PRIMARY KEY,
+        role TEXT NOT NULL CHECK (role IN ('physicist', 'viewer')),
+        password_hash TEXT NOT NULL,
+        created_at TEXT NOT NULL
+      );
+    `,
+  },
 ];

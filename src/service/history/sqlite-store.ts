@@ -10,8 +10,9 @@ import {
   type PlanKey,
   ReviewRecord,
   StoredResult,
+  UserRecord,
 } from './store.js';
-import { type CheckRow, type OutcomeRow, toOutcome, toRecord } from './rows.js';
+import { type CheckRow, type OutcomeRow, toOutcome, toRecord, toUser, type UserRow } from './rows.js';
 import { SQLITE_MIGRATIONS } from './sqlite-migrations.js';
 
 /** How long a writer waits for another process's write to finish (ms). */
@@ -185,6 +186,27 @@ export class SqliteHistoryStore implements HistoryStore {
       )
       .all(since) as OutcomeRow[];
     return rows.map(toOutcome);
+  }
+
+  async addUser(u: UserRecord): Promise<boolean> {
+    const v = UserRecord.parse(u);
+    const r = this.db
+      .prepare('INSERT INTO users (name, role, password_hash, created_at) VALUES (?, ?, ?, ?) ON CONFLICT (name) DO NOTHING')
+      .run(v.name, v.role, v.passwordHash, v.createdAt);
+    return r.changes === 1;
+  }
+
+  async setPassword(name: string, passwordHash: string): Promise<boolean> {
+    return this.db.prepare('UPDATE users SET password_hash = ? WHERE name = ?').run(passwordHash, name).changes === 1;
+  }
+
+  async user(name: string): Promise<UserRecord | undefined> {
+    const r = this.db.prepare('SELECT name, role, password_hash, created_at FROM users WHERE name = ?').get(name) as UserRow | undefined;
+    return r ? toUser(r) : undefined;
+  }
+
+  async users(): Promise<UserRecord[]> {
+    return (this.db.prepare('SELECT name, role, password_hash, created_at FROM users ORDER BY name').all() as UserRow[]).map(toUser);
   }
 
   async close(): Promise<void> {

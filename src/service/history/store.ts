@@ -1,4 +1,4 @@
-import type { CheckFilter, CheckRecord, IntakeOutcome, NewCheck, ReviewRecord, StoredResult } from './records.js';
+import type { CheckFilter, CheckRecord, IntakeOutcome, NewCheck, ReviewRecord, StoredResult, UserRecord } from './records.js';
 
 export * from './records.js';
 
@@ -41,6 +41,12 @@ export interface HistoryStore {
   recordIntakeOutcome(o: Omit<IntakeOutcome, 'id'>): Promise<number>;
   /** Objects refused or failed at intake since a date (ISO), newest first. */
   intakeOutcomes(since?: string): Promise<IntakeOutcome[]>;
+  /** A new account; false when the name is taken. */
+  addUser(u: UserRecord): Promise<boolean>;
+  /** Sets an account's password hash; false when there is no such account. */
+  setPassword(name: string, passwordHash: string): Promise<boolean>;
+  user(name: string): Promise<UserRecord | undefined>;
+  users(): Promise<UserRecord[]>;
   close(): Promise<void>;
 }
 

@@ -2,6 +2,7 @@ import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
 import type { CheckRecord, IntakeOutcome, ReviewRecord, StoredResult } from '../history/store.js';
+import type { Session } from './sessions.js';
 import { controlLimits } from './control-limits.js';
 
 /** The verdicts in order of severity, as the model defines them. */
@@ -13,9 +14,27 @@ table{border-collapse:collapse;width:100%}th,td{text-align:left;padding:.3rem .5
 .caution{border:1px solid #888;padding:.6rem .8rem;margin:1rem 0;background:#f6f6f6}form.filters label{margin-right:1rem}
 .counts span{margin-right:1.5rem}iframe{width:100%;height:60rem;border:1px solid #ccc}svg text{font:11px system-ui,sans-serif}`;
 
-function page(title: string, body: string): string {
+function page(title: string, body: string, who?: Session): string {
+  const signedIn = who
+    ? `<form id="signout" method="post" action="/signout"><span id="who">${esc(who.user)} (${esc(who.role)})</span>
+<input type="hidden" name="csrf" value="${esc(who.csrf)}"> <button type="submit">sign out</button></form>`
+    : '';
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)} — plumbline</title><style>${STYLE}</style></head><body>
-<header><a href="/">plumbline chart rounds</a></header><h1>${esc(title)}</h1>${body}<p class="caution" id="caution">${esc(CAUTION)}</p></body></html>`;
+<header><a href="/">plumbline chart rounds</a>${signedIn}</header><h1>${esc(title)}</h1>${body}<p class="caution" id="caution">${esc(CAUTION)}</p></body></html>`;
+}
+
+/** The sign-in form; says how to make the first account when there is none, and why a sign-in failed. */
+export function signInPage(noAccounts: boolean, error?: string): string {
+  const none = noAccounts
+    ? '<p id="no-accounts">No account yet: make one with <code>plumbline users add NAME --role physicist --config C</code>.</p>'
+    : '';
+  return page(
+    'Sign in',
+    `${none}${error ? `<p id="signin-error"><b>${esc(error)}</b></p>` : ''}<form id="signin" method="post" action="/signin">
+<label>name <input name="name" required maxlength="64" autocomplete="username"></label>
+<label>password <input name="password" type="password" required maxlength="1024" autocomplete="current-password"></label>
+<button type="submit">sign in</button></form>`,
+  );
 }
 
 const cls = (v: string) => `v-${v.replace(/ /g, '-')}`;
@@ -41,6 +60,7 @@ export function listPage(
   trend: readonly TrendPoint[],
   notChecked: readonly IntakeOutcome[] = [],
   ignoredFilters: readonly string[] = [],
+  who?: Session,
 ): string {
   const counts = VERDICTS.map(
     (v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`,
@@ -73,6 +93,7 @@ ${intakeTable(notChecked)}
 <h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system;
 the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
 ${trendCharts(trend)}`,
+    who,
   );
 }
 
@@ -144,7 +165,7 @@ function reviewItem(r: ReviewRecord): string {
   return `<li>${esc(r.reviewedAt.replace('T', ' ').slice(0, 16))} — ${esc(r.reviewer)}: <b>${r.accepted ? 'accepted' : 'not accepted'}</b>${comment}</li>`;
 }
 
-export function checkPage(record: CheckRecord, result: StoredResult, reviews: readonly ReviewRecord[]): string {
+export function checkPage(record: CheckRecord, result: StoredResult, reviews: readonly ReviewRecord[], who?: Session): string {
   const list = reviews.length ? `<ul id="reviews">${reviews.map(reviewItem).join('')}</ul>` : '<p id="reviews">No review yet.</p>';
   return page(
     `${result.planLabel}: ${result.verdict}`,
@@ -152,16 +173,23 @@ export function checkPage(record: CheckRecord, result: StoredResult, reviews: re
 ${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; beam data ${esc(record.beamDataVersion ?? '—')}; plumbline
 ${esc(record.toolVersion)}.</p>
 <h2>Reviews</h2>${list}
-<form id="review" method="post" action="/check/${record.id}/review">
-<label>reviewer <input name="reviewer" required maxlength="64"></label>
-<label><input type="radio" name="accepted" value="yes" required> accepted</label> <label><input type="radio" name="accepted" value="no"> not
-accepted</label><br>
-<label>comment <input name="comment" size="60" maxlength="500"></label> <button type="submit">add review</button></form>
-<p>A review is added as a new record; nothing already recorded is ever changed.</p>
+${reviewForm(record.id, who)}
 <h2>Report</h2><iframe title="report" src="/check/${record.id}/report"></iframe>`,
+    who,
   );
 }
 
-export function notFoundPage(what: string): string {
-  return page('Not found', `<p>${esc(what)}</p>`);
+/** A physicist's review form, under their own name; a viewer is told they read only. */
+function reviewForm(checkId: number, who: Session | undefined): string {
+  if (who?.role !== 'physicist') return '<p id="read-only">Signed in as a viewer: reviews are recorded by physicists.</p>';
+  return `<form id="review" method="post" action="/check/${checkId}/review"><input type="hidden" name="csrf" value="${esc(who.csrf)}">
+<p>Review as <b>${esc(who.user)}</b>:</p>
+<label><input type="radio" name="accepted" value="yes" required> accepted</label> <label><input type="radio" name="accepted" value="no"> not
+accepted</label><br>
+<label>comment <input name="comment" size="60" maxlength="500"></label> <button type="submit">add review</button></form>
+<p>A review is added as a new record; nothing already recorded is ever changed.</p>`;
+}
+
+export function notFoundPage(what: string, who?: Session): string {
+  return page('Not found', `<p>${esc(what)}</p>`, who);
 }

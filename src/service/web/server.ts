@@ -1,13 +1,19 @@
 import http from 'node:http';
+import https from 'node:https';
 import type net from 'node:net';
 import { z } from 'zod';
 import { PlanVerdict } from '../../model/index.js';
 import { topCause } from '../history/chart-round.js';
 import type { HistoryStore } from '../history/store.js';
-import { checkPage, listPage, notFoundPage, type TrendPoint } from './pages.js';
+import { allowedHosts, allowedOrigins, cookieOf, isLoopback, readForm, redirect, SESSION_COOKIE, send, sessionCookie } from './http-parts.js';
+import { checkPage, listPage, notFoundPage, signInPage, type TrendPoint } from './pages.js';
+import { verifyPassword } from './passwords.js';
+import { type Session, Sessions, SignInLimiter } from './sessions.js';
+
+export { isLoopback } from './http-parts.js';
 
 const DAY_MS = 86_400_000;
-const MAX_FORM_BYTES = 8 * 1024;
+const HOUR_MS = 3_600_000;
 
 const ListQuery = z.object({
   since: z
@@ -19,36 +25,52 @@ const ListQuery = z.object({
   verdict: PlanVerdict.optional().catch(undefined),
 });
 const ReviewForm = z.object({
-  reviewer: z.string().trim().min(1, "give the reviewer's name").max(64),
+  csrf: z.string().min(1),
   accepted: z.enum(['yes', 'no'], { message: 'say whether the check is accepted' }),
   comment: z.string().max(500).default(''),
 });
+const SignInForm = z.object({ name: z.string().trim().min(1).max(64), password: z.string().min(1).max(1024) });
 
-/**
- * The chart-round page on loopback: read-only over the history, except the review form, which adds
- * a review record. Every value from a request is parsed (zod) before use; pages escape everything.
- */
-export function startWebServer(o: {
+export interface WebServerOptions {
   host: string;
   port: number;
   history: HistoryStore;
   /** Further names the page may be reached by (a DNS name of this machine); the configured host always. */
   hostNames?: readonly string[];
+  /** Serve over TLS with this certificate and key (PEM). */
+  tls?: { cert: string | Buffer; key: string | Buffer };
+  /** A reverse proxy in front does TLS: cookies say Secure, the proxy's names are accepted without a port. */
+  behindProxy?: boolean;
+  /** Hours a sign-in lasts (8 by default). */
+  sessionHours?: number;
   now?: () => number;
   log: (l: string) => void;
-}): Promise<{ port: number; close: () => Promise<void> }> {
+}
+/**
+ * The chart-round page: signed-in users only (a physicist reviews, a viewer reads), every form with
+ * its sign-in's CSRF token, sign-in attempts limited. Read-only over the history, except a review,
+ * which adds a record under the signed-in name. Every value from a request is parsed (zod) before
+ * use; pages escape everything.
+ */
+export function startWebServer(o: WebServerOptions): Promise<{ port: number; close: () => Promise<void> }> {
   const now = o.now ?? (() => Date.now());
+  const lifetimeMs = (o.sessionHours ?? 8) * HOUR_MS;
+  const sessions = new Sessions(lifetimeMs, now);
+  const limiter = new SignInLimiter(now);
+  const secure = !!o.tls || !!o.behindProxy;
+  const scheme = secure ? 'https' : 'http';
   let port = o.port;
-  const server = http.createServer((req, res) => {
+  const handler = (req: http.IncomingMessage, res: http.ServerResponse) => {
     try {
       // A request naming another host (DNS rebinding: a page elsewhere resolving its name to this address) is refused.
-      if (!allowedHosts(o.host, port, o.hostNames ?? []).has((req.headers.host ?? '').toLowerCase()))
+      if (!allowedHosts(o.host, port, o.hostNames ?? [], o.behindProxy).has((req.headers.host ?? '').toLowerCase()))
         return send(res, 421, 'text/plain; charset=utf-8', 'this page answers only to its configured host names');
       route(req, res).catch((e) => failed(res, e));
     } catch (e) {
       failed(res, e);
     }
-  });
+  };
+  const server = o.tls ? https.createServer({ cert: o.tls.cert, key: o.tls.key }, handler) : http.createServer(handler);
 
   function failed(res: http.ServerResponse, e: unknown): void {
     o.log(`web: ${(e as Error).message}`);
@@ -56,25 +78,70 @@ export function startWebServer(o: {
     else res.end();
   }
 
+  /** A form posted from another origin is refused (the browser says where it comes from). */
+  const sameOrigin = (req: http.IncomingMessage) =>
+    !req.headers.origin || allowedOrigins(o.host, port, o.hostNames ?? [], scheme, o.behindProxy).has(req.headers.origin.toLowerCase());
+
   async function route(req: http.IncomingMessage, res: http.ServerResponse): Promise<void> {
     const url = new URL(req.url ?? '/', 'http://localhost');
-    const check = /^\/check\/(\d+)(\/report|\/review)?$/.exec(url.pathname);
     // HEAD is GET without the body (Node leaves the body out of a HEAD response).
     const read = req.method === 'GET' || req.method === 'HEAD';
-    if (read && url.pathname === '/') return list(url, res);
-    if (check && read && !check[2]) return one(Number(check[1]), res);
+    if (url.pathname === '/signin' && read) return send(res, 200, 'text/html; charset=utf-8', signInPage(await noAccounts()));
+    if (url.pathname === '/signin' && req.method === 'POST') return signIn(req, res);
+    const token = cookieOf(req, SESSION_COOKIE);
+    const session = sessions.get(token);
+    if (!session) return read ? redirect(res, '/signin') : send(res, 401, 'text/plain; charset=utf-8', 'sign in first');
+    if (url.pathname === '/signout' && req.method === 'POST') return signOut(req, res, token, session);
+    const check = /^\/check\/(\d+)(\/report|\/review)?$/.exec(url.pathname);
+    if (read && url.pathname === '/') return list(url, res, session);
+    if (check && read && !check[2]) return one(Number(check[1]), res, session);
     if (check && read && check[2] === '/report') {
       const html = await o.history.html(Number(check[1]));
       // The stored report is shown framed in its check's page, and nowhere else.
       return html
         ? send(res, 200, 'text/html; charset=utf-8', html, "'self'")
-        : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
+        : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check', session));
     }
-    if (check && req.method === 'POST' && check[2] === '/review') return review(Number(check[1]), req, res);
-    send(res, 404, 'text/html; charset=utf-8', notFoundPage(`nothing at ${url.pathname}`));
+    if (check && req.method === 'POST' && check[2] === '/review') return review(Number(check[1]), req, res, session);
+    send(res, 404, 'text/html; charset=utf-8', notFoundPage(`nothing at ${url.pathname}`, session));
   }
 
-  async function list(url: URL, res: http.ServerResponse): Promise<void> {
+  const noAccounts = async () => (await o.history.users()).length === 0;
+
+  async function signIn(req: http.IncomingMessage, res: http.ServerResponse): Promise<void> {
+    if (!sameOrigin(req)) return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    const form = await readForm(req, res);
+    if (!form) return;
+    const f = SignInForm.safeParse(Object.fromEntries(form));
+    const address = req.socket.remoteAddress ?? '';
+    const name = f.success ? f.data.name : '';
+    if (limiter.blocked(address, name)) {
+      o.log(`web: sign-in refused for ${name || '(no name)'} from ${address}: too many failures`);
+      return send(res, 429, 'text/html; charset=utf-8', signInPage(false, 'Too many failed sign-ins: wait a quarter of an hour.'));
+    }
+    const user = f.success ? await o.history.user(f.data.name) : undefined;
+    // A password is checked even for an unknown name, so the time taken does not tell which names exist.
+    const ok = await verifyPassword(f.success ? f.data.password : '', user?.passwordHash ?? UNKNOWN_USER_HASH);
+    if (!user || !ok) {
+      limiter.failed(address, name);
+      o.log(`web: failed sign-in for ${name || '(no name)'} from ${address}`);
+      return send(res, 401, 'text/html; charset=utf-8', signInPage(await noAccounts(), 'The name or the password is not right.'));
+    }
+    limiter.succeeded(address, name);
+    const started = sessions.start(user.name, user.role);
+    o.log(`web: ${user.name} (${user.role}) signed in from ${address}`);
+    redirect(res, '/', sessionCookie(started.token, lifetimeMs / 1000, secure));
+  }
+
+  async function signOut(req: http.IncomingMessage, res: http.ServerResponse, token: string | undefined, session: Session): Promise<void> {
+    const form = await readForm(req, res);
+    if (!form) return;
+    if (!sameOrigin(req) || form.get('csrf') !== session.csrf) return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    sessions.end(token);
+    redirect(res, '/signin', sessionCookie('', 0, secure));
+  }
+
+  async function list(url: URL, res: http.ServerResponse, session: Session): Promise<void> {
     const raw = Object.fromEntries(url.searchParams);
     const q = ListQuery.parse(raw);
     // A filter that cannot be read is said on the page, never dropped unsaid.
@@ -114,62 +181,44 @@ export function startWebServer(o: {
         trend,
         await o.history.intakeOutcomes(since),
         ignored,
+        session,
       ),
     );
   }
 
-  async function one(id: number, res: http.ServerResponse): Promise<void> {
+  async function one(id: number, res: http.ServerResponse, session: Session): Promise<void> {
     const [record] = await o.history.listChecks({ id });
     const result = record ? await o.history.result(id) : undefined;
-    if (!record || !result) return send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check'));
-    send(res, 200, 'text/html; charset=utf-8', checkPage(record, result, await o.history.reviews(id)));
+    if (!record || !result) return send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check', session));
+    send(res, 200, 'text/html; charset=utf-8', checkPage(record, result, await o.history.reviews(id), session));
   }
 
-  async function review(id: number, req: http.IncomingMessage, res: http.ServerResponse): Promise<void> {
-    // Only the page itself may post: a form from another origin is refused.
-    const origin = req.headers.origin;
-    if (origin && !allowedOrigins(o.host, port, o.hostNames ?? []).has(origin.toLowerCase()))
-      return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
-    if (Number(req.headers['content-length'] ?? 0) > MAX_FORM_BYTES) return tooLarge(res);
-    let body = '';
-    let over = false;
-    req.on('data', (d: Buffer) => {
-      if (over) return;
-      body += d.toString('utf8');
-      if (body.length > MAX_FORM_BYTES) {
-        over = true;
-        tooLarge(res);
-      }
-    });
-    req.on('end', () => {
-      if (!over) recordReview(id, body, res).catch((e) => failed(res, e));
-    });
-  }
-
-  async function recordReview(id: number, body: string, res: http.ServerResponse): Promise<void> {
-    const form = ReviewForm.safeParse(Object.fromEntries(new URLSearchParams(body)));
-    if (!form.success || !(await o.history.listChecks({ id })).length) {
-      return send(res, 400, 'text/plain; charset=utf-8', form.success ? 'no such check' : form.error.issues.map((i) => i.message).join('; '));
-    }
+  async function review(id: number, req: http.IncomingMessage, res: http.ServerResponse, session: Session): Promise<void> {
+    // Only the page itself may post, with the sign-in's token; only a physicist records a review.
+    if (!sameOrigin(req)) return send(res, 403, 'text/plain; charset=utf-8', 'forbidden');
+    const body = await readForm(req, res);
+    if (!body) return;
+    if (body.get('csrf') !== session.csrf) return send(res, 403, 'text/plain; charset=utf-8', "forbidden: the form is not this sign-in's");
+    const form = ReviewForm.safeParse(Object.fromEntries(body));
+    if (!form.success) return send(res, 400, 'text/plain; charset=utf-8', form.error.issues.map((i) => i.message).join('; '));
+    if (session.role !== 'physicist') return send(res, 403, 'text/plain; charset=utf-8', 'only a physicist records a review');
+    if (!(await o.history.listChecks({ id })).length) return send(res, 400, 'text/plain; charset=utf-8', 'no such check');
     await o.history.addReview({
       checkId: id,
-      reviewer: form.data.reviewer,
+      reviewer: session.user,
       reviewedAt: new Date(now()).toISOString(),
       accepted: form.data.accepted === 'yes',
       comment: form.data.comment,
     });
-    o.log(`review of check ${id} by ${form.data.reviewer}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
-    res.writeHead(303, { location: `/check/${id}` });
-    res.end();
+    o.log(`review of check ${id} by ${session.user}: ${form.data.accepted === 'yes' ? 'accepted' : 'not accepted'}`);
+    redirect(res, `/check/${id}`);
   }
 
   return new Promise((resolvePromise, reject) => {
     server.once('error', reject);
     server.listen(o.port, o.host, () => {
       port = (server.address() as net.AddressInfo).port;
-      o.log(`chart-round page on http://${o.host}:${port}/`);
-      if (!isLoopback(o.host))
-        o.log(`WARNING: the page listens on ${o.host}, beyond this machine, without TLS or sign-in: anyone who reaches it can read and review`);
+      o.log(`chart-round page on ${o.tls ? 'https' : 'http'}://${o.host}:${port}/`);
       resolvePromise({
         port,
         close: () =>
@@ -182,33 +231,5 @@ export function startWebServer(o: {
   });
 }
 
-function send(res: http.ServerResponse, status: number, type: string, body: string, frameAncestors = "'none'"): void {
-  res.writeHead(status, {
-    'content-type': type,
-    'cache-control': 'no-store',
-    'x-content-type-options': 'nosniff',
-    'content-security-policy':
-      `default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-src 'self'; form-action 'self'; ` + `frame-ancestors ${frameAncestors}`,
-  });
-  res.end(body);
-}
-
-/** A review body past the limit: answered 413, the rest of it not read. */
-function tooLarge(res: http.ServerResponse): void {
-  res.setHeader('connection', 'close');
-  send(res, 413, 'text/plain; charset=utf-8', `a review is at most ${MAX_FORM_BYTES} bytes`);
-}
-
-const LOOPBACK = new Set(['127.0.0.1', '::1', 'localhost']);
-const isLoopback = (host: string): boolean => LOOPBACK.has(host) || host.startsWith('127.');
-
-/** The Host headers the page answers to: its configured host (and, on loopback, the loopback names) with its port. */
-function allowedHosts(host: string, port: number, names: readonly string[]): Set<string> {
-  const hosts = [host, ...names, ...(isLoopback(host) ? ['127.0.0.1', 'localhost', '[::1]'] : [])];
-  return new Set(hosts.map((h) => `${h.includes(':') && !h.startsWith('[') ? `[${h}]` : h}:${port}`.toLowerCase()));
-}
-
-const allowedOrigins = (host: string, port: number, names: readonly string[]): Set<string> =>
-  new Set([...allowedHosts(host, port, names)].map((h) => `http://${h}`));
-
-/** The largest cause explaining a check's beams, in words, if the result explains any. */
+/** A well-formed hash no password matches (random salt and key), checked for names that have no account. */
+const UNKNOWN_USER_HASH = `scrypt$16384$8$1$${Buffer.alloc(16, 7).toString('base64')}$${Buffer.alloc(64, 9).toString('base64')}`;

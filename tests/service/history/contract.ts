@@ -30,12 +30,12 @@ export interface StoreUnderTest {
 
 export function historyContract(name: string, t: StoreUnderTest): void {
   describe(`the history store contract: ${name}`, () => {
-    it('applies its migrations once, recorded: schema version 5, again after reopening', async () => {
+    it('applies its migrations once, recorded: schema version 6, again after reopening', async () => {
       const { store, reopen } = await t.open();
-      expect(await store.schemaVersion()).toBe(5);
+      expect(await store.schemaVersion()).toBe(6);
       await store.recordCheck(newCheck());
       const again = await reopen();
-      expect(await again.schemaVersion()).toBe(5);
+      expect(await again.schemaVersion()).toBe(6);
       expect(await again.listChecks()).toHaveLength(1);
       await again.close();
       await store.close();
@@ -130,6 +130,26 @@ export function historyContract(name: string, t: StoreUnderTest): void {
       expect(await store.intakeOutcomes('2026-12-02')).toEqual([
         expect.objectContaining({ outcome: 'failed', fileName: 'b.dcm', sopInstanceUid: '2.25.5', reason: 'ours' }),
       ]);
+      await store.close();
+    });
+
+    it('keeps accounts by name, refuses a second account of the same name, and changes a password', async () => {
+      const { store } = await t.open();
+      const u = {
+        name: 'Physicist A',
+        role: 'physicist' as const,
+        passwordHash: 'scrypt$16384$8$1$c2FsdA==$a2V5',
+        createdAt: '2026-12-01T00:00:00.000Z',
+      };
+      expect(await store.addUser(u)).toBe(true);
+      expect(await store.addUser({ ...u, role: 'viewer' })).toBe(false);
+      expect(await store.user('Physicist A')).toEqual(u);
+      expect(await store.user('Nobody')).toBeUndefined();
+      expect(await store.setPassword('Physicist A', 'scrypt$16384$8$1$c2FsdA==$bmV3')).toBe(true);
+      expect((await store.user('Physicist A'))!.passwordHash).toBe('scrypt$16384$8$1$c2FsdA==$bmV3');
+      expect(await store.setPassword('Nobody', 'scrypt$x')).toBe(false);
+      await expect(store.addUser({ ...u, name: 'B', role: 'admin' as never })).rejects.toThrow();
+      expect((await store.users()).map((x) => x.name)).toEqual(['Physicist A']);
       await store.close();
     });
 
