@@ -3,6 +3,7 @@
  * browser download), over a history filled by the intake pipeline from the demo clinic. Signed in:
  * a physicist reviews under their own name, a viewer reads, every form carries its sign-in's token.
  */
+import { spawnSync } from 'node:child_process';
 import { copyFileSync, mkdirSync, mkdtempSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
 import { tmpdir } from 'node:os';
@@ -45,6 +46,20 @@ beforeAll(async () => {
   mkdirSync(config.folders.inbox, { recursive: true });
   for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm', 'spine-ssd.dcm', 'lung-mlc.dcm'])
     copyFileSync(manifestPath(`fixtures/demo/clinic/${f}`), join(config.folders.inbox, f));
+  // The brain laterals again as another plan whose second beam's MU was typed 10 % high (109 → 119.9), changed by dcmtk's dcmodify.
+  const typo = join(config.folders.inbox, 'brain-typo.dcm');
+  copyFileSync(manifestPath('fixtures/demo/clinic/brain-laterals.dcm'), typo);
+  const modified = spawnSync('dcmodify', [
+    '-nb',
+    '-m',
+    '(0008,0018)=2.25.4242',
+    '-m',
+    '(300a,0002)=BRAIN LATS MU',
+    '-m',
+    '(300a,0070)[0].(300c,0004)[1].(300a,0086)=119.9',
+    typo,
+  ]);
+  if (modified.status !== 0) throw new Error(`dcmodify: ${modified.stderr}`);
   await processInbox({ config, machines: [m.value], policy: DEFAULT_POLICY, history, log: () => {}, now: () => Date.now() + 1000 });
   const createdAt = new Date().toISOString();
   await history.addUser({ name: PHYSICIST.name, role: 'physicist', passwordHash: await hashPassword(PHYSICIST.password), createdAt });
@@ -110,31 +125,68 @@ describe('the chart-round page', () => {
     expect(await wrong.text()).toMatch(/The name or the password is not right/);
   });
 
+  it('puts first the checks waiting for a review: beyond the action level, needing review or not fully verified, oldest first', async () => {
+    const page = await signedIn(VIEWER);
+    const rows = page.locator('#queue tbody tr');
+    expect(await rows.count()).toBe(2);
+    const texts = (await rows.allTextContents()).sort();
+    expect(texts[0]).toMatch(/BRAIN LATS MU.*beyond action level.*beam 2: \+9\.4 %.*beam 2: MU as typed\?/); // 1.1 × (1 − 0.54 %) − 1
+    expect(texts[1]).toMatch(/L BREAST TG.*beyond action level.*beam 2: \+10\.\d %/);
+    const ids = await rows.evaluateAll((trs) => trs.map((tr) => Number(tr.getAttribute('data-check'))));
+    const recorded = await history.listChecks({ oldestFirst: true });
+    expect(ids).toEqual(recorded.filter((c) => ids.includes(c.id)).map((c) => c.id));
+    await page.close();
+  });
+
   it("lists the week's plans with verdict counts and filters them by verdict", async () => {
     const page = await signedIn(VIEWER);
     expect(await page.locator('#who').textContent()).toBe('Viewer Demo (viewer)');
-    expect(await page.locator('#checks tbody tr').count()).toBe(4);
-    expect(await page.locator('[data-verdict="beyond action level"] b').textContent()).toBe('1');
+    expect(await page.locator('#checks tbody tr').count()).toBe(5);
+    expect(await page.locator('[data-verdict="beyond action level"] b').textContent()).toBe('2');
     await page.selectOption('select[name="verdict"]', 'beyond action level');
     await page.click('form.filters button[type="submit"]');
-    expect(await page.locator('#checks tbody tr').count()).toBe(1);
-    expect(await page.locator('#checks tbody tr td a').textContent()).toBe('L BREAST TG');
+    expect(await page.locator('#checks tbody tr').count()).toBe(2);
+    expect((await page.locator('#checks tbody tr td a').allTextContents()).sort()).toEqual(['BRAIN LATS MU', 'L BREAST TG']);
     // The likely cause of its deviation beside it: the lateral tangent's MU as typed (planted 10 % high in the demo).
-    expect(await page.locator('#checks tbody tr td.cause').textContent()).toMatch(/^beam 2: MU as typed\? \+11\.\d %$/);
+    expect(await page.locator('#checks tr:has-text("L BREAST TG") td.cause').textContent()).toMatch(/^beam 2: MU as typed\? \+11\.\d %$/);
     expect(await page.locator('#caution').textContent()).toMatch(/an aid to, never a replacement for/);
     await page.close();
   });
 
-  it('shows a trend per machine and energy with the mean and ±3σ control limits of its points', async () => {
+  it('trends each machine, energy and technique; the limits come from the beams within tolerance, a mis-typed MU marked outside them', async () => {
     const page = await signedIn(VIEWER);
-    const six = page.locator('figure.trend[data-series="NG_LINAC1 6 MV"]');
-    expect(await six.locator('circle.point').count()).toBe(6); // 2 laterals + 2 tangents + 1 spine + 1 MLC field
-    expect(await six.locator('line.limit').count()).toBe(4); // 0 %, mean, +3σ, −3σ
-    // The caption's limits are those of the beams' deviations (sample standard deviation).
+    const series = await page.locator('figure.trend').evaluateAll((fs) => fs.map((f) => f.getAttribute('data-series')));
+    expect(series).toEqual(['NG_LINAC1 6 MV MLC', 'NG_LINAC1 6 MV open', 'NG_LINAC1 6 MV wedged']);
+    const open = page.locator('figure.trend[data-series="NG_LINAC1 6 MV open"]');
+    expect(await open.locator('circle.point').count()).toBe(5); // 2 laterals, 2 laterals with the typo, 1 spine
+    expect(await open.locator('line.limit').count()).toBe(4); // 0 %, mean, +3σ, −3σ
+    // The caption's limits are those of the 4 beams within tolerance (sample standard deviation), not of all 5.
     const results = await Promise.all((await history.listChecks()).map((c) => history.result(c.id)));
-    const devs = results.flatMap((r) => r!.fractionGroups.flatMap((g) => g.beams)).map((b) => b.calculation!.doseDeviationPercent!);
-    const lim = controlLimits(devs)!;
-    expect(await six.locator('figcaption').textContent()).toContain(`limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`);
+    const beams = results.flatMap((r) => r!.fractionGroups.flatMap((g) => g.beams)).filter((b) => !b.calculation?.wedgeId && b.nominalEnergy === 6);
+    const openBeams = beams.filter((b) => !b.calculation?.approximations?.some((n) => n.code.startsWith('leaf-end')));
+    const within = openBeams.filter((b) => b.verdict === 'within tolerance').map((b) => b.calculation!.doseDeviationPercent!);
+    expect(within).toHaveLength(4);
+    const lim = controlLimits(within)!;
+    const all = controlLimits(openBeams.map((b) => b.calculation!.doseDeviationPercent!))!;
+    expect(all.upper - all.lower).toBeGreaterThan(3 * (lim.upper - lim.lower));
+    expect(await open.locator('figcaption').textContent()).toContain(`limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`);
+    expect(await open.locator('circle.point.outside').count()).toBe(1);
+    expect(await open.locator('circle.point.outside title').textContent()).toMatch(/^BRAIN LATS MU, .*: 9\.4\d %$/);
+    expect(await open.locator('table.outside a').textContent()).toBe('BRAIN LATS MU');
+    // A time axis: the first and last days of the points.
+    expect(await open.locator('text.tick').count()).toBe(3);
+    await page.close();
+  });
+
+  it('fits 1280 pixels: nothing on the page is wider than the window', async () => {
+    const page = await signedIn(VIEWER);
+    const overflow = await page.evaluate(() => {
+      const wide = [...document.querySelectorAll('body *')].filter((e) => e.getBoundingClientRect().right > window.innerWidth + 1);
+      return { scroll: document.documentElement.scrollWidth, wide: wide.map((e) => e.tagName + (e.id ? `#${e.id}` : '')).slice(0, 5) };
+    });
+    expect(overflow).toEqual({ scroll: 1280, wide: [] });
+    const shot = await page.screenshot({ fullPage: true });
+    expect(shot.length).toBeGreaterThan(10_000);
     await page.close();
   });
 

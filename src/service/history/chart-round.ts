@@ -37,3 +37,17 @@ export function chartRoundEntry(check: CheckRecord, result: StoredResult | undef
   const cause = topCause(result);
   return { check, ...(worst ? { worst } : {}), ...(cause ? { topCause: cause } : {}), reviews };
 }
+
+/** The techniques the trend keeps apart (their deviations differ in kind). */
+export type Technique = 'open' | 'wedged' | 'MLC' | 'modulated' | 'electron';
+
+/** A stored beam's technique, from what its result says: electron, modulated, wedged, shaped by leaves, or open. */
+export function techniqueOf(b: StoredResult['fractionGroups'][number]['beams'][number]): Technique {
+  if (b.radiationType === 'ELECTRON') return 'electron';
+  const c = b.calculation;
+  if (c?.modulated) return 'modulated';
+  if (c?.wedgeId) return 'wedged';
+  // The leaf-end note is written for every beam whose field the leaves shape.
+  if (c?.approximations?.some((n) => n.code === 'leaf-end-gap' || n.code === 'leaf-ends-not-modelled')) return 'MLC';
+  return 'open';
+}

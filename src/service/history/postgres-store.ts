@@ -154,10 +154,12 @@ export class PostgresHistoryStore implements HistoryStore {
     if (f.since) where.push(`recorded_at >= ${arg(f.since)}`);
     if (f.verdicts?.length) where.push(`verdict IN (${f.verdicts.map(arg).join(', ')})`);
     if (f.machine) where.push(`machine = ${arg(f.machine)}`);
+    if (f.needingReview) where.push("(verdict <> 'within tolerance' OR NOT fully_verified)");
+    if (f.unreviewed) where.push('NOT EXISTS (SELECT 1 FROM reviews WHERE reviews.check_id = checks.id)');
     const rows = await this.pool.query<CheckRow>(
       `SELECT id, recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
       beam_data_version, beam_data_sha256, inputs_json FROM checks ${where.length ? `WHERE ${where.join(' AND ')}` : ''}
-      ORDER BY recorded_at DESC, id DESC`,
+      ORDER BY ${f.oldestFirst ? 'recorded_at, id' : 'recorded_at DESC, id DESC'}`,
       args,
     );
     return rows.rows.map(toRecord);

@@ -43,7 +43,18 @@ export const StoredResult = z.object({
           beamNumber: z.number().optional(),
           radiationType: z.string(),
           nominalEnergy: z.number().optional(),
-          calculation: z.object({ doseDeviationPercent: z.number().optional() }).optional(),
+          verdict: z.string().optional(),
+          calculation: z
+            .object({
+              doseDeviationPercent: z.number().optional(),
+              wedgeId: z.string().optional(),
+              modulated: z.object({}).passthrough().optional(),
+              approximations: z
+                .array(z.object({ code: z.string() }).passthrough())
+                .optional()
+                .catch(undefined),
+            })
+            .optional(),
           // Results recorded before explanations existed have none; one that cannot be read is left out.
           explanation: z
             .object({ causes: z.array(z.object({ code: z.string(), contributionPercent: z.number() })) })
@@ -102,6 +113,12 @@ export interface CheckFilter {
   readonly since?: string;
   readonly verdicts?: readonly PlanVerdict[];
   readonly machine?: string;
+  /** Only checks that want a physicist: not within tolerance, or not fully verified. */
+  readonly needingReview?: boolean;
+  /** Only checks without any review yet. */
+  readonly unreviewed?: boolean;
+  /** Oldest first (the default is newest first). */
+  readonly oldestFirst?: boolean;
 }
 
 /** Who may sign in to the page: a physicist records reviews under their own name; a viewer reads. */

@@ -129,9 +129,12 @@ export class SqliteHistoryStore implements HistoryStore {
       where.push('machine = ?');
       args.push(f.machine);
     }
+    if (f.needingReview) where.push("(verdict <> 'within tolerance' OR fully_verified = 0)");
+    if (f.unreviewed) where.push('NOT EXISTS (SELECT 1 FROM reviews WHERE reviews.check_id = checks.id)');
+    const order = f.oldestFirst ? 'recorded_at, id' : 'recorded_at DESC, id DESC';
     const rows = this.db
       .prepare(`SELECT id, recorded_at, plan_sop_instance_uid, plan_sha256, plan_label, patient_id, machine, verdict, fully_verified, tool_version,
-      beam_data_version, beam_data_sha256, inputs_json FROM checks ${where.length ? `WHERE ${where.join(' AND ')}` : ''} ORDER BY recorded_at DESC, id DESC`)
+      beam_data_version, beam_data_sha256, inputs_json FROM checks ${where.length ? `WHERE ${where.join(' AND ')}` : ''} ORDER BY ${order}`)
       .all(...args) as CheckRow[];
     return rows.map(toRecord);
   }

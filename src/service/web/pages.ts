@@ -1,9 +1,12 @@
 import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
+import type { ChartRoundEntry } from '../history/chart-round.js';
 import type { CheckRecord, IntakeOutcome, ReviewRecord, StoredResult } from '../history/store.js';
 import type { Session } from './sessions.js';
-import { controlLimits } from './control-limits.js';
+import { type TrendPoint, trendCharts } from './trend-chart.js';
+
+export type { TrendPoint } from './trend-chart.js';
 
 /** The verdicts in order of severity, as the model defines them. */
 export const VERDICTS: readonly PlanVerdict[] = PlanVerdict.options;
@@ -45,23 +48,39 @@ export interface ListFilter {
   readonly verdict?: PlanVerdict;
 }
 
-/** One point of the trend: a checked beam's dose deviation at a time, per machine and energy. */
-export interface TrendPoint {
-  readonly series: string;
-  readonly atMs: number;
-  readonly deviationPercent: number;
+/** The chart-round page: checks since a date with verdict counts, filters, and the deviation trend with its control limits. */
+/** What the chart-round page shows. */
+export interface ListView {
+  /** Checks wanting a physicist and not yet reviewed, oldest first, whatever the filters. */
+  readonly queue: readonly ChartRoundEntry[];
+  readonly checks: readonly (CheckRecord & { reviews: number; topCause?: string })[];
+  readonly filter: ListFilter;
+  readonly machines: readonly string[];
+  readonly trend: readonly TrendPoint[];
+  readonly notChecked: readonly IntakeOutcome[];
+  readonly ignoredFilters: readonly string[];
+  readonly who?: Session;
 }
 
-/** The chart-round page: checks since a date with verdict counts, filters, and the deviation trend with its control limits. */
-export function listPage(
-  checks: readonly (CheckRecord & { reviews: number; topCause?: string })[],
-  f: ListFilter,
-  machines: readonly string[],
-  trend: readonly TrendPoint[],
-  notChecked: readonly IntakeOutcome[] = [],
-  ignoredFilters: readonly string[] = [],
-  who?: Session,
-): string {
+/** The "to review" queue: each check with its patient, plan, machine, verdict, worst beam and its deviation. */
+function queueTable(queue: readonly ChartRoundEntry[]): string {
+  if (!queue.length) return '<h2>To review</h2><p id="queue">Nothing waits for a review.</p>';
+  const rows = queue
+    .map(
+      (e) =>
+        `<tr data-check="${e.check.id}"><td>${esc(e.check.recordedAt.replace('T', ' ').slice(0, 16))}</td><td>${esc(e.check.patientId ?? '—')}</td>` +
+        `<td><a href="/check/${e.check.id}">${esc(e.check.planLabel)}</a></td><td>${esc(e.check.machine ?? '—')}</td>` +
+        `<td class="${cls(e.check.verdict)}">${esc(e.check.verdict)}${e.check.fullyVerified ? '' : ' (not fully verified)'}</td>` +
+        `<td>${e.worst ? `beam ${e.worst.beamNumber ?? '?'}: ${e.worst.deviationPercent >= 0 ? '+' : ''}${e.worst.deviationPercent.toFixed(1)} %` : '—'}</td>` +
+        `<td class="cause">${esc(e.topCause ?? '')}</td></tr>`,
+    )
+    .join('');
+  return `<h2>To review</h2><table id="queue"><thead><tr><th>recorded (UTC)</th><th>patient</th><th>plan</th><th>machine</th><th>verdict</th>
+<th>worst beam</th><th>likely cause</th></tr></thead><tbody>${rows}</tbody></table>`;
+}
+
+export function listPage(v: ListView): string {
+  const { checks, filter: f, machines, trend, notChecked, ignoredFilters, who } = v;
   const counts = VERDICTS.map(
     (v) => `<span class="${cls(v)}" data-verdict="${esc(v)}">${esc(v)}: <b>${checks.filter((c) => c.verdict === v).length}</b></span>`,
   ).join('');
@@ -83,15 +102,16 @@ class="${cls(c.verdict)}">${esc(c.verdict)}</td><td class="cause">${esc(c.topCau
     )
     .join('');
   return page(
-    'Checked plans',
-    `<p class="counts">${counts}</p>${filters}${
+    'Chart rounds',
+    `${queueTable(v.queue)}<h2>Checked plans</h2><p class="counts">${counts}</p>${filters}${
       ignoredFilters.length ? `<p class="note" id="ignored">Not understood, so not applied: ${esc(ignoredFilters.join(', '))}.</p>` : ''
     }
 <table id="checks"><thead><tr><th>recorded (UTC)</th><th>plan</th><th>patient</th><th>machine</th><th>verdict</th><th>likely cause</th><th>fully
 verified</th><th>reviews</th></tr></thead><tbody>${rows}</tbody></table>
 ${intakeTable(notChecked)}
-<h2>Deviation trend per machine and energy</h2><p>Each point is one checked beam's dose deviation, (independent − planning system) / planning system;
-the lines are the mean and the control limits mean ± 3σ of the points shown.</p>
+<h2>Deviation trend per machine, energy and technique</h2><p>Each point is one checked beam's dose deviation, (independent − planning
+system) / planning system; the lines are the mean and the control limits mean ± 3σ of the beams within tolerance shown (a beam beyond
+them does not widen them); circled points lie outside the limits and are listed under their chart.</p>
 ${trendCharts(trend)}`,
     who,
   );
@@ -112,53 +132,6 @@ function intakeTable(outcomes: readonly IntakeOutcome[]): string {
 <th>SOP instance</th><th>reason</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
 
-/** One SVG per series: the deviations over time, the mean and the ±3σ limits. Text first; lines only as emphasis. */
-export function trendCharts(points: readonly TrendPoint[]): string {
-  const series = [...new Set(points.map((p) => p.series))].sort();
-  if (!series.length) return '<p>No checked beams in this period.</p>';
-  return series
-    .map((name) => {
-      const pts = points.filter((p) => p.series === name).sort((a, b) => a.atMs - b.atMs);
-      const lim = controlLimits(pts.map((p) => p.deviationPercent));
-      const values = [...pts.map((p) => p.deviationPercent), ...(lim ? [lim.lower, lim.upper] : []), -5, 5];
-      const [lo, hi] = [Math.min(...values), Math.max(...values)];
-      const [w, h, pad] = [640, 200, 40];
-      const t0 = pts[0]!.atMs;
-      const span = Math.max(1, pts[pts.length - 1]!.atMs - t0);
-      const x = (t: number) => pad + ((t - t0) / span) * (w - 2 * pad);
-      const y = (v: number) => h - pad / 2 - ((v - lo) / (hi - lo)) * (h - pad);
-      const line = (v: number, label: string, dash: string, left = false) =>
-        `<line class="limit" x1="${pad}" x2="${w - pad}" y1="${y(v).toFixed(1)}" y2="${y(v).toFixed(1)}" stroke="#555" ` +
-        `stroke-dasharray="${dash}"/><text x="${left ? 2 : w - pad + 4}" y="${(y(v) + 4).toFixed(1)}">${esc(label)}</text>`;
-      const summary = lim
-        ? `mean ${lim.mean.toFixed(2)} %, σ ${lim.sigma.toFixed(2)} %, limits ${lim.lower.toFixed(2)} % to ${lim.upper.toFixed(2)} %`
-        : 'fewer than two points: no control limits';
-      const outside = lim ? pts.filter((p) => p.deviationPercent < lim.lower || p.deviationPercent > lim.upper).length : 0;
-      return (
-        `<figure class="trend" data-series="${esc(name)}"><figcaption>${esc(name)}: ${pts.length} beam(s); ` +
-        `${esc(summary)}${outside ? `; ${outside} outside the limits` : ''}</figcaption>
-<svg role="img" aria-label="${esc(`deviation trend ${name}`)}" width="${w + 80}" height="${h}" viewBox="0 0 ${w + 80} ${h}">
-${line(0, '0 %', '1 3', true)}${
-  lim
-    ? line(lim.mean, `mean ${lim.mean.toFixed(1)} %`, '6 3') +
-      line(lim.upper, `+3σ ${lim.upper.toFixed(1)} ` + `%`, '2 2') +
-      line(lim.lower, `−3σ ${lim.lower.toFixed(1)} %`, '2 2')
-    : ''
-}
-${pts
-  .map(
-    (p) =>
-      `<circle class="point" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.deviationPercent).toFixed(1)}" r="3" ` +
-      `fill="#1b1b1b"><title>${esc(`${new Date(p.atMs).toISOString().slice(0, 16)}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`,
-  )
-  .join('')}
-</svg></figure>`
-      );
-    })
-    .join('');
-}
-
-/** One check: its summary, the reviews so far, the review form, and the report itself (as `check --html` writes it). */
 /** One review as a list item: when, who, the decision and the comment. */
 function reviewItem(r: ReviewRecord): string {
   const comment = r.comment ? ` — ${esc(r.comment)}` : '';

@@ -3,7 +3,7 @@ import https from 'node:https';
 import type net from 'node:net';
 import { z } from 'zod';
 import { PlanVerdict } from '../../model/index.js';
-import { topCause } from '../history/chart-round.js';
+import { chartRoundEntry, techniqueOf, topCause } from '../history/chart-round.js';
 import type { HistoryStore } from '../history/store.js';
 import { allowedHosts, allowedOrigins, cookieOf, isLoopback, readForm, redirect, SESSION_COOKIE, send, sessionCookie } from './http-parts.js';
 import { checkPage, listPage, notFoundPage, signInPage, type TrendPoint } from './pages.js';
@@ -164,25 +164,32 @@ export function startWebServer(o: WebServerOptions): Promise<{ port: number; clo
         if (b.status !== 'checked' || b.calculation?.doseDeviationPercent === undefined) continue;
         const unit = b.radiationType === 'ELECTRON' ? 'MeV' : 'MV';
         trend.push({
-          series: `${c.machine ?? '—'} ${b.nominalEnergy ?? '?'} ${unit}`,
+          series: `${c.machine ?? '—'} ${b.nominalEnergy ?? '?'} ${unit} ${techniqueOf(b)}`,
           atMs: Date.parse(c.recordedAt),
           deviationPercent: b.calculation.doseDeviationPercent,
+          withinTolerance: b.verdict === 'within tolerance',
+          checkId: c.id,
+          planLabel: c.planLabel,
         });
       }
     }
+    const queue = [];
+    for (const c of await o.history.listChecks({ needingReview: true, unreviewed: true, oldestFirst: true }))
+      queue.push(chartRoundEntry(c, await o.history.result(c.id), []));
     send(
       res,
       200,
       'text/html; charset=utf-8',
-      listPage(
-        checks.map((c) => ({ ...c, ...(topCauses.has(c.id) ? { topCause: topCauses.get(c.id)! } : {}) })),
-        { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) },
+      listPage({
+        queue,
+        checks: checks.map((c) => ({ ...c, ...(topCauses.has(c.id) ? { topCause: topCauses.get(c.id)! } : {}) })),
+        filter: { since, ...(q.machine ? { machine: q.machine } : {}), ...(q.verdict ? { verdict: q.verdict } : {}) },
         machines,
         trend,
-        await o.history.intakeOutcomes(since),
-        ignored,
-        session,
-      ),
+        notChecked: await o.history.intakeOutcomes(since),
+        ignoredFilters: ignored,
+        who: session,
+      }),
     );
   }
 

@@ -61,6 +61,28 @@ export function historyContract(name: string, t: StoreUnderTest): void {
       await store.close();
     });
 
+    it('lists the checks that want a physicist and have no review yet, oldest first', async () => {
+      const { store } = await t.open();
+      const fine = (await store.recordCheck(newCheck()))!; // brain laterals: within tolerance, fully verified
+      const flagged = (await store.recordCheck(
+        newCheck({ recordedAt: '2026-12-02T10:00:00.000Z', result: breast, planSha256: 'b'.repeat(64), planContentSha256: 'd'.repeat(64) }),
+      ))!;
+      const partly = (await store.recordCheck(
+        newCheck({
+          recordedAt: '2026-12-01T09:00:00.000Z',
+          result: { ...brain, sopInstanceUid: '2.25.9', fullyVerified: false },
+          planSha256: 'e'.repeat(64),
+          planContentSha256: 'f'.repeat(64),
+        }),
+      ))!;
+      expect(brain.verdict).toBe('within tolerance');
+      expect((await store.listChecks({ needingReview: true, unreviewed: true, oldestFirst: true })).map((c) => c.id)).toEqual([partly, flagged]);
+      await store.addReview({ checkId: partly, reviewer: 'Physicist A', reviewedAt: '2026-12-03T00:00:00.000Z', accepted: true, comment: '' });
+      expect((await store.listChecks({ needingReview: true, unreviewed: true })).map((c) => c.id)).toEqual([flagged]);
+      expect((await store.listChecks({ oldestFirst: true })).map((c) => c.id)).toEqual([partly, fine, flagged]);
+      await store.close();
+    });
+
     it('finds a plan already checked by its SOP instance and file or content hash; records it only once', async () => {
       const { store } = await t.open();
       await store.recordCheck(newCheck());
