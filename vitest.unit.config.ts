@@ -21,7 +21,7 @@ export default defineConfig({
       'tests/service/history/postgres-store.test.ts',
       'tests/service/multi-node.test.ts',
       'tests/service/received-hash.test.ts',
-      'tests/dicom/dataset-hash.test.ts',
+      'tests/run/dataset-hash.test.ts',
     ],
     // Beam-data validation is never served from a cache in tests (tests/run/validation-cache.test.ts tests the cache itself).
     env: { PLUMBLINE_CACHE_DIR: 'off' },

@@ -6,4 +6,4 @@ export { readRtDose, RT_DOSE_STORAGE } from './rt-dose.js';
 export { readRtStruct, RT_STRUCTURE_SET_STORAGE } from './rt-struct.js';
 export { readObjectSummary, STORAGE_CLASSES, type ObjectKind, type ObjectSummary } from './object-summary.js';
 export { SOP_CLASS_NAMES } from './dictionary.js';
-export { datasetOffset, datasetSha256 } from './dataset-hash.js';
+export { datasetOffset } from './dataset-offset.js';

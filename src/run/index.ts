@@ -20,7 +20,7 @@ export * from './version.js';
 export type { LoadedMachine } from '../beamdata/index.js';
 export { compareElectronEnergy, DEFAULT_POLICY, ELECTRON_ENERGY_TOLERANCE_PERCENT, type PatientCt, type Policy } from '../check/index.js';
 export { STORAGE_CLASSES, type ObjectSummary, readObjectSummary } from '../dicom/index.js';
-export { datasetSha256 } from '../dicom/index.js';
+export { datasetSha256 } from './dataset-hash.js';
 export * from './beam-data-template.js';
 export { comparePublishedPdd, PUBLISHED_TOLERANCE_PERCENT, type PublishedComparison } from '../beamdata/index.js';
 export * from './import-scans.js';

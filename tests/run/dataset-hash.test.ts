@@ -5,7 +5,8 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { datasetOffset, datasetSha256 } from '../../src/dicom/dataset-hash.js';
+import { datasetOffset } from '../../src/dicom/index.js';
+import { datasetSha256 } from '../../src/run/dataset-hash.js';
 import { manifestPath } from '../helpers/machines.js';
 
 const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');

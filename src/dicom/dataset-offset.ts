@@ -1,5 +1,3 @@
-import { createHash } from 'node:crypto';
-
 const PREAMBLE = 128;
 /** (0002,0000) File Meta Information Group Length, explicit VR little endian: tag, "UL", length 4, value. */
 const GROUP_LENGTH_ELEMENT = 12;
@@ -15,14 +13,4 @@ export function datasetOffset(bytes: Uint8Array): number {
   if (b.readUInt16LE(at) !== 0x0002 || b.readUInt16LE(at + 2) !== 0x0000 || b.toString('latin1', at + 4, at + 6) !== 'UL') return 0;
   const end = at + GROUP_LENGTH_ELEMENT + b.readUInt32LE(at + 8);
   return end <= b.length ? end : 0;
-}
-
-/**
- * SHA-256 of the data set as it was sent: the bytes after the file meta group. A receiver writes a
- * meta group of its own, so this, not the file's hash, matches the exported file's data set.
- */
-export function datasetSha256(bytes: Uint8Array): string {
-  return createHash('sha256')
-    .update(bytes.subarray(datasetOffset(bytes)))
-    .digest('hex');
 }
