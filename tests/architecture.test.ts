@@ -11,7 +11,19 @@ import { describe, expect, it } from 'vitest';
 const SRC = fileURLToPath(new URL('../src/', import.meta.url));
 
 /** Node's built-ins, for the layers that do I/O. */
-const NODE = ['node:fs', 'node:path', 'node:url', 'node:os', 'node:crypto', 'node:worker_threads', 'node:net', 'node:http', 'node:https', 'node:stream', 'node:readline'];
+const NODE = [
+  'node:fs',
+  'node:path',
+  'node:url',
+  'node:os',
+  'node:crypto',
+  'node:worker_threads',
+  'node:net',
+  'node:http',
+  'node:https',
+  'node:stream',
+  'node:readline',
+];
 
 const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   model: ['model', 'zod'],

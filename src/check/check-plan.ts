@@ -152,6 +152,7 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
     planLabel: plan.label,
     ...(plan.name ? { planName: plan.name } : {}),
     ...(plan.patient.id ? { patientId: plan.patient.id } : {}),
+    ...(plan.patient.name ? { patientName: plan.patient.name } : {}),
     sopInstanceUid: plan.sopInstanceUid,
     ...(plan.approvalStatus ? { approvalStatus: plan.approvalStatus } : {}),
     ...(machine ? { machine } : {}),

@@ -290,6 +290,8 @@ export const PlanCheck = z.object({
   planLabel: z.string(),
   planName: z.string().optional(),
   patientId: z.string().optional(),
+  /** The patient's name as the plan gives it (DICOM PN: family^given^middle^prefix^suffix). */
+  patientName: z.string().optional(),
   sopInstanceUid: z.string(),
   approvalStatus: z.string().optional(),
   machine: z.object({ planName: z.string(), dataName: z.string(), via: z.string() }).optional(),

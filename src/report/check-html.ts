@@ -5,6 +5,7 @@ import { clampText, noteText, pointText, reasonTexts } from './note-text.js';
 import { beamDataText } from './beam-data-text.js';
 import { planHeadline } from './plan-headline.js';
 import { explanationHtml } from './explanation-text.js';
+import { personName } from './person-name.js';
 import { segmentSection } from './segment-table.js';
 import { deviationText, fixed as n, pointMm as mm, signed } from './table.js';
 
@@ -134,7 +135,7 @@ ${p.issues.length ? `<p class="note">${p.issues.map((i) => esc(i.message)).join(
 export function checkHtml(doc: CheckDocument): string {
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>plumbline check ${esc(doc.createdAt)}</title>
 <style>
-@page { size: A4; margin: 15mm; }
+${printedPage(doc)}
 body { font: 10pt/1.35 system-ui, sans-serif; color: #000; max-width: 190mm; margin: auto; }
 h1 { font-size: 15pt; } h2 { font-size: 12pt; border-top: 1px solid #000; padding-top: 6px; } h4 { margin: 8px 0 2px; }
 table { border-collapse: collapse; margin: 4px 0; } td, th { border: 1px solid #999; padding: 1px 4px; font-size: 8.5pt; }
@@ -156,6 +157,31 @@ ${doc.refused.length ? `<h2>Files refused</h2><ul>${doc.refused.map((i) => `<li>
 <p class="caution">${esc(doc.caution)}</p>
 </body></html>
 `;
+}
+
+/** Text as a CSS string: quotes, backslashes and line breaks escaped, and nothing that could end the style element. */
+const cssString = (t: string) => `"${t.replace(/[\\"<>\n]/g, (c) => `\\${c.charCodeAt(0).toString(16).toUpperCase()} `)}"`;
+
+/** The patient of every plan in the document, as one line, when there is one patient. */
+function patientLine(doc: CheckDocument): string {
+  const patients = new Map(doc.plans.map((p) => [p.patientId ?? '', p.patientName]));
+  if (patients.size !== 1) return doc.plans.length ? 'Several patients: each plan names its own' : '';
+  const [id, name] = [...patients][0]!;
+  return `Patient ${name ? personName(name) : '(no name)'}, ID ${id || '(none)'}`;
+}
+
+/**
+ * Every printed page carries the patient (name and ID), the check it belongs to and its page number
+ * of the whole; a report of several patients starts each plan on a page of its own.
+ */
+function printedPage(doc: CheckDocument): string {
+  const several = new Set(doc.plans.map((p) => p.patientId ?? '')).size > 1;
+  return `@page { size: A4; margin: 18mm 15mm;
+  @top-left { content: ${cssString(patientLine(doc))}; font: 8pt system-ui, sans-serif; }
+  @top-right { content: ${cssString(`plumbline check ${doc.createdAt.slice(0, 16).replace('T', ' ')} UTC`)}; font: 8pt system-ui, sans-serif; }
+  @bottom-left { content: ${cssString("An aid to, never a replacement for, a qualified medical physicist's review")}; font: 7pt system-ui, sans-serif; }
+  @bottom-right { content: "page " counter(page) " of " counter(pages); font: 8pt system-ui, sans-serif; } }
+${several ? 'section.plan + section.plan { break-before: page; }' : ''}`;
 }
 
 /** Where the depth came from, in words: a flat surface, the CT, or the segments of a modulated beam (MU-weighted). */

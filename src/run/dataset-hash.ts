@@ -6,5 +6,7 @@ import { datasetOffset } from '../dicom/index.js';
  * meta group of its own, so this, not the file's hash, matches the exported file's data set.
  */
 export function datasetSha256(bytes: Uint8Array): string {
-  return createHash('sha256').update(bytes.subarray(datasetOffset(bytes))).digest('hex');
+  return createHash('sha256')
+    .update(bytes.subarray(datasetOffset(bytes)))
+    .digest('hex');
 }

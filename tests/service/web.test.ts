@@ -210,6 +210,29 @@ describe('the chart-round page', () => {
     await page.close();
   });
 
+  it('the stored report carries the sign-off once reviewed, and printed, the patient and the page number on every page', async () => {
+    const id = (await history.listChecks()).find((c) => c.planLabel === 'L BREAST TG')!.id;
+    const page = await signedIn(PHYSICIST);
+    await page.goto(`${base}/check/${id}/report`);
+    const signOff = page.locator('#sign-off tbody tr');
+    expect(await signOff.count()).toBe(1);
+    expect((await signOff.locator('td').allTextContents()).slice(0, 2)).toEqual(['Physicist Demo', 'physicist']);
+    // Printed by Chromium, read back by poppler's pdftotext: each page names the patient and its number of the whole.
+    const pdf = join(root, 'report.pdf');
+    await page.pdf({ path: pdf, format: 'A4' });
+    await page.close();
+    const text = spawnSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
+    expect(text.status, text.stderr).toBe(0);
+    const pages = text.stdout.split('\f').filter((t) => t.trim());
+    expect(pages.length).toBeGreaterThan(1);
+    const patientId = (await history.listChecks({ id }))[0]!.patientId!;
+    pages.forEach((t, k) => {
+      expect(t).toMatch(new RegExp(`Patient [^\\n]+, ID ${patientId}`));
+      expect(t).toContain(`page ${k + 1} of ${pages.length}`);
+    });
+    expect(pages.at(-1)).toMatch(/Sign-off[\s\S]*Physicist Demo\s+physicist/);
+  });
+
   it('a viewer reads but cannot review: no form on the page, and a review posted with their token is refused', async () => {
     const page = await signedIn(VIEWER);
     await page.click('text=BRAIN LATS');

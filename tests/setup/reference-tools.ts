@@ -18,6 +18,9 @@ export default function setup(): void {
   if (!has('chromium', ['--version'])) missing.push('chromium');
   // The PostgreSQL history is tested on a server the tests start from Debian's programs.
   if (!postgresBinDir()) missing.push('postgresql');
+  // Printed reports are read back as text by poppler.
+  if (!has('pdftotext', ['-v'])) missing.push('poppler-utils');
+  if (!has('openssl', ['version'])) missing.push('openssl');
   if (missing.length) {
     throw new Error(
       `the tests need Debian packages that are not installed: ${missing.join(' ')}\n` +

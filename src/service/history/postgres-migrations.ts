@@ -96,4 +96,11 @@ export const POSTGRES_MIGRATIONS: readonly { readonly version: number; readonly 
       );
     `,
   },
+  {
+    version: 7,
+    sql: `
+      -- The role the reviewer signed in with, for the sign-off (reviews before sign-in have none).
+      ALTER TABLE reviews ADD COLUMN reviewer_role TEXT;
+    `,
+  },
 ];

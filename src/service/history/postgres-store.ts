@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import pg from 'pg';
 import { POSTGRES_MIGRATIONS } from './postgres-migrations.js';
-import { type CheckRow, type OutcomeRow, toOutcome, toRecord, toUser, type UserRow } from './rows.js';
+import { type CheckRow, type OutcomeRow, type ReviewRow, toOutcome, toRecord, toReview, toUser, type UserRow } from './rows.js';
 import {
   type CheckFilter,
   type CheckRecord,
@@ -184,18 +184,11 @@ export class PostgresHistoryStore implements HistoryStore {
   }
 
   async reviews(checkId: number): Promise<ReviewRecord[]> {
-    const q = await this.pool.query<{ id: number; check_id: number; reviewer: string; reviewed_at: string; accepted: boolean; comment: string }>(
-      'SELECT id, check_id, reviewer, reviewed_at, accepted, comment FROM reviews WHERE check_id = $1 ORDER BY id',
+    const q = await this.pool.query<ReviewRow>(
+      'SELECT id, check_id, reviewer, reviewer_role, reviewed_at, accepted, comment FROM reviews WHERE check_id = $1 ORDER BY id',
       [checkId],
     );
-    return q.rows.map((x) => ({
-      id: x.id,
-      checkId: x.check_id,
-      reviewer: x.reviewer,
-      reviewedAt: x.reviewed_at,
-      accepted: x.accepted,
-      comment: x.comment,
-    }));
+    return q.rows.map(toReview);
   }
 
   async recordIntakeOutcome(o: Omit<IntakeOutcome, 'id'>): Promise<number> {

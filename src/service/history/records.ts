@@ -71,6 +71,8 @@ export const ReviewRecord = z.object({
   id: z.number(),
   checkId: z.number(),
   reviewer: z.string().min(1),
+  /** The role the reviewer signed in with (absent for reviews recorded before sign-in). */
+  reviewerRole: z.enum(['physicist', 'viewer']).optional(),
   reviewedAt: z.string(),
   accepted: z.boolean(),
   comment: z.string(),

@@ -1,4 +1,4 @@
-import { CheckRecord, IntakeOutcome, UserRecord } from './records.js';
+import { CheckRecord, IntakeOutcome, ReviewRecord, UserRecord } from './records.js';
 
 /** The columns of checks a list reads (without the result and the page), as either store returns them. */
 export interface CheckRow {
@@ -71,3 +71,25 @@ export interface UserRow {
 
 export const toUser = (r: UserRow): UserRecord =>
   UserRecord.parse({ name: r.name, role: r.role, passwordHash: r.password_hash, createdAt: r.created_at });
+
+/** A row of reviews, in either store: accepted as 0/1 or true/false. */
+export interface ReviewRow {
+  id: number;
+  check_id: number;
+  reviewer: string;
+  reviewer_role: string | null;
+  reviewed_at: string;
+  accepted: number | boolean;
+  comment: string;
+}
+
+export const toReview = (x: ReviewRow): ReviewRecord =>
+  ReviewRecord.parse({
+    id: x.id,
+    checkId: x.check_id,
+    reviewer: x.reviewer,
+    ...(x.reviewer_role !== null ? { reviewerRole: x.reviewer_role } : {}),
+    reviewedAt: x.reviewed_at,
+    accepted: x.accepted === 1 || x.accepted === true,
+    comment: x.comment,
+  });

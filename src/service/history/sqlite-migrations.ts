@@ -103,4 +103,11 @@ export const SQLITE_MIGRATIONS: readonly { readonly version: number; readonly sq
       );
     `,
   },
+  {
+    version: 7,
+    sql: `
+      -- The role the reviewer signed in with, for the sign-off (reviews before sign-in have none).
+      ALTER TABLE reviews ADD COLUMN reviewer_role TEXT;
+    `,
+  },
 ];

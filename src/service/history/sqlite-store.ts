@@ -12,7 +12,7 @@ import {
   StoredResult,
   UserRecord,
 } from './store.js';
-import { type CheckRow, type OutcomeRow, toOutcome, toRecord, toUser, type UserRow } from './rows.js';
+import { type CheckRow, type OutcomeRow, type ReviewRow, toOutcome, toRecord, toReview, toUser, type UserRow } from './rows.js';
 import { SQLITE_MIGRATIONS } from './sqlite-migrations.js';
 
 /** How long a writer waits for another process's write to finish (ms). */
@@ -152,23 +152,16 @@ export class SqliteHistoryStore implements HistoryStore {
     const v = ReviewRecord.omit({ id: true }).parse(r);
     return Number(
       this.db
-        .prepare('INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment) VALUES (?, ?, ?, ?, ?)')
-        .run(v.checkId, v.reviewer, v.reviewedAt, v.accepted ? 1 : 0, v.comment).lastInsertRowid,
+        .prepare('INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment, reviewer_role) VALUES (?, ?, ?, ?, ?, ?)')
+        .run(v.checkId, v.reviewer, v.reviewedAt, v.accepted ? 1 : 0, v.comment, v.reviewerRole ?? null).lastInsertRowid,
     );
   }
 
   async reviews(checkId: number): Promise<ReviewRecord[]> {
     const rows = this.db
-      .prepare('SELECT id, check_id, reviewer, reviewed_at, accepted, comment FROM reviews WHERE check_id = ? ORDER BY id')
-      .all(checkId) as { id: number; check_id: number; reviewer: string; reviewed_at: string; accepted: number; comment: string }[];
-    return rows.map((x) => ({
-      id: x.id,
-      checkId: x.check_id,
-      reviewer: x.reviewer,
-      reviewedAt: x.reviewed_at,
-      accepted: x.accepted === 1,
-      comment: x.comment,
-    }));
+      .prepare('SELECT id, check_id, reviewer, reviewer_role, reviewed_at, accepted, comment FROM reviews WHERE check_id = ? ORDER BY id')
+      .all(checkId) as ReviewRow[];
+    return rows.map(toReview);
   }
 
   async recordIntakeOutcome(o: Omit<IntakeOutcome, 'id'>): Promise<number> {

@@ -9,6 +9,7 @@ import { allowedHosts, allowedOrigins, cookieOf, isLoopback, readForm, redirect,
 import { checkPage, listPage, notFoundPage, signInPage, type TrendPoint } from './pages.js';
 import { verifyPassword } from './passwords.js';
 import { type Session, Sessions, SignInLimiter } from './sessions.js';
+import { withSignOff } from './sign-off.js';
 
 export { isLoopback } from './http-parts.js';
 
@@ -97,9 +98,9 @@ export function startWebServer(o: WebServerOptions): Promise<{ port: number; clo
     if (check && read && !check[2]) return one(Number(check[1]), res, session);
     if (check && read && check[2] === '/report') {
       const html = await o.history.html(Number(check[1]));
-      // The stored report is shown framed in its check's page, and nowhere else.
+      // The stored report is shown framed in its check's page, and nowhere else; with its sign-off once reviewed.
       return html
-        ? send(res, 200, 'text/html; charset=utf-8', html, "'self'")
+        ? send(res, 200, 'text/html; charset=utf-8', withSignOff(html, await o.history.reviews(Number(check[1]))), "'self'")
         : send(res, 404, 'text/html; charset=utf-8', notFoundPage('no such check', session));
     }
     if (check && req.method === 'POST' && check[2] === '/review') return review(Number(check[1]), req, res, session);
@@ -213,6 +214,7 @@ export function startWebServer(o: WebServerOptions): Promise<{ port: number; clo
     await o.history.addReview({
       checkId: id,
       reviewer: session.user,
+      reviewerRole: session.role,
       reviewedAt: new Date(now()).toISOString(),
       accepted: form.data.accepted === 'yes',
       comment: form.data.comment,

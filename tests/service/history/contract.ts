@@ -30,12 +30,12 @@ export interface StoreUnderTest {
 
 export function historyContract(name: string, t: StoreUnderTest): void {
   describe(`the history store contract: ${name}`, () => {
-    it('applies its migrations once, recorded: schema version 6, again after reopening', async () => {
+    it('applies its migrations once, recorded: schema version 7, again after reopening', async () => {
       const { store, reopen } = await t.open();
-      expect(await store.schemaVersion()).toBe(6);
+      expect(await store.schemaVersion()).toBe(7);
       await store.recordCheck(newCheck());
       const again = await reopen();
-      expect(await again.schemaVersion()).toBe(6);
+      expect(await again.schemaVersion()).toBe(7);
       expect(await again.listChecks()).toHaveLength(1);
       await again.close();
       await store.close();

@@ -57,7 +57,7 @@ describe('the PostgreSQL history', () => {
   it('two nodes on one database, both starting (migrating) at once, then working on the same plan: one record, the second sees it', async () => {
     const f = await fresh();
     const [a, b] = await Promise.all([f.open(), f.open()]);
-    expect(await a.schemaVersion()).toBe(6);
+    expect(await a.schemaVersion()).toBe(7);
     const key = { sopInstanceUid: newCheck().result.sopInstanceUid, sha256: 'a'.repeat(64) };
     const work = (store: PostgresHistoryStore) =>
       store.exclusively(key, async () => {
