@@ -34,7 +34,9 @@ export function matchMachine(planMachineName: string | undefined, machine: Machi
         code: 'missing-table',
         message:
           `no beam data for machine "${planMachineName}"${mapped ? ` (mapped to "${mapped}")` : ''}; ` +
-          `use --machine-alias ${planMachineName}=${machine.name} if it is that machine`,
+          // Advice both front doors can follow: the service has no command line, only the beam data's aliases.
+          `if it is the machine of beam data ${machine.name}, add "${planMachineName}" to the aliases in its manifest ` +
+          `(for one check on the command line: --machine-alias ${planMachineName}=${machine.name})`,
         expected: machine.aliases.join(', '),
         found: name,
       },

@@ -147,6 +147,8 @@ describe('a plan the check itself refuses', () => {
     expect(await s.history.intakeOutcomes()).toEqual([
       expect.objectContaining({ outcome: 'refused', fileName: 'unknown-machine.dcm', reason: expect.stringMatching(/NO_SUCH_LINAC/) }),
     ]);
+    // Advice the service's user can follow (it has no command line): the beam data's aliases first.
+    expect((await s.history.intakeOutcomes())[0]!.reason).toMatch(/add "NO_SUCH_LINAC" to the aliases in its manifest/);
   });
 });
 
