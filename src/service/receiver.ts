@@ -26,6 +26,8 @@ export interface ReceiverOptions {
   /** Objects land here, complete, before their success response is sent. */
   readonly inbox: string;
   readonly log: (line: string) => void;
+  /** Told after each object is safely in the inbox (the pipeline need not wait for its next look). */
+  readonly onStored?: () => void;
 }
 
 const ACCEPTED_SOP_CLASSES = new Set<string>([SopClass.Verification, ...Object.values(STORAGE_CLASSES)]);
@@ -171,6 +173,7 @@ export function startReceiver(o: ReceiverOptions): Promise<{ close: () => Promis
           this.partial.delete(info.tmp);
           fsyncDirectory(o.inbox);
           r.setStatus(Status.Success);
+          o.onStored?.();
         }
       } catch (e) {
         o.log(`could not store an object: ${(e as Error).message}`);

@@ -15,6 +15,8 @@ export interface RunningService {
 }
 
 const TICK_MS = 1000;
+/** After an object arrives, the pipeline looks this soon (ms): objects of one send gather, none waits for the tick. */
+const ARRIVAL_DELAY_MS = 25;
 
 /** The service's pieces from its configuration: beam data of every machine, the policy, the history. */
 export async function openService(config: ServiceConfig): Promise<Result<Omit<PipelineContext, 'log' | 'now'>>> {
@@ -64,6 +66,14 @@ export async function runService(
     });
     return busy;
   };
+  // An arrival asks for a pass soon; arrivals close together share one.
+  let asked: NodeJS.Timeout | undefined;
+  const arrived = () => {
+    asked ??= setTimeout(() => {
+      asked = undefined;
+      void pass();
+    }, ARRIVAL_DELAY_MS);
+  };
   const rc = base.config.receiver;
   // runIntake refuses a `receive` without a receiver section before starting: reaching here is a bug.
   if (o.receive && !rc) throw new InternalError('the configuration has no receiver section');
@@ -79,6 +89,7 @@ export async function runService(
           idleSeconds: rc.idleSeconds,
           inbox: base.config.folders.inbox,
           log: o.log,
+          onStored: arrived,
         })
       : undefined;
   const watchState: WatchState = { seen: new Map(), told: new Set() };
@@ -98,6 +109,7 @@ export async function runService(
     pass,
     stop: async () => {
       clearInterval(timer);
+      if (asked) clearTimeout(asked);
       await receiver?.close();
       while (busy) await busy;
       await base.history.close();
