@@ -213,7 +213,12 @@ describe('the chart-round page', () => {
   it('the stored report carries the sign-off once reviewed, and printed, the patient and the page number on every page', async () => {
     const id = (await history.listChecks()).find((c) => c.planLabel === 'L BREAST TG')!.id;
     const page = await signedIn(PHYSICIST);
+    // The check's page and its stored report word the result the same.
+    await page.goto(`${base}/check/${id}`);
+    const title = await page.locator('h1').textContent();
     await page.goto(`${base}/check/${id}/report`);
+    expect(title).toBe('L BREAST TG: beyond action level');
+    expect(await page.locator('section.plan h2').first().textContent()).toMatch(/— beyond action level$/);
     const signOff = page.locator('#sign-off tbody tr');
     expect(await signOff.count()).toBe(1);
     expect((await signOff.locator('td').allTextContents()).slice(0, 2)).toEqual(['Physicist Demo', 'physicist']);

@@ -1,6 +1,7 @@
 import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
+import { planHeadline } from '../../report/plan-headline.js';
 import type { ChartRoundEntry } from '../history/chart-round.js';
 import type { CheckRecord, IntakeOutcome, ReviewRecord, StoredResult } from '../history/store.js';
 import type { Session } from './sessions.js';
@@ -141,7 +142,8 @@ function reviewItem(r: ReviewRecord): string {
 export function checkPage(record: CheckRecord, result: StoredResult, reviews: readonly ReviewRecord[], who?: Session): string {
   const list = reviews.length ? `<ul id="reviews">${reviews.map(reviewItem).join('')}</ul>` : '<p id="reviews">No review yet.</p>';
   return page(
-    `${result.planLabel}: ${result.verdict}`,
+    // The same words as the stored report's headline.
+    `${result.planLabel}: ${planHeadline({ issues: [], verdict: result.verdict, fullyVerified: result.fullyVerified })}`,
     `<p>Recorded ${esc(record.recordedAt)}; patient ${esc(record.patientId ?? '—')}; machine ${esc(record.machine ?? '—')};
 ${result.fullyVerified ? 'every beam checked' : '<b>not fully verified</b>'}; beam data ${esc(record.beamDataVersion ?? '—')}; plumbline
 ${esc(record.toolVersion)}.</p>
