@@ -20,6 +20,7 @@ export default defineConfig({
       'tests/geometry/ct-depth.test.ts',
       'tests/service/history/postgres-store.test.ts',
       'tests/service/multi-node.test.ts',
+      'tests/service/web-postgres.test.ts',
       'tests/service/received-hash.test.ts',
       'tests/run/dataset-hash.test.ts',
     ],

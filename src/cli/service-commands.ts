@@ -257,7 +257,8 @@ export async function runHistoryExport(raw: Record<string, unknown>): Promise<Co
     for (const c of (await store.listChecks({ since: p.data.since })).reverse())
       entries.push(chartRoundEntry(c, await store.result(c.id), await store.reviews(c.id)));
     const csv = chartRoundCsv(entries);
-    if (!p.data.out) return { stdout: [csv.replace(/\r\n$/, '')], stderr: [], exitCode: 0 };
+    // On the terminal one row a line (control characters shown, never obeyed, as for all output); --out keeps RFC 4180 exactly.
+    if (!p.data.out) return { stdout: csv.split('\r\n').slice(0, -1), stderr: [], exitCode: 0 };
     writeFileAtomic(p.data.out, csv);
     return { stdout: [], stderr: [`${entries.length} check(s) since ${p.data.since} written to ${p.data.out}`], exitCode: 0 };
   } finally {

@@ -177,8 +177,8 @@ export class PostgresHistoryStore implements HistoryStore {
   async addReview(r: Omit<ReviewRecord, 'id'>): Promise<number> {
     const v = ReviewRecord.omit({ id: true }).parse(r);
     const q = await this.pool.query<{ id: number }>(
-      'INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment) VALUES ($1, $2, $3, $4, $5) RETURNING id',
-      [v.checkId, v.reviewer, v.reviewedAt, v.accepted, v.comment],
+      'INSERT INTO reviews (check_id, reviewer, reviewed_at, accepted, comment, reviewer_role) VALUES ($1, $2, $3, $4, $5, $6) RETURNING id',
+      [v.checkId, v.reviewer, v.reviewedAt, v.accepted, v.comment, v.reviewerRole ?? null],
     );
     return q.rows[0]!.id;
   }

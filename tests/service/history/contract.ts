@@ -127,10 +127,17 @@ export function historyContract(name: string, t: StoreUnderTest): void {
         accepted: false,
         comment: 'check the point',
       });
-      await store.addReview({ checkId: id, reviewer: 'Physicist B', reviewedAt: '2026-12-02T10:00:00.000Z', accepted: true, comment: '' });
-      expect((await store.reviews(id)).map((r) => [r.reviewer, r.accepted, r.comment])).toEqual([
-        ['Physicist A', false, 'check the point'],
-        ['Physicist B', true, ''],
+      await store.addReview({
+        checkId: id,
+        reviewer: 'Physicist B',
+        reviewerRole: 'physicist',
+        reviewedAt: '2026-12-02T10:00:00.000Z',
+        accepted: true,
+        comment: '',
+      });
+      expect((await store.reviews(id)).map((r) => [r.reviewer, r.reviewerRole, r.accepted, r.comment])).toEqual([
+        ['Physicist A', undefined, false, 'check the point'],
+        ['Physicist B', 'physicist', true, ''],
       ]);
       await expect(store.addReview({ checkId: id, reviewer: '', reviewedAt: 'x', accepted: true, comment: '' })).rejects.toThrow();
       await expect(store.addReview({ checkId: 999_999, reviewer: 'X', reviewedAt: 'x', accepted: true, comment: '' })).rejects.toThrow();
