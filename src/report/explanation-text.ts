@@ -13,7 +13,8 @@ const CAUSE_TEXT: Readonly<Record<DeviationCause['code'], (e: Evidence) => strin
     `(${signed(e.differenceCm as number, 2)} cm)`,
   heterogeneity: (e) =>
     e.planningSystemCorrection === undefined
-      ? `heterogeneity: the planning system ${str(e, 'planningSystem')}; ours ${e.ourCorrection !== undefined ? `by ${num(e, 'ourCorrection', 4)} (the CT)` : str(e, 'ours')}`
+      ? `heterogeneity: the planning system ${str(e, 'planningSystem')}; ours ` +
+        (e.ourCorrection !== undefined ? `by ${num(e, 'ourCorrection', 4)} (the CT)` : str(e, 'ours'))
       : `heterogeneity: the planning system corrected by ${num(e, 'planningSystemCorrection', 4)} ` +
         `(equivalent depth ${num(e, 'planningSystemEquivalentDepthCm', 2)} cm at ${num(e, 'planningSystemDepthCm', 2)} cm), ` +
         `ours by ${num(e, 'ourCorrection', 4)} (${str(e, 'ours')})`,

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { closeSync, copyFileSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
-import { basename, join } from 'node:path';
+import { join } from 'node:path';
 import { inboxNameFor } from './inbox-names.js';
 
 export { inboxNameFor, originalName } from './inbox-names.js';

@@ -71,6 +71,28 @@ function run(name: string, planted: Planted, extra: Extra = {}) {
   );
   return { plan, check: r, beams: beams(r) as CheckedBeam[] };
 }
+/** A 2 × 2 × 2 RT Dose grid of the plan, 20 mm apart around the isocenter. */
+function cubeGrid(plan: Plan, doseGy: Float32Array, o: Pick<DoseGrid, 'summationType'> & Partial<DoseGrid>): DoseGrid {
+  return {
+    file: 'dose.dcm',
+    frameOfReferenceUid: plan.frameOfReferenceUid!,
+    referencedPlanUid: plan.sopInstanceUid,
+    units: 'GY',
+    type: 'PHYSICAL',
+    columns: 2,
+    rows: 2,
+    originMm: [-10, -10, -10],
+    rowDirection: [1, 0, 0],
+    columnDirection: [0, 1, 0],
+    normal: [0, 0, 1],
+    columnSpacingMm: 20,
+    rowSpacingMm: 20,
+    frameOffsetsMm: [0, 20],
+    doseGy,
+    ...o,
+  };
+}
+
 /** Our dose (cGy) for 100 MU of a 10 × 10 AP beam at 10 cm, SAD setup: from a first run with the planning system agreeing exactly. */
 const ours = () => run('ours', { doseGy: [1] }).beams[0]!.calculation.independentDoseCGy;
 
@@ -130,25 +152,7 @@ describe('explaining a deviation', () => {
       const xs = [-10, 10];
       const doseGy = new Float32Array(8);
       for (let k = 0; k < 2; k++) for (let j = 0; j < 2; j++) for (let i = 0; i < 2; i++) doseGy[(k * 2 + j) * 2 + i] = 1 + 0.025 * xs[i]!;
-      return {
-        file: 'beam-1.dcm',
-        frameOfReferenceUid: plan.frameOfReferenceUid!,
-        referencedPlanUid: plan.sopInstanceUid,
-        referencedBeamNumber: 1,
-        summationType: 'BEAM',
-        units: 'GY',
-        type: 'PHYSICAL',
-        columns: 2,
-        rows: 2,
-        originMm: [-10, -10, -10],
-        rowDirection: [1, 0, 0],
-        columnDirection: [0, 1, 0],
-        normal: [0, 0, 1],
-        columnSpacingMm: 20,
-        rowSpacingMm: 20,
-        frameOffsetsMm: [0, 20],
-        doseGy,
-      };
+      return cubeGrid(plan, doseGy, { summationType: 'BEAM', referencedBeamNumber: 1 });
     };
     const planted = 0.05; // the planning system's dose 5 % below ours, as a 2 mm shift in this gradient gives
     const b = run('why-gradient', { doseGy: [(ours() / 100) * (1 - planted)] }, { grids: (p) => [grid(p)] }).beams[0]!;
@@ -319,25 +323,8 @@ describe('explaining a deviation', () => {
       },
       -400,
     );
-    const water = (p: Plan): DoseGrid => ({
-      file: 'plan-dose.dcm',
-      frameOfReferenceUid: p.frameOfReferenceUid!,
-      referencedPlanUid: p.sopInstanceUid,
-      summationType: 'PLAN',
-      units: 'GY',
-      type: 'PHYSICAL',
-      columns: 2,
-      rows: 2,
-      originMm: [-10, -10, -10],
-      rowDirection: [1, 0, 0],
-      columnDirection: [0, 1, 0],
-      normal: [0, 0, 1],
-      columnSpacingMm: 20,
-      rowSpacingMm: 20,
-      frameOffsetsMm: [0, 20],
-      doseGy: new Float32Array(8).fill(1),
-      tissueHeterogeneityCorrection: ['WATER'],
-    });
+    const water = (p: Plan): DoseGrid =>
+      cubeGrid(p, new Float32Array(8).fill(1), { summationType: 'PLAN', tissueHeterogeneityCorrection: ['WATER'] });
     const mine = run('why-lung-ours', { doseGy: [1] }, { ct, grids: (p) => [water(p)] }).beams[0]!;
     const t = mine.calculation.ct!;
     const planted = tpr(t.radiologicalDepthMm / 10) / tpr(t.geometricDepthMm / 10) - 1;

@@ -11,10 +11,9 @@ import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts/fixtures/plan-parts.js';
-import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { PostgresHistoryStore } from '../../src/service/history/postgres-store.js';
 import { startThrowawayPostgres, type ThrowawayPostgres } from '../helpers/postgres.js';
+import { burstPlans } from '../helpers/burst-plans.js';
 import { waitFor } from '../helpers/wait-for.js';
 
 const BIN = fileURLToPath(new URL('../../dist/plumbline.mjs', import.meta.url));
@@ -31,31 +30,6 @@ beforeAll(() => {
   server = startThrowawayPostgres();
 }, 60_000);
 afterAll(() => server?.stop());
-
-/** n distinct one-beam plans (their own SOP instance each), written as a planning system exports them. */
-function plans(dir: string, prefix: string, n: number): string[] {
-  mkdirSync(dir, { recursive: true });
-  const iso: [number, number, number] = [0, 0, 0];
-  return Array.from({ length: n }, (_, i) => {
-    const file = join(dir, `${prefix}-${i}.dcm`);
-    writeDataset(
-      file,
-      planDataset({
-        file: basename(file),
-        patientId: `${prefix}-${i}`,
-        patientName: 'Nodes^Test',
-        label: `${prefix} ${i}`,
-        name: 'nodes',
-        description: 'test',
-        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-      }),
-      RT_PLAN_STORAGE,
-    );
-    return file;
-  });
-}
 
 interface Node {
   readonly c: ChildProcess;
@@ -125,7 +99,7 @@ describe('several intake nodes on one PostgreSQL history', () => {
   it('two receivers and a watched folder fed the same 40 plans at once: each recorded once, checked once', async () => {
     const root = mkdtempSync(join(tmpdir(), 'plumbline-nodes-'));
     const url = await server.newDatabase('nodes_burst');
-    const files = plans(join(root, 'plans'), 'SAME', 40);
+    const files = burstPlans(join(root, 'plans'), 'SAME', 40);
     const watched = join(root, 'export');
     mkdirSync(watched);
     const [pa, pb] = [await freePort(), await freePort()];
@@ -169,7 +143,7 @@ describe('several intake nodes on one PostgreSQL history', () => {
     // The nodes meet on every plan at the same moment: without working on a plan alone, both would check it.
     const root = mkdtempSync(join(tmpdir(), 'plumbline-nodes-race-'));
     const url = await server.newDatabase('nodes_race');
-    const files = plans(join(root, 'plans'), 'RACE', 60);
+    const files = burstPlans(join(root, 'plans'), 'RACE', 60);
     const [a, b] = [node(root, 'PLUMBLINE_A', url, { watch: join(root, 'none-a') }), node(root, 'PLUMBLINE_B', url, { watch: join(root, 'none-b') })];
     for (const n of [a, b]) {
       mkdirSync(n.inbox, { recursive: true });
@@ -193,7 +167,7 @@ describe('several intake nodes on one PostgreSQL history', () => {
   it('a receiver killed (SIGKILL) in the middle of a burst to both: after its restart, everything acknowledged is recorded, nothing checked twice', async () => {
     const root = mkdtempSync(join(tmpdir(), 'plumbline-nodes-kill-'));
     const url = await server.newDatabase('nodes_kill');
-    const files = plans(join(root, 'plans'), 'KILL', 150);
+    const files = burstPlans(join(root, 'plans'), 'KILL', 150);
     const [pa, pb] = [await freePort(), await freePort()];
     const a = node(root, 'PLUMBLINE_A', url, { port: pa });
     const b = node(root, 'PLUMBLINE_B', url, { port: pb });

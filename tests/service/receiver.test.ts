@@ -9,12 +9,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { connect } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { writeCtPhantom } from '../../scripts/fixtures/ct-phantom.js';
-import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts/fixtures/plan-parts.js';
 import { runPython } from '../../scripts/lib/find-python.js';
 import { ServiceConfig } from '../../src/service/config.js';
 import { openService, type RunningService, runService } from '../../src/service/run-service.js';
+import { burstPlans } from '../helpers/burst-plans.js';
 import { waitFor } from '../helpers/wait-for.js';
 import { DEMO_MANIFEST } from '../helpers/machines.js';
 
@@ -59,31 +58,6 @@ const run = (cmd: string, args: string[]) =>
   });
 const store = (files: string[], aet = 'NG_TPS') => run('storescu', ['-aet', aet, '-aec', 'PLUMBLINE', '127.0.0.1', String(port), ...files]);
 
-/** n distinct single-field plans (their own SOP instance and frame of reference each). */
-function plans(dir: string, prefix: string, n: number): string[] {
-  mkdirSync(dir, { recursive: true });
-  const iso: [number, number, number] = [0, 0, 0];
-  return Array.from({ length: n }, (_, i) => {
-    const file = join(dir, `${prefix}-${i}.dcm`);
-    writeDataset(
-      file,
-      planDataset({
-        file: `${prefix}-${i}.dcm`,
-        patientId: `${prefix}-${i}`,
-        patientName: 'Load^Test',
-        label: `${prefix} ${i}`,
-        name: 'load',
-        description: 'test',
-        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-      }),
-      RT_PLAN_STORAGE,
-    );
-    return file;
-  });
-}
-
 describe('the DICOM receiver', () => {
   it('answers C-ECHO for an allowed calling AE title; rejects an unknown calling or called AE title at association', async () => {
     expect((await run('echoscu', ['-aet', 'NG_TPS', '-aec', 'PLUMBLINE', '127.0.0.1', String(port)])).status).toBe(0);
@@ -103,7 +77,7 @@ describe('the DICOM receiver', () => {
   });
 
   it('20 concurrent associations of 50 plans each: every plan received and checked exactly once, none lost', async () => {
-    const batches = Array.from({ length: 20 }, (_, a) => plans(join(root, 'load', String(a)), `L${a}`, 50));
+    const batches = Array.from({ length: 20 }, (_, a) => burstPlans(join(root, 'load', String(a)), `L${a}`, 50));
     const results = await Promise.all(batches.map((b) => store(b)));
     expect(results.every((r) => r.status === 0)).toBe(true);
     const o = await openService(config);
@@ -124,7 +98,7 @@ describe('the DICOM receiver', () => {
   }, 120_000);
 
   it('a second send of the same plans is recognised: not checked twice', async () => {
-    const again = plans(join(root, 'load', '0'), 'L0', 50);
+    const again = burstPlans(join(root, 'load', '0'), 'L0', 50);
     expect((await store(again)).status).toBe(0);
     await waitFor(() => readdirSync(config.folders.inbox).filter((f) => !f.startsWith('.')).length === 0, 20_000);
     expect(lines.join('\n')).toMatch(/duplicate: plan/);

@@ -178,7 +178,8 @@ export class SqliteHistoryStore implements HistoryStore {
   async intakeOutcomes(since = ''): Promise<IntakeOutcome[]> {
     const rows = this.db
       .prepare(
-        'SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title FROM intake_outcomes WHERE recorded_at >= ? ORDER BY id DESC',
+        `SELECT id, recorded_at, outcome, file_name, sop_instance_uid, sha256, reason, calling_ae_title FROM intake_outcomes
+        WHERE recorded_at >= ? ORDER BY id DESC`,
       )
       .all(since) as OutcomeRow[];
     return rows.map(toOutcome);

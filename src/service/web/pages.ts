@@ -2,6 +2,7 @@ import { PlanVerdict } from '../../model/index.js';
 import { CAUTION } from '../../report/caution.js';
 import { escapeHtml as esc } from '../../report/html-escape.js';
 import { planHeadline } from '../../report/plan-headline.js';
+import { signed } from '../../report/table.js';
 import type { ChartRoundEntry } from '../history/chart-round.js';
 import type { CheckRecord, IntakeOutcome, ReviewRecord, StoredResult } from '../history/store.js';
 import type { Session } from './sessions.js';
@@ -24,7 +25,8 @@ function page(title: string, body: string, who?: Session): string {
 <input type="hidden" name="csrf" value="${esc(who.csrf)}"> <button type="submit">sign out</button></form>`
     : '';
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)} — plumbline</title><style>${STYLE}</style></head><body>
-<header><a href="/">plumbline chart rounds</a>${signedIn}</header><h1>${esc(title)}</h1>${body}<p class="caution" id="caution">${esc(CAUTION)}</p></body></html>`;
+<header><a href="/">plumbline chart rounds</a>${signedIn}</header><h1>${esc(title)}</h1>${body}
+<p class="caution" id="caution">${esc(CAUTION)}</p></body></html>`;
 }
 
 /** The sign-in form; says how to make the first account when there is none, and why a sign-in failed. */
@@ -72,7 +74,7 @@ function queueTable(queue: readonly ChartRoundEntry[]): string {
         `<tr data-check="${e.check.id}"><td>${esc(e.check.recordedAt.replace('T', ' ').slice(0, 16))}</td><td>${esc(e.check.patientId ?? '—')}</td>` +
         `<td><a href="/check/${e.check.id}">${esc(e.check.planLabel)}</a></td><td>${esc(e.check.machine ?? '—')}</td>` +
         `<td class="${cls(e.check.verdict)}">${esc(e.check.verdict)}${e.check.fullyVerified ? '' : ' (not fully verified)'}</td>` +
-        `<td>${e.worst ? `beam ${e.worst.beamNumber ?? '?'}: ${e.worst.deviationPercent >= 0 ? '+' : ''}${e.worst.deviationPercent.toFixed(1)} %` : '—'}</td>` +
+        `<td>${e.worst ? `beam ${e.worst.beamNumber ?? '?'}: ${signed(e.worst.deviationPercent, 1)} %` : '—'}</td>` +
         `<td class="cause">${esc(e.topCause ?? '')}</td></tr>`,
     )
     .join('');

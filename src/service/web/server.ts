@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { PlanVerdict } from '../../model/index.js';
 import { chartRoundEntry, techniqueOf, topCause } from '../history/chart-round.js';
 import type { HistoryStore } from '../history/store.js';
-import { allowedHosts, allowedOrigins, cookieOf, isLoopback, readForm, redirect, SESSION_COOKIE, send, sessionCookie } from './http-parts.js';
+import { allowedHosts, allowedOrigins, cookieOf, readForm, redirect, SESSION_COOKIE, send, sessionCookie } from './http-parts.js';
 import { checkPage, listPage, notFoundPage, signInPage, type TrendPoint } from './pages.js';
 import { verifyPassword } from './passwords.js';
 import { type Session, Sessions, SignInLimiter } from './sessions.js';

@@ -14,6 +14,7 @@ export interface TrendPoint {
 
 const [W, H, PAD, LABELS] = [640, 210, 40, 80];
 const DAY = (ms: number) => new Date(ms).toISOString().slice(0, 10);
+const minute = (ms: number) => new Date(ms).toISOString().slice(0, 16).replace('T', ' ');
 
 /**
  * Per series, the deviations over time with the mean and the control limits mean ± 3σ, both from
@@ -55,7 +56,7 @@ function chart(name: string, pts: readonly TrendPoint[]): string {
       (p) =>
         `<circle class="point${out(p) ? ' outside' : ''}" cx="${x(p.atMs).toFixed(1)}" cy="${y(p.deviationPercent).toFixed(1)}" ` +
         `r="${out(p) ? 5 : 3}" fill="${out(p) ? 'none' : '#1b1b1b'}" stroke="#1b1b1b" stroke-width="${out(p) ? 2 : 1}">` +
-        `<title>${esc(`${p.planLabel}, ${new Date(p.atMs).toISOString().slice(0, 16).replace('T', ' ')}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`,
+        `<title>${esc(`${p.planLabel}, ${minute(p.atMs)}: ${p.deviationPercent.toFixed(2)} %`)}</title></circle>`,
     )
     .join('');
   const axis =
@@ -80,7 +81,7 @@ function outsideTable(outside: readonly TrendPoint[]): string {
   const rows = outside
     .map(
       (p) =>
-        `<tr><td>${esc(new Date(p.atMs).toISOString().slice(0, 16).replace('T', ' '))}</td>` +
+        `<tr><td>${esc(minute(p.atMs))}</td>` +
         `<td><a href="/check/${p.checkId}">${esc(p.planLabel)}</a></td><td class="num">${p.deviationPercent.toFixed(2)} %</td></tr>`,
     )
     .join('');
