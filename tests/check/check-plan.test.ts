@@ -118,7 +118,7 @@ describe('a plan is within tolerance only when every beam that delivers dose was
   });
 
   it('is "not verified" when one beam could not be checked and the other agrees', () => {
-    const plan = { ...brain, beams: brain.beams.map((b, i) => (i === 1 ? { ...b, radiationType: 'PROTON' } : b)) };
+    const plan = { ...brain, beams: brain.beams.map((b, i) => (i === 1 ? { ...b, radiationType: 'PROTON' as const } : b)) };
     const r = check(plan, demo);
     expect(beams(r).map((b) => b.status)).toEqual(['checked', 'not checked']);
     expect(r.verdict).toBe('not verified');
@@ -126,7 +126,7 @@ describe('a plan is within tolerance only when every beam that delivers dose was
 
   it('keeps "beyond action level" as the headline over "not verified"', () => {
     const tangents = importOrThrow(clinic('breast-tangents.dcm'));
-    const plan = { ...tangents, beams: tangents.beams.map((b, i) => (i === 0 ? { ...b, radiationType: 'PROTON' } : b)) };
+    const plan = { ...tangents, beams: tangents.beams.map((b, i) => (i === 0 ? { ...b, radiationType: 'PROTON' as const } : b)) };
     const r = check(plan, demo);
     expect([r.verdict, r.fullyVerified]).toEqual(['beyond action level', false]);
   });

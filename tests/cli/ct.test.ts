@@ -10,7 +10,7 @@ import { unwrapped } from '../helpers/text.js';
 import { DepthDocument } from '../../src/report/depth-report.js';
 import { CheckDocument } from '../../src/report/check-json.js';
 import { staticBeam, coordinatesDoseReference } from '../../scripts/fixtures/plan-parts.js';
-import { planFromSpec } from '../helpers/check-run.js';
+import { planFromSpec, beams as allBeams } from '../helpers/check-run.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const run = (...args: string[]) =>
@@ -73,7 +73,7 @@ describe('plumbline depth', () => {
 describe('plumbline check --ct', () => {
   it('corrects the PA beam for the bone (CF < 1), calls it heterogeneous, and the others stay water', () => {
     const doc = CheckDocument.parse(JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--json').stdout));
-    const beams = doc.plans[0]!.fractionGroups[0]!.beams;
+    const beams = allBeams(doc.plans[0]!);
     expect(beams[1]!.category).toBe('heterogeneous');
     expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
     for (const b of beams.filter((x) => x.beamNumber !== 2)) expect(b.calculation!.ct!.correctionFactor).toBeCloseTo(1, 9);
@@ -84,7 +84,7 @@ describe('plumbline check --ct', () => {
     const doc = CheckDocument.parse(
       JSON.parse(run('check', 'fixtures/demo/clinic/pelvis-box.dcm', '--beam-data', 'demo', ...CT, '--heterogeneity', 'batho', '--json').stdout),
     );
-    const beams = doc.plans[0]!.fractionGroups[0]!.beams;
+    const beams = allBeams(doc.plans[0]!);
     expect(beams[1]!.calculation!.ct!.method).toBe('batho');
     expect(beams[1]!.calculation!.ct!.correctionFactor).toBeLessThan(0.99);
     for (const b of beams.filter((x) => x.beamNumber !== 2)) expect(b.calculation!.ct!.correctionFactor).toBeCloseTo(1, 9);
@@ -107,7 +107,7 @@ describe('plumbline check --ct', () => {
       beams: [staticBeam(1, 'AP', 15, 0, 910, iso, { first: { jawsXMm: [-75, 75], jawsYMm: [-90, 90] } })],
     });
     const doc = CheckDocument.parse(JSON.parse(run('check', file, '--beam-data', 'demo', ...CT, '--json').stdout));
-    const b = doc.plans[0]!.fractionGroups[0]!.beams[0]!;
+    const b = allBeams(doc.plans[0]!)[0]!;
     expect(b.calculation!.ct!.ssdDifferenceMm).toBeCloseTo(-10, 1);
     expect(b.verdictReasons).toContainEqual({
       code: 'ct-ssd-differs',

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
 import { importPlanFile } from '../../src/dicom/index.js';
-import type { MachineModel, Plan, PlanCheck } from '../../src/model/index.js';
+import type { BeamCheck, CheckedBeam, MachineModel, NotCheckedBeam, Plan, PlanCheck } from '../../src/model/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { type BeamSpec, coordinatesDoseReference, type PlanSpec, planDataset } from '../../scripts/fixtures/plan-parts.js';
 
@@ -43,7 +43,14 @@ export function check(
   );
 }
 
-export const beams = (r: PlanCheck) => r.fractionGroups.flatMap((g) => g.beams);
+/**
+ * A beam of a result as the tests read it: a checked beam's fields, and a not-checked beam's reason,
+ * either present or absent (a test asserts the status it expects before reading the rest).
+ */
+export type TestBeam = Omit<CheckedBeam, 'status'> & { status: BeamCheck['status']; reason?: NotCheckedBeam['reason'] };
+
+/** Every beam of every fraction group. */
+export const beams = (r: PlanCheck | Pick<PlanCheck, 'fractionGroups'>): TestBeam[] => r.fractionGroups.flatMap((g) => g.beams) as TestBeam[];
 
 /** A one-beam test plan whose Beam Dose is stated at `point` (MU and dose as given, 200 MU and 2 Gy by default), imported back. */
 export function oneBeamPlan(

@@ -29,7 +29,7 @@ export function setup() {
   const history = new SqliteHistoryStore(join(root, 'history.sqlite'));
   const lines: string[] = [];
   let now = Date.now();
-  const ctx = { config, machines: [machine], policy: DEFAULT_POLICY, history, log: (l: string) => lines.push(l), now: () => now };
+  const ctx = { config, machines: [machine] as [typeof machine], policy: DEFAULT_POLICY, history, log: (l: string) => lines.push(l), now: () => now };
   return {
     root,
     config,

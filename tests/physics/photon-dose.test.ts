@@ -2,6 +2,7 @@
  * Identities of the TG-71 formalism, checked on the invented demo machine (they hold for any
  * consistent beam data, so the demo's invented values do not enter the expectations).
  */
+import type { ClarksonSector } from '../../src/model/index.js';
 import { describe, expect, it } from 'vitest';
 import { factorLabel, type PhotonBeamModel } from '../../src/model/index.js';
 import { clarksonSpTpr, muForDose, pddAt, photonDosePerMu, tprAt } from '../../src/physics/index.js';
@@ -90,7 +91,8 @@ describe('TG-71 photon point dose', () => {
 describe('an off-axis point in a Clarkson field', () => {
   it('takes the off-axis ratio on the primary only: Sp·TPR·OAR_eff = Sp(0)·[TPR(d,0)·OAR + mean SPR] (common practice, no source)', () => {
     // 36 sectors, each 8 cm to the edge, the point 12 cm off axis at 10 cm deep.
-    const sectors = Array.from({ length: 36 }, () => 8);
+    // Plain radii, as the Clarkson sum takes them (the point input's type names only the sector form).
+    const sectors = Array.from({ length: 36 }, () => 8) as unknown as ClarksonSector[];
     const at = (offAxisCm: number) =>
       dose(b6, { setup: 'SAD', collimatorFieldCm: { x: 40, y: 20 }, depthCm: 10, ssdCm: 90, offAxisCm, clarksonSectors: sectors });
     const onAxis = at(0);

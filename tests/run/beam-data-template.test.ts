@@ -68,8 +68,11 @@ describe('a new machine from beams new', () => {
       dosimetricLeafGapMm: x6.dosimetricLeafGapMm,
       collimatorExchangeK: x6.collimatorExchangeK,
     });
-    Object.assign(m.beams[0].pdd, { ssdCm: x6.pdd!.ssdCm, normalizationDepthCm: x6.pdd!.normalizationDepthCm });
-    m.beams[0].tpr.normalizationDepthCm = x6.tpr!.normalizationDepthCm;
+    // The demo's tables are measured ones (not derived from the other), so they carry their SSD and depths.
+    const pdd = x6.pdd as { ssdCm: number; normalizationDepthCm: number };
+    const tpr = x6.tpr as { normalizationDepthCm: number };
+    Object.assign(m.beams[0].pdd, { ssdCm: pdd.ssdCm, normalizationDepthCm: pdd.normalizationDepthCm });
+    m.beams[0].tpr.normalizationDepthCm = tpr.normalizationDepthCm;
     m.electronBeams[0].calibration = e6.calibration;
     m.electronBeams[0].pdd.ssdCm = e6.pdd.ssdCm;
     writeFileSync(manifestFile, JSON.stringify(m));

@@ -9,8 +9,8 @@
 import { describe, expect, it } from 'vitest';
 import { type BeamSpec, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
 import { checkPlan, DEFAULT_POLICY, type PatientCt } from '../../../src/check/index.js';
-import type { BeamCheck, Plan } from '../../../src/model/index.js';
-import { beams, oneBeamPlan } from '../../helpers/check-run.js';
+import type { Plan } from '../../../src/model/index.js';
+import { beams, oneBeamPlan, type TestBeam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 import { phantomCt } from '../../helpers/phantom-ct.js';
 
@@ -39,7 +39,7 @@ function waterBox(plan: Plan): PatientCt {
 }
 
 function dosePerMu(plan: Plan, ct?: PatientCt): number {
-  const b: BeamCheck = beams(
+  const b: TestBeam = beams(
     checkPlan(
       plan,
       { path: 'box.dcm', sha256: '' },

@@ -5,8 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
-import type { BeamCheck, PlanCheck } from '../../../src/model/index.js';
-import { beams, check, planFromSpec } from '../../helpers/check-run.js';
+import type { PlanCheck } from '../../../src/model/index.js';
+import { beams, check, planFromSpec, type TestBeam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
@@ -44,7 +44,7 @@ const plan = (
     demo,
   );
 };
-const beam = (r: PlanCheck): BeamCheck => beams(r)[0]!;
+const beam = (r: PlanCheck): TestBeam => beams(r)[0]!;
 
 describe('electron beams in the check', () => {
   it("sets the planning system's depth and SSD beside ours, with the differences (values invented for the test)", () => {

@@ -9,8 +9,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { type BeamSpec, MLC_BOUNDARIES_MM, MLC_PAIRS, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
-import type { BeamCheck, MachineModel } from '../../../src/model/index.js';
-import { beams, check, oneBeamPlan } from '../../helpers/check-run.js';
+import type { MachineModel } from '../../../src/model/index.js';
+import { beams, check, oneBeamPlan, type TestBeam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 /** The demo machine without its dosimetric leaf gap (leaf ends not modelled). */
@@ -49,10 +49,10 @@ function slidingWindow(widthMm: number, n = 241): BeamSpec {
   return { ...base, dynamic: true, controlPoints };
 }
 
-function run(name: string, b: BeamSpec, m: MachineModel): BeamCheck {
+function run(name: string, b: BeamSpec, m: MachineModel): TestBeam {
   return beams(check(oneBeamPlan(name, b, iso, { patientId: 'DLG-1' }), m))[0]!;
 }
-const dpm = (b: BeamCheck): number => {
+const dpm = (b: TestBeam): number => {
   if (b.status !== 'checked') throw new Error(JSON.stringify(b.reason));
   return b.calculation.dosePerMuCGy;
 };

@@ -17,9 +17,8 @@ import {
   type PlanSpec,
   staticBeam,
 } from '../../../scripts/fixtures/plan-parts.js';
-import type { BeamCheck } from '../../../src/model/index.js';
 import { phantomCt } from '../../helpers/phantom-ct.js';
-import { beams, check, importOrThrow, planFromSpec } from '../../helpers/check-run.js';
+import { beams, check, importOrThrow, planFromSpec, type TestBeam } from '../../helpers/check-run.js';
 import { demoPlan } from '../../helpers/fixtures.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../../helpers/machines.js';
 
@@ -36,7 +35,7 @@ const spec = (name: string, b: BeamSpec): PlanSpec => ({
   fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
   beams: [b],
 });
-const run = (name: string, b: BeamSpec): BeamCheck => beams(check(planFromSpec(spec(name, b)).plan, demo))[0]!;
+const run = (name: string, b: BeamSpec): TestBeam => beams(check(planFromSpec(spec(name, b)).plan, demo))[0]!;
 
 /** The same first control point, repeated n times with the meterset spread evenly (the gantry never moves). */
 function asArc(b: BeamSpec, n: number, perControlPoint: (j: number) => Partial<ControlPointSpec> = () => ({})): BeamSpec {
@@ -213,7 +212,7 @@ describe('closed leaves in an arc', () => {
       closeLeaves(() => true),
       demo,
     );
-    expect(beams(r).map((b) => (b.status === 'checked' ? 'checked' : b.reason.code))).toEqual(['aperture-closed', 'aperture-closed']);
+    expect(beams(r).map((b) => (b.status === 'checked' ? 'checked' : b.reason!.code))).toEqual(['aperture-closed', 'aperture-closed']);
     expect(r.verdict).toBe('not verified');
   });
 

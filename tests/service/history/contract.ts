@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { HistoryStore, NewCheck } from '../../../src/service/history/store.js';
-import { beams, check, importOrThrow } from '../../helpers/check-run.js';
+import { check, importOrThrow } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine, manifestPath } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
@@ -51,7 +51,7 @@ export function historyContract(name: string, t: StoreUnderTest): void {
       expect(all.map((c) => c.id)).toEqual([later, id]);
       expect(all[1]).toMatchObject({ id, planLabel: 'BRAIN LATS', verdict: brain.verdict, fullyVerified: true, machine: 'NG_LINAC1' });
       expect(all[1]!.inputs).toEqual([{ kind: 'plan', sopInstanceUid: brain.sopInstanceUid, sha256: 'a'.repeat(64) }]);
-      expect(beams((await store.result(id))!)).toHaveLength(2);
+      expect((await store.result(id))!.fractionGroups.flatMap((g) => g.beams)).toHaveLength(2);
       expect(await store.html(id)).toBe('<p>report</p>');
       expect(await store.result(999_999)).toBeUndefined();
       expect((await store.listChecks({ id })).map((c) => c.id)).toEqual([id]);
