@@ -188,7 +188,7 @@ const WORDS: Readonly<Record<NoteCode, (v: Values) => string>> = {
   'beams-not-checked': (v) => `${n(v, 'count')} beam(s) not checked: the plan is not fully verified`,
   'no-beam-checked': () => 'no beam of this plan could be checked',
   'planning-system-heterogeneity-corrected': (v) =>
-    `the planning system's RT Dose says its dose is heterogeneity corrected (${s(v, 'correction')}); without the CT the ` +
+    `the planning system says its dose is heterogeneity corrected (${s(v, 'correction')}); without the CT the ` +
     'independent doses are homogeneous, so the beams are judged with the heterogeneous levels',
   'heterogeneity-unknown': () =>
     "whether the planning system's dose is heterogeneity corrected is not known (no CT given, no RT Dose says): " +
