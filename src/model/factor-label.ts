@@ -2,13 +2,13 @@ import type { Factor } from './point-dose.js';
 
 const cm = (v: number) => `${Number(v.toFixed(2))} cm`;
 
-/** A factor as a physicist writes it by hand, with its arguments and unit. */
 /** Where a photon PDD came from, said beside it (its table value may read differently). */
 const PDD_SOURCE: Readonly<Record<string, string>> = {
   'table-at-d0': ' (the table renormalised to 100 % at d0)',
   'from-tpr': ' (from the TPR table at this SSD, normalised at d0)',
 };
 
+/** A factor as a physicist writes it by hand, with its arguments and unit. */
 export function factorLabel(f: Factor): string {
   const a = f.args;
   switch (f.key) {
