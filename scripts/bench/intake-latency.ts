@@ -7,11 +7,11 @@
  * each. Run: npm run bench
  */
 import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { freePort, writeServiceConfig } from '../lib/service-files.js';
 import { importPlanFile } from '../../src/dicom/index.js';
 import { openHistoryStore } from '../../src/service/history/open-store.js';
 import type { HistoryConfig } from '../../src/service/config.js';
@@ -25,13 +25,6 @@ const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const RUNS = 3;
 const NODELAY = { ...process.env, TCP_NODELAY: '1' };
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-const freePort = () =>
-  new Promise<number>((done) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const p = (s.address() as net.AddressInfo).port;
-      s.close(() => done(p));
-    });
-  });
 
 /** A small plan of its own frame, sent first: the service has been running (its code compiled) when the measured plan comes. */
 function warmUp(dir: string): string {
@@ -118,20 +111,12 @@ function vmat(dir: string): { files: string[]; label: string } {
 
 async function once(files: readonly string[], history: HistoryConfig, work: string): Promise<number> {
   const port = await freePort();
-  const config = join(work, 'service.json');
-  writeFileSync(
-    config,
-    JSON.stringify({
-      format: 'plumbline.service',
-      formatVersion: 1,
-      receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-      folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
-      history,
-      beamData: ['demo'],
-      ct: { density: join(ROOT, 'fixtures/demo/ct/hu-to-density.csv') },
-      settleSeconds: 0,
-    }),
-  );
+  const config = writeServiceConfig(join(work, 'service.json'), {
+    receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+    history,
+    ct: { density: join(ROOT, 'fixtures/demo/ct/hu-to-density.csv') },
+    settleSeconds: 0,
+  });
   const receiver: ChildProcess = spawn(process.execPath, [join(ROOT, 'dist/plumbline.mjs'), 'receive', '--config', config], {
     stdio: ['ignore', 'ignore', 'pipe'],
   });

@@ -5,11 +5,12 @@
  * the pipeline looks at the inbox once a second). dcmtk runs with TCP_NODELAY=1. Best of 3. Run: npm run bench
  */
 import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { freePort, writeServiceConfig } from '../lib/service-files.js';
 import { coordinatesDoseReference, planDataset, staticBeam } from '../fixtures/plan-parts.js';
 import { RT_PLAN_STORAGE, writeDataset } from '../lib/dcmjs-writer.js';
 import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
@@ -19,13 +20,6 @@ const N = 500;
 /** dcmtk as packaged sets TCP_NODELAY only when asked: without it every object waits on delayed acknowledgements. */
 const NODELAY = { ...process.env, TCP_NODELAY: '1' };
 const root = mkdtempSync(join(tmpdir(), 'plumbline-bench-intake-'));
-const freePort = () =>
-  new Promise<number>((done) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const p = (s.address() as net.AddressInfo).port;
-      s.close(() => done(p));
-    });
-  });
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const send = (port: number, files: string[]) => {
   const t0 = process.hrtime.bigint();
@@ -86,19 +80,11 @@ try {
     const port = await freePort();
     const work = join(root, `svc${run}`);
     mkdirSync(work);
-    const config = join(work, 'service.json');
-    writeFileSync(
-      config,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-        folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
-        history: { database: 'history.sqlite' },
-        beamData: ['demo'],
-        settleSeconds: 0,
-      }),
-    );
+    const config = writeServiceConfig(join(work, 'service.json'), {
+      receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+      history: { database: 'history.sqlite' },
+      settleSeconds: 0,
+    });
     const receiver: ChildProcess = spawn(process.execPath, [join(ROOT, 'dist/plumbline.mjs'), 'receive', '--config', config], { stdio: 'ignore' });
     await waitListening(port);
     const t0 = process.hrtime.bigint();

@@ -93,6 +93,41 @@ function cubeGrid(plan: Plan, doseGy: Float32Array, o: Pick<DoseGrid, 'summation
   };
 }
 
+/** Eleven control points at gantry 0 (ten equal segments), jaws X ±50 mm and Y as given, each control point's leaves as given. */
+function stillArc(name: string, jawsYMm: readonly [number, number], leavesAt: (j: number) => number[]): BeamSpec {
+  const base = staticBeam(1, name, 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm } });
+  return {
+    ...base,
+    dynamic: true,
+    controlPoints: Array.from({ length: 11 }, (_, j) => ({
+      ...(j === 0 ? base.controlPoints[0]! : { gantryDeg: 0, jawsXMm: [-50, 50] as const, jawsYMm }),
+      leaves: leavesAt(j),
+      weight: j / 10,
+      doseCoefficient: j / 10,
+    })),
+  };
+}
+
+/** The demo machine with its 6X beam data edited. */
+const with6X = (edit: Partial<PhotonBeamModel>) => ({ ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, ...edit } : x)) });
+
+/** A one-beam plan of `arc` at the isocenter, 100 MU, the planning system's dose as given, checked and explained. */
+function checkedArc(name: string, arc: BeamSpec, doseGy: number, m = demo): CheckedBeam {
+  return beams(
+    checkPlan(
+      oneBeamPlan(name, arc, iso, { mu: 100, doseGy, patientId: name.toUpperCase() }),
+      { path: `${name}.dcm`, sha256: '' },
+      {
+        machine: m,
+        policy: DEFAULT_POLICY,
+        aliases: new Map(),
+        suggestPoint: false,
+        explainAll: true,
+      },
+    ),
+  )[0] as CheckedBeam;
+}
+
 /** Our dose (cGy) for 100 MU of a 10 × 10 AP beam at 10 cm, SAD setup: from a first run with the planning system agreeing exactly. */
 const ours = () => run('ours', { doseGy: [1] }).beams[0]!.calculation.independentDoseCGy;
 
@@ -170,26 +205,9 @@ describe('explaining a deviation', () => {
       const bb = Array.from({ length: MLC_PAIRS }, (_, i) => (closed && Math.abs(MLC_BOUNDARIES_MM[i]! + 2.5) <= 10 ? 30 : 50));
       return [...a, ...bb];
     };
-    const base = staticBeam(1, 'ARC', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm: [-50, 50] } });
-    const arc: BeamSpec = {
-      ...base,
-      dynamic: true,
-      controlPoints: Array.from({ length: 11 }, (_, j) => ({
-        ...(j === 0 ? base.controlPoints[0]! : { gantryDeg: 0, jawsXMm: [-50, 50] as const, jawsYMm: [-50, 50] as const }),
-        leaves: leavesFor(j <= 6),
-        weight: j / 10,
-        doseCoefficient: j / 10,
-      })),
-    };
-    const higherT = { ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, mlcTransmission: 1.2 * (x.mlcTransmission ?? 0) } : x)) };
-    const at = (doseGy: number, m = demo) =>
-      beams(
-        checkPlan(
-          oneBeamPlan('why-leaves', arc, iso, { mu: 100, doseGy, patientId: 'WHY-2' }),
-          { path: 'l.dcm', sha256: '' },
-          { machine: m, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, explainAll: true },
-        ),
-      )[0] as CheckedBeam;
+    const arc = stillArc('ARC', [-50, 50], (j) => leavesFor(j <= 6));
+    const higherT = with6X({ mlcTransmission: 1.2 * (x6.mlcTransmission ?? 0) });
+    const at = (doseGy: number, m = demo) => checkedArc('why-leaves', arc, doseGy, m);
     const theirs = at(1, higherT).calculation.independentDoseCGy;
     const b = at(theirs / 100);
     expect(b.calculation.modulated!.pointCoveredMuPercent).toBeCloseTo(60, 6);
@@ -223,26 +241,9 @@ describe('explaining a deviation', () => {
     // MU through an opening under 2 cm. The planted effect is the real one: the check run with the leaf-end offset 0.5 mm wider
     // (with the point open throughout, only the output and scatter of the wider opening: small, but above noise).
     const leaves = [...Array.from({ length: MLC_PAIRS }, () => -5), ...Array.from({ length: MLC_PAIRS }, () => 5)];
-    const base = staticBeam(1, 'WINDOW', 6, 0, 900, iso, { mlc: true, first: { jawsXMm: [-50, 50], jawsYMm: [-20, 20] } });
-    const arc: BeamSpec = {
-      ...base,
-      dynamic: true,
-      controlPoints: Array.from({ length: 11 }, (_, j) => ({
-        ...(j === 0 ? base.controlPoints[0]! : { gantryDeg: 0, jawsXMm: [-50, 50] as const, jawsYMm: [-20, 20] as const }),
-        leaves,
-        weight: j / 10,
-        doseCoefficient: j / 10,
-      })),
-    };
-    const wider = { ...demo, beams: demo.beams.map((x) => (x.id === '6X' ? { ...x, dosimetricLeafGapMm: (x.dosimetricLeafGapMm ?? 0) + 0.5 } : x)) };
-    const at = (doseGy: number, m = demo) =>
-      beams(
-        checkPlan(
-          oneBeamPlan('why-leaf-ends', arc, iso, { mu: 100, doseGy, patientId: 'WHY-3' }),
-          { path: 'e.dcm', sha256: '' },
-          { machine: m, policy: DEFAULT_POLICY, aliases: new Map(), suggestPoint: false, explainAll: true },
-        ),
-      )[0] as CheckedBeam;
+    const arc = stillArc('WINDOW', [-20, 20], () => leaves);
+    const wider = with6X({ dosimetricLeafGapMm: (x6.dosimetricLeafGapMm ?? 0) + 0.5 });
+    const at = (doseGy: number, m = demo) => checkedArc('why-leaf-ends', arc, doseGy, m);
     const theirs = at(1, wider).calculation.independentDoseCGy;
     const b = at(theirs / 100);
     const planted = b.calculation.doseDeviationPercent!;

@@ -1,11 +1,12 @@
 /** The service commands from the command line: a configuration refused with the path of what is wrong; history as text and JSON. */
 import { spawn, spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { type AddressInfo, createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { writeServiceConfig } from '../../scripts/lib/service-files.js';
 import { HistoryDocument } from '../../src/cli/service-commands.js';
 import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { check, importOrThrow } from '../helpers/check-run.js';
@@ -18,17 +19,11 @@ describe('plumbline history and the service configuration', () => {
   it('refuses a configuration naming the attribute that is wrong (exit 2)', () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-cfg-'));
     const file = join(dir, 'bad.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        receiver: { allowedCallingAeTitles: ['THIS TITLE IS FAR TOO LONG'] },
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { database: 'h.sqlite' },
-        beamData: ['demo'],
-      }),
-    );
+    writeServiceConfig(file, {
+      receiver: { allowedCallingAeTitles: ['THIS TITLE IS FAR TOO LONG'] },
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { database: 'h.sqlite' },
+    });
     const r = run('history', '--config', file);
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/receiver\.allowedCallingAeTitles\.0.*1 to 16 printable ASCII characters/);
@@ -37,16 +32,10 @@ describe('plumbline history and the service configuration', () => {
   it('lists the recorded checks, filtered by verdict, as text and as a versioned JSON document', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-hist-cli-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { database: 'h.sqlite' },
-        beamData: ['demo'],
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { database: 'h.sqlite' },
+    });
     const store = new SqliteHistoryStore(join(dir, 'h.sqlite'));
     for (const f of ['brain-laterals.dcm', 'breast-tangents.dcm']) {
       const result = check(importOrThrow(manifestPath(`fixtures/demo/clinic/${f}`)), machine(DEMO_MANIFEST));
@@ -65,16 +54,10 @@ describe('plumbline history and the service configuration', () => {
   it("exports the chart-round list as CSV that Python's csv module reads back: one row per check, oldest first, with its review", async () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-export-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { kind: 'sqlite', file: 'h.sqlite' },
-        beamData: ['demo'],
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { kind: 'sqlite', file: 'h.sqlite' },
+    });
     const store = new SqliteHistoryStore(join(dir, 'h.sqlite'));
     const ids: number[] = [];
     for (const [k, f] of ['brain-laterals.dcm', 'breast-tangents.dcm'].entries()) {
@@ -128,17 +111,11 @@ describe('a port already in use', () => {
     const port = (blocker.address() as AddressInfo).port;
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-port-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { database: 'h.sqlite' },
-        beamData: ['demo'],
-        serve: { host: '127.0.0.1', port },
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { database: 'h.sqlite' },
+      serve: { host: '127.0.0.1', port },
+    });
     const r = await new Promise<{ status: number | null; stderr: string }>((done) => {
       const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', 'serve', '--config', file], { cwd: ROOT });
       let stderr = '';
@@ -157,18 +134,12 @@ describe('a port already in use', () => {
     const port = (blocker.address() as AddressInfo).port;
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-port-over-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        receiver: { host: '127.0.0.1', port: 1, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { kind: 'sqlite', file: 'h.sqlite' },
-        beamData: ['demo'],
-        serve: { host: '127.0.0.1', port: 1 },
-      }),
-    );
+    writeServiceConfig(file, {
+      receiver: { host: '127.0.0.1', port: 1, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { kind: 'sqlite', file: 'h.sqlite' },
+      serve: { host: '127.0.0.1', port: 1 },
+    });
     const started = (...args: string[]) =>
       new Promise<{ status: number | null; stderr: string }>((done) => {
         const child = spawn(process.execPath, ['--import', 'tsx', 'src/cli/bin.ts', ...args, '--config', file], { cwd: ROOT });
@@ -192,17 +163,11 @@ describe('a port already in use', () => {
 describe('accounts of the page and where it may listen', () => {
   const configIn = (dir: string, serve: Record<string, unknown> = {}) => {
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { kind: 'sqlite', file: 'h.sqlite' },
-        beamData: ['demo'],
-        serve,
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { kind: 'sqlite', file: 'h.sqlite' },
+      serve,
+    });
     return file;
   };
   const withInput = (input: string, ...args: string[]) =>

@@ -1,24 +1,20 @@
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { writeServiceConfig } from '../../scripts/lib/service-files.js';
 import { loadServiceConfig } from '../../src/service/config.js';
 
 describe('the service configuration', () => {
   it('makes its relative paths absolute from its own folder, the page on loopback by default', () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-config-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'in', archive: 'arch', refused: 'ref' },
-        history: { kind: 'sqlite', file: 'h.sqlite' },
-        beamData: ['demo', 'machines/linac2.json'],
-        serve: { tls: { cert: 'c.pem', key: 'k.pem' } },
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'in', archive: 'arch', refused: 'ref' },
+      history: { kind: 'sqlite', file: 'h.sqlite' },
+      beamData: ['demo', 'machines/linac2.json'],
+      serve: { tls: { cert: 'c.pem', key: 'k.pem' } },
+    });
     const c = loadServiceConfig(file);
     if (!c.ok) throw new Error(c.issues.map((i) => i.message).join('; '));
     expect(c.value.folders.inbox).toBe(join(dir, 'in'));
@@ -36,17 +32,11 @@ describe('the service configuration', () => {
   it('refuses an unknown attribute, naming it', () => {
     const dir = mkdtempSync(join(tmpdir(), 'plumbline-config-'));
     const file = join(dir, 'service.json');
-    writeFileSync(
-      file,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        folders: { inbox: 'i', archive: 'a', refused: 'r' },
-        history: { database: 'h' },
-        beamData: ['demo'],
-        colour: 'blue',
-      }),
-    );
+    writeServiceConfig(file, {
+      folders: { inbox: 'i', archive: 'a', refused: 'r' },
+      history: { database: 'h' },
+      colour: 'blue',
+    });
     const c = loadServiceConfig(file);
     expect(c.ok ? '' : c.issues.map((i) => i.message).join('; ')).toMatch(/colour/);
   });

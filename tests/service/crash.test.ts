@@ -4,11 +4,11 @@
  * command, dist/plumbline.mjs, run as its own process).
  */
 import { type ChildProcess, spawn } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
+import { mkdirSync, mkdtempSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { freePort, writeServiceConfig } from '../../scripts/lib/service-files.js';
 import { describe, expect, it } from 'vitest';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
 import { coordinatesDoseReference, planDataset, staticBeam } from '../../scripts/fixtures/plan-parts.js';
@@ -16,31 +16,16 @@ import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 import { waitFor } from '../helpers/wait-for.js';
 
 const BIN = fileURLToPath(new URL('../../dist/plumbline.mjs', import.meta.url));
-const freePort = () =>
-  new Promise<number>((done) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const p = (s.address() as net.AddressInfo).port;
-      s.close(() => done(p));
-    });
-  });
 
 describe('a receiver killed during a burst', () => {
   it('processes, after its restart, everything it acknowledged', async () => {
     const root = mkdtempSync(join(tmpdir(), 'plumbline-crash-'));
     const port = await freePort();
-    const config = join(root, 'service.json');
-    writeFileSync(
-      config,
-      JSON.stringify({
-        format: 'plumbline.service',
-        formatVersion: 1,
-        receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
-        folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
-        history: { database: 'history.sqlite' },
-        beamData: ['demo'],
-        settleSeconds: 0,
-      }),
-    );
+    const config = writeServiceConfig(join(root, 'service.json'), {
+      receiver: { port, aeTitle: 'PLUMBLINE', allowedCallingAeTitles: ['NG_TPS'] },
+      history: { database: 'history.sqlite' },
+      settleSeconds: 0,
+    });
     const dir = join(root, 'plans');
     mkdirSync(dir);
     const iso: [number, number, number] = [0, 0, 0];

@@ -5,11 +5,11 @@
  * once; nothing a node acknowledged is lost. The built command (dist/plumbline.mjs), one process per node.
  */
 import { type ChildProcess, spawn } from 'node:child_process';
-import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { freePort, writeServiceConfig } from '../../scripts/lib/service-files.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PostgresHistoryStore } from '../../src/service/history/postgres-store.js';
 import { startThrowawayPostgres, type ThrowawayPostgres } from '../helpers/postgres.js';
@@ -17,13 +17,6 @@ import { burstPlans } from '../helpers/burst-plans.js';
 import { waitFor } from '../helpers/wait-for.js';
 
 const BIN = fileURLToPath(new URL('../../dist/plumbline.mjs', import.meta.url));
-const freePort = () =>
-  new Promise<number>((done) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const p = (s.address() as net.AddressInfo).port;
-      s.close(() => done(p));
-    });
-  });
 
 let server: ThrowawayPostgres;
 beforeAll(() => {
@@ -40,20 +33,12 @@ interface Node {
 function node(root: string, name: string, url: string, o: { port?: number; watch?: string }): { start: () => Node; inbox: string } {
   const dir = join(root, name);
   mkdirSync(dir, { recursive: true });
-  const config = join(dir, 'service.json');
-  writeFileSync(
-    config,
-    JSON.stringify({
-      format: 'plumbline.service',
-      formatVersion: 1,
-      ...(o.port ? { receiver: { port: o.port, aeTitle: name, allowedCallingAeTitles: ['NG_TPS'] } } : {}),
-      folders: { inbox: 'inbox', archive: 'archive', refused: 'refused' },
-      history: { kind: 'postgres', url },
-      beamData: ['demo'],
-      settleSeconds: 0,
-      watchStableSeconds: 0,
-    }),
-  );
+  const config = writeServiceConfig(join(dir, 'service.json'), {
+    ...(o.port ? { receiver: { port: o.port, aeTitle: name, allowedCallingAeTitles: ['NG_TPS'] } } : {}),
+    history: { kind: 'postgres', url },
+    settleSeconds: 0,
+    watchStableSeconds: 0,
+  });
   const args = o.port ? ['receive', '--config', config] : ['watch', o.watch!, '--config', config];
   return {
     inbox: join(dir, 'inbox'),

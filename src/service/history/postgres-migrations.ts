@@ -1,3 +1,5 @@
+import { COMMON_MIGRATIONS } from './common-migrations.js';
+
 /**
  * The PostgreSQL history's schema: the same versions as sqlite-migrations.ts, in PostgreSQL's
  * dialect, applied in order at start (under an advisory lock, so nodes starting together apply each
@@ -62,45 +64,5 @@ export const POSTGRES_MIGRATIONS: readonly { readonly version: number; readonly 
       CREATE TRIGGER intake_outcomes_no_truncate BEFORE TRUNCATE ON intake_outcomes FOR EACH STATEMENT EXECUTE FUNCTION plumbline_append_only();
     `,
   },
-  {
-    version: 3,
-    sql: `
-      ALTER TABLE checks ADD COLUMN plan_content_sha256 TEXT;
-      CREATE INDEX checks_plan_content ON checks (plan_sop_instance_uid, plan_content_sha256);
-    `,
-  },
-  {
-    version: 4,
-    sql: `
-      CREATE UNIQUE INDEX checks_once_file ON checks (plan_sop_instance_uid, plan_sha256);
-      CREATE UNIQUE INDEX checks_once_content ON checks (plan_sop_instance_uid, plan_content_sha256) WHERE plan_content_sha256 IS NOT NULL;
-    `,
-  },
-  {
-    version: 5,
-    sql: `
-      -- Who sent an object refused or failed at intake (received over the network).
-      ALTER TABLE intake_outcomes ADD COLUMN calling_ae_title TEXT;
-    `,
-  },
-  {
-    version: 6,
-    sql: `
-      -- Who may sign in to the page: a physicist records reviews, a viewer reads. The password as an scrypt hash only.
-      -- Not append-only: an account's password changes.
-      CREATE TABLE users (
-        name TEXT PRIMARY KEY,
-        role TEXT NOT NULL CHECK (role IN ('physicist', 'viewer')),
-        password_hash TEXT NOT NULL,
-        created_at TEXT NOT NULL
-      );
-    `,
-  },
-  {
-    version: 7,
-    sql: `
-      -- The role the reviewer signed in with, for the sign-off (reviews before sign-in have none).
-      ALTER TABLE reviews ADD COLUMN reviewer_role TEXT;
-    `,
-  },
+  ...COMMON_MIGRATIONS,
 ];
