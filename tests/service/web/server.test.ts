@@ -10,17 +10,17 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type Browser, chromium, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEFAULT_POLICY } from '../../src/check/index.js';
-import { loadBeamData } from '../../src/run/index.js';
-import { ServiceConfig } from '../../src/service/config.js';
-import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
-import { processInbox } from '../../src/service/pipeline.js';
-import { controlLimits } from '../../src/service/web/control-limits.js';
-import { hashPassword } from '../../src/service/web/passwords.js';
-import { startWebServer } from '../../src/service/web/server.js';
-import { FAILURE_WINDOW_MS, MAX_FAILURES } from '../../src/service/web/sessions.js';
-import { chromiumPath } from '../helpers/browser.js';
-import { DEMO_MANIFEST, manifestPath } from '../helpers/machines.js';
+import { DEFAULT_POLICY } from '../../../src/check/index.js';
+import { loadBeamData } from '../../../src/run/index.js';
+import { ServiceConfig } from '../../../src/service/config.js';
+import { SqliteHistoryStore } from '../../../src/service/history/sqlite-store.js';
+import { processInbox } from '../../../src/service/pipeline.js';
+import { controlLimits } from '../../../src/service/web/control-limits.js';
+import { hashPassword } from '../../../src/service/web/passwords.js';
+import { startWebServer } from '../../../src/service/web/server.js';
+import { FAILURE_WINDOW_MS, MAX_FAILURES } from '../../../src/service/web/sessions.js';
+import { chromiumPath } from '../../helpers/browser.js';
+import { DEMO_MANIFEST, manifestPath } from '../../helpers/machines.js';
 
 const root = mkdtempSync(join(tmpdir(), 'plumbline-web-'));
 const config = ServiceConfig.parse({
