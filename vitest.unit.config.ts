@@ -23,6 +23,7 @@ export default defineConfig({
       'tests/service/web-postgres.test.ts',
       'tests/service/received-hash.test.ts',
       'tests/run/dataset-hash.test.ts',
+      'tests/dicom/object-summary.test.ts',
     ],
     // Beam-data validation is never served from a cache in tests (tests/run/validation-cache.test.ts tests the cache itself).
     env: { PLUMBLINE_CACHE_DIR: 'off' },
