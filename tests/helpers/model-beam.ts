@@ -3,7 +3,7 @@
  * whose expectations are computed by hand from the same numbers.
  */
 import { makeTableLookup } from '../../src/beamdata/table-lookup.js';
-import type { ElectronBeamModel, PhotonBeamModel, TableLookup } from '../../src/model/index.js';
+import type { Beam, ControlPoint, ElectronBeamModel, PhotonBeamModel, TableLookup } from '../../src/model/index.js';
 
 const axis = (name: string, values: readonly number[]) => ({ name, unit: 'cm', values: Float64Array.from(values) });
 
@@ -83,6 +83,53 @@ export function electronBeam(n: ElectronNumbers): ElectronBeamModel {
     pdd: Object.assign(grid('T9E pdd', depths, sides, n.pdd), { ssdCm: 100 }),
     applicators: [
       { id: 'A10', sideCm: 10, outputFactor: profile('T9E A10 output', sides, n.outputFactor ?? (() => 1)), effectiveSsdCm: n.effectiveSsdCm ?? 90 },
+    ],
+  };
+}
+
+/** A photon beam's model as the DICOM reader gives it: jaws, and an MLCX of `pairs` leaves `widthMm` wide centred on the axis. */
+export function modelBeam(mlc?: { pairs: number; widthMm: number }): Beam {
+  return {
+    number: 1,
+    radiationType: 'PHOTON',
+    beamType: 'STATIC',
+    wedges: [],
+    compensators: [],
+    bolusRoiNumbers: [],
+    blocks: [],
+    applicators: [],
+    doseVerification: [],
+    controlPoints: [],
+    limitingDevices: [
+      { type: 'ASYMX', numberOfPairs: 1 },
+      { type: 'ASYMY', numberOfPairs: 1 },
+      ...(mlc
+        ? [
+            {
+              type: 'MLCX' as const,
+              numberOfPairs: mlc.pairs,
+              leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.widthMm),
+            },
+          ]
+        : []),
+    ],
+  };
+}
+
+/** A control point at gantry, collimator and couch 0 with jaws x, y (mm) and, optionally, leaf positions (bank A then bank B). */
+export function modelControlPoint(x: [number, number], y: [number, number], leaves?: number[]): ControlPoint {
+  return {
+    index: 0,
+    gantryAngleDeg: 0,
+    collimatorAngleDeg: 0,
+    couchAngleDeg: 0,
+    cumulativeMetersetWeight: 0,
+    wedgePositions: [],
+    doseReferenceCoefficients: [],
+    devices: [
+      { type: 'ASYMX', positionsMm: x },
+      { type: 'ASYMY', positionsMm: y },
+      ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : []),
     ],
   };
 }
