@@ -5,7 +5,7 @@ import { checkPlan, DEFAULT_POLICY } from '../../src/check/index.js';
 import { importPlanFile } from '../../src/dicom/index.js';
 import type { BeamCheck, CheckedBeam, MachineModel, NotCheckedBeam, Plan, PlanCheck } from '../../src/model/index.js';
 import { RT_PLAN_STORAGE, writeDataset } from '../../scripts/lib/dcmjs-writer.js';
-import { type BeamSpec, coordinatesDoseReference, type PlanSpec, planDataset } from '../../scripts/fixtures/plan-parts.js';
+import { type BeamSpec, coordinatesDoseReference, type PlanSpec, planDataset, staticBeam } from '../../scripts/fixtures/plan-parts.js';
 
 const work = mkdtempSync(join(tmpdir(), 'plumbline-check-'));
 
@@ -72,4 +72,40 @@ export function oneBeamPlan(
     ],
     beams: [beam],
   }).plan;
+}
+
+export interface ElectronExtra {
+  readonly applicator?: string;
+  readonly cutout?: readonly (readonly [number, number])[];
+  readonly block?: BeamSpec['block'];
+  readonly noApplicator?: boolean;
+  readonly depthData?: { depthMm: number; equivalentDepthMm: number; ssdMm: number };
+}
+
+/** A 9 MeV AP electron beam (applicator A10 unless said, SSD 100 cm) with its point `depthMm` below the skin at the isocenter, checked. */
+export function electronPlanCheck(name: string, depthMm: number, extra: ElectronExtra, machine: MachineModel): PlanCheck {
+  const point: [number, number, number] = [0, depthMm, 0];
+  return check(
+    planFromSpec({
+      file: `${name}.dcm`,
+      patientId: 'E-1',
+      patientName: 'Electron^Test',
+      label: name,
+      name,
+      description: 'test',
+      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
+      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
+      beams: [
+        staticBeam(1, 'E9', 9, 0, 1000, [0, 0, 0], {
+          radiation: 'ELECTRON',
+          ...(extra.noApplicator ? {} : { applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' } }),
+          ...(extra.cutout ? { cutout: extra.cutout } : {}),
+          ...(extra.block ? { block: extra.block } : {}),
+          ...(extra.depthData ? { depthData: extra.depthData } : {}),
+          first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
+        }),
+      ],
+    }).plan,
+    machine,
+  );
 }

@@ -4,46 +4,13 @@
  * the geometry (an AP field, head-first supine: gantry 0 enters from −y, the skin at the isocenter).
  */
 import { describe, expect, it } from 'vitest';
-import { coordinatesDoseReference, staticBeam } from '../../../scripts/fixtures/plan-parts.js';
 import type { PlanCheck } from '../../../src/model/index.js';
-import { beams, check, planFromSpec, type TestBeam } from '../../helpers/check-run.js';
+import { beams, type ElectronExtra, electronPlanCheck, type TestBeam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
-const plan = (
-  name: string,
-  depthMm: number,
-  extra: {
-    applicator?: string;
-    cutout?: readonly (readonly [number, number])[];
-    depthData?: { depthMm: number; equivalentDepthMm: number; ssdMm: number };
-  } = {},
-): PlanCheck => {
-  const point: [number, number, number] = [0, depthMm, 0];
-  return check(
-    planFromSpec({
-      file: `${name}.dcm`,
-      patientId: 'E-1',
-      patientName: 'Electron^Test',
-      label: name,
-      name,
-      description: 'test',
-      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-      beams: [
-        staticBeam(1, 'E9', 9, 0, 1000, iso, {
-          radiation: 'ELECTRON',
-          applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' },
-          ...(extra.cutout ? { cutout: extra.cutout } : {}),
-          ...(extra.depthData ? { depthData: extra.depthData } : {}),
-          first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
-        }),
-      ],
-    }).plan,
-    demo,
-  );
-};
+const plan = (name: string, depthMm: number, extra: ElectronExtra = {}) => electronPlanCheck(name, depthMm, extra, demo);
 const beam = (r: PlanCheck): TestBeam => beams(r)[0]!;
 
 describe('electron beams in the check', () => {
@@ -65,29 +32,5 @@ describe('electron beams in the check', () => {
   it('flags a point in the build-up region and one on the steep fall-off', () => {
     expect(beam(plan('e-shallow', 5)).fitness!.flags.map((f) => f.code)).toEqual(['electron-build-up']);
     expect(beam(plan('e-deep', 40)).fitness!.flags.map((f) => f.code)).toEqual(['steep-fall-off']);
-  });
-  it("a rectangular cutout uses the square-root rule (its Se is the geometric mean of the squares')", () => {
-    const rect = beam(
-      plan('e-rect', 20, {
-        cutout: [
-          [-30, -40],
-          [30, -40],
-          [30, 40],
-          [-30, 40],
-        ],
-      }),
-    );
-    const se = (side: number) =>
-      demo.electronBeams
-        .find((e) => e.id === '9E')!
-        .applicators.find((a) => a.id === 'A10')!
-        .outputFactor.at(side, 0, []);
-    expect(rect.calculation!.factors.find((f) => f.key === 'Se')!.value).toBeCloseTo(Math.sqrt(se(6) * se(8)), 12);
-    expect(rect.calculation!.electron!.cutout).toBe('rectangle');
-  });
-  it('an applicator the beam data lack is an input error naming those it has', () => {
-    const r = plan('e-app', 20, { applicator: 'A25' });
-    expect(r.issues[0]!.message).toMatch(/no applicator "A25"/);
-    expect(r.issues[0]!.expected).toBe('A06, A10, A15, A20');
   });
 });
