@@ -1,6 +1,6 @@
 import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { type LoadedMachine, loadMachine } from '../../src/beamdata/index.js';
 import type { MachineModel } from '../../src/model/index.js';
@@ -22,15 +22,20 @@ export function beam(m: MachineModel, id: string) {
   return b;
 }
 
+/** A machine's folder copied to a temporary one, its manifest (and, through `dir`, its tables) edited: the new manifest's path. */
+export function machineVariant(manifestFile: string, edit: (dir: string, manifest: Record<string, any>) => void): string {
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-machine-'));
+  cpSync(dirname(manifestFile), dir, { recursive: true });
+  const file = join(dir, basename(manifestFile));
+  const m = JSON.parse(readFileSync(file, 'utf8'));
+  edit(dir, m);
+  writeFileSync(file, JSON.stringify(m));
+  return file;
+}
+
 /** The demo beam data copied to a temporary folder, its manifest edited, loaded (not validated). */
 export function demoBeamDataWith(edit: (manifest: Record<string, any>) => void): LoadedMachine {
-  const dir = mkdtempSync(join(tmpdir(), 'plumbline-demo-bd-'));
-  cpSync(dirname(DEMO_MANIFEST), dir, { recursive: true });
-  const file = join(dir, 'manifest.json');
-  const m = JSON.parse(readFileSync(file, 'utf8'));
-  edit(m);
-  writeFileSync(file, JSON.stringify(m));
-  const r = loadMachine(file);
+  const r = loadMachine(machineVariant(DEMO_MANIFEST, (_, m) => edit(m)));
   if (!r.ok) throw new Error(r.issues.map((i) => i.message).join('; '));
   return r.value;
 }
