@@ -24,6 +24,7 @@ export default defineConfig({
       'tests/service/received-hash.test.ts',
       'tests/run/dataset-hash.test.ts',
       'tests/dicom/object-summary.test.ts',
+      'tests/service/history/postgres-migrations.test.ts',
     ],
     // Beam-data validation is never served from a cache in tests (tests/run/validation-cache.test.ts tests the cache itself).
     env: { PLUMBLINE_CACHE_DIR: 'off' },

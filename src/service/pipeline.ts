@@ -16,6 +16,7 @@ import {
 } from '../run/index.js';
 import { checkHtml } from '../report/check-html.js';
 import { planHeadline } from '../report/plan-headline.js';
+import type { Issue } from '../model/index.js';
 import type { ServiceConfig } from './config.js';
 import type { CheckInput, HistoryStore } from './history/store.js';
 import { arrivalOf } from './inbox-names.js';
@@ -226,10 +227,10 @@ async function checkAndRecord(
   content: string | undefined,
 ): Promise<PlanOutcome> {
   const r = checkArrivedPlan(bytes, p.file, p.sentSha256, ctx.machines, ctx.policy, companions);
-  if (!r.ok) return { refused: r.issues.map((i) => i.message).join('; ') };
+  if (!r.ok) return { refused: reasonOf(r.issues) };
   const { result, machine } = r.value;
   // Refused by the check itself (a machine the beam data do not know, a field beyond the machine): as the CLI refuses it.
-  if (result.issues.length) return { refused: result.issues.map((i) => i.message).join('; ') };
+  if (result.issues.length) return { refused: reasonOf(result.issues) };
   const recordedAt = new Date(ctx.now());
   const stamp = beamDataStamp(machine);
   const doc = checkDocument([result], [], stamp, ctx.policy, recordedAt);
@@ -302,4 +303,9 @@ function sender(inboxName: string): { fileName: string; callingAeTitle?: string 
 function describe(inboxName: string): string {
   const a = arrivalOf(inboxName);
   return a.callingAeTitle !== undefined ? `${a.fileName} (from AE title ${a.callingAeTitle})` : a.fileName;
+}
+
+/** The reason of a refusal: each message once (the same problem of several beams is one reason). */
+function reasonOf(issues: readonly Pick<Issue, 'message'>[]): string {
+  return [...new Set(issues.map((i) => i.message))].join('; ');
 }
