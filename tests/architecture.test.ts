@@ -3,12 +3,13 @@
  * service), enforced on the import statements of src/: each folder may import only what the
  * architecture allows. Every folder of src/ must have a rule.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 
 const SRC = fileURLToPath(new URL('../src/', import.meta.url));
+const TESTS = fileURLToPath(new URL('./', import.meta.url));
 
 /** Node's built-ins, for the layers that do I/O. */
 const NODE = [
@@ -97,4 +98,62 @@ describe('import directions in src/', () => {
   it('the checker notices the service reaching below the application layer', () => expect(forbidden('run/check-file.ts', 'service')).toBe(true));
   it('the checker notices the command line reaching below the application layer', () => expect(forbidden('run/manual-calc.ts', 'cli')).toBe(true));
   it('the checker notices the application layer importing a front door', () => expect(forbidden('cli/check.ts', 'run')).toBe(true));
+});
+
+/**
+ * Modules that hold no logic of their own (types, schemas, the executable entry): a test of their
+ * name is not asked of them; the schemas are exercised by every test that parses a document.
+ */
+const NO_LOGIC: Readonly<Record<string, string>> = {
+  'cli/bin.ts': 'the executable entry: imports main and sets the exit code',
+  'cli/outcome.ts': "a command's outcome type",
+  'cli/zod-setup.ts': "one call configuring zod's parsing for the command line",
+  'model/beam-depth.ts': 'schema of a depth row',
+  'model/beam-model.ts': "types of the beam data's lookups",
+  'model/beam.ts': 'schema of a beam',
+  'model/check-result.ts': 'schema of a check result',
+  'model/ct-volume.ts': 'type of a CT volume',
+  'model/dose-grid.ts': 'type of an RT Dose grid',
+  'model/dose-reference.ts': 'schema of a dose reference',
+  'model/fraction-group.ts': 'schema of a fraction group',
+  'model/issue-json.ts': 'schema of an issue in JSON',
+  'model/plan.ts': 'schema of a plan',
+  'model/point-dose.ts': 'types of the point-dose input and result',
+  'model/structure.ts': 'type of a structure set',
+  'model/vectors.ts': 'schemas of points and finite numbers',
+  'report/check-json.ts': 'schema of the check document',
+  'report/inspect-json.ts': 'schema of the inspect document',
+  'service/history/store.ts': "the history store's interface",
+};
+
+/** Logic-holding modules of src/ without a test of their name under `testsRoot`. */
+function withoutTest(testsRoot: string): string[] {
+  return files(SRC)
+    .map((f) => relative(SRC, f).split(sep).join('/'))
+    .filter((rel) => !rel.endsWith('/index.ts') && rel !== 'index.ts' && !rel.endsWith('.d.ts') && NO_LOGIC[rel] === undefined)
+    .filter((rel) => !existsSync(join(testsRoot, rel.replace(/\.ts$/, '.test.ts'))));
+}
+
+/** Code that does something: a function, a class, a branch or loop, a block-bodied arrow, a schema's refinement (comments stripped). */
+const LOGIC = /\bfunction\b|\bclass\b|\b(?:if|for|while|switch)\s*\(|=>\s*[{(]|\.(?:refine|superRefine|transform)\(/;
+const withoutComments = (text: string) => text.replace(/\/\*[\s\S]*?\*\//g, '').replace(/^\s*\/\/.*$/gm, '');
+
+describe('tests mirror src/', () => {
+  it('every module that holds logic has a test of its own name opposite it', () => {
+    expect(withoutTest(TESTS)).toEqual([]);
+  });
+  it('a module said to hold no logic defines no function, class, branch, loop or refinement', () => {
+    const offenders = Object.keys(NO_LOGIC).filter((rel) => LOGIC.test(withoutComments(readFileSync(join(SRC, rel), 'utf8'))));
+    expect(offenders).toEqual([]);
+  });
+  it('every module said to hold no logic exists', () => {
+    expect(Object.keys(NO_LOGIC).filter((rel) => !existsSync(join(SRC, rel)))).toEqual([]);
+  });
+  // Guards against rules that cannot fail.
+  it('the checker notices modules without their tests (against an empty tests folder)', () => {
+    expect(withoutTest(join(TESTS, 'no-such-folder')).length).toBeGreaterThan(100);
+  });
+  it('the checker notices logic in a module (the policy module, judged as if it were said to hold none)', () => {
+    expect(LOGIC.test(withoutComments(readFileSync(join(SRC, 'check/policy.ts'), 'utf8')))).toBe(true);
+  });
 });
