@@ -17,7 +17,6 @@ export default defineConfig({
       'tests/service/duplicates.test.ts',
       'tests/dicom/transfer-syntax.test.ts',
       'tests/dicom/dictionary.test.ts',
-      'tests/geometry/ct-depth.test.ts',
       'tests/service/history/postgres-store.test.ts',
       'tests/service/multi-node.test.ts',
       'tests/service/web-postgres.test.ts',

@@ -3,7 +3,7 @@
  * order, the geometry of PS3.3 C.7.6.2.1.1, and a series with a gap, a duplicate or another object
  * refused naming the files. pydicom's CT_small.dcm is read in tests/reference/ct-small.test.ts.
  */
-import { copyFileSync, mkdtempSync, rmSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -70,5 +70,27 @@ describe('readCtVolumes', () => {
     const r = readCtVolumes([...a, demoPlan('four-field-box.dcm'), ...b]);
     expect(r.issues).toEqual([]);
     expect(r.volumes.map((v) => v.slices).sort()).toEqual([2, 3]);
+  });
+});
+
+describe('a folder of several series', () => {
+  it('skips other objects but refuses a damaged slice instead of dropping it', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plumbline-ct-damaged-'));
+    const files = writeCtPhantom(dir, {
+      name: 'dmg',
+      columns: 8,
+      rows: 8,
+      slices: 4,
+      spacingMm: [4, 4, 4],
+      originMm: [0, 0, 0],
+      frameOfReferenceUid: '1.2.3',
+      hu: () => 0,
+    });
+    writeFileSync(join(dir, 'notes.txt'), 'not DICOM');
+    expect(readCtVolumes([...files, join(dir, 'notes.txt')]).volumes).toHaveLength(1);
+    writeFileSync(files[2]!, readFileSync(files[2]!).subarray(0, 400));
+    const r = readCtVolumes(files);
+    expect(r.volumes).toHaveLength(0);
+    expect(r.issues[0]!.file).toBe(files[2]);
   });
 });
