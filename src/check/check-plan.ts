@@ -72,34 +72,18 @@ function planVerdict(beams: readonly BeamCheck[], fullyVerified: boolean): PlanV
  */
 export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanCheck {
   const issues: Issue[] = [];
-  const ctFrame = o.ct?.volume.frameOfReferenceUid;
-  if (o.ct && ctFrame !== plan.frameOfReferenceUid) {
-    issues.push({
-      severity: 'error',
-      code: 'inconsistent',
-      file: file.path,
-      path: 'FrameOfReferenceUID',
-      message: "the CT and the plan are in different frames of reference: the CT cannot be this plan's",
-      expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`,
-      found: `the CT's ${ctFrame}`,
-    });
-  }
+  const frameIssue = ctFrameIssue(plan, file, o);
+  if (frameIssue) issues.push(frameIssue);
   const ct = issues.length ? undefined : o.ct;
-  const grids = (o.doseGrids ?? []).filter(
-    (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
-  );
-  const corrections = [...new Set(grids.flatMap((g) => g.tissueHeterogeneityCorrection ?? []))];
-  const gridSays = corrections.length ? corrections.some((c) => c === 'IMAGE' || c === 'ROI_OVERRIDE') : undefined;
-  const planSays = planStatesCorrection(plan);
-  const planningSystemCorrected = gridSays === true || planSays === true ? true : (gridSays ?? planSays);
-  if (planSays) corrections.push('Equivalent Depth in the plan');
+  const doses = planningSystemDoses(plan, o);
+  const beamContext = { ...o, ct, ctRefused: !!o.ct && !ct, planningSystemCorrected: doses.planningSystemCorrected };
   let machine: PlanCheck['machine'];
   const checkedGroups: FractionGroupCheck[] = plan.fractionGroups.map((g) => {
     const beams = g.beams.map((entry) => {
-      const r = checkEntry(plan, g, entry, { ...o, ct, ctRefused: !!o.ct && !ct, planningSystemCorrected });
+      const r = checkEntry(plan, g, entry, beamContext);
       for (const i of r.issues ?? []) issues.push({ ...i, file: file.path });
       machine ??= r.machine;
-      return atUserPoint(r.beam, grids);
+      return atUserPoint(r.beam, doses.grids);
     });
     const judged = judge(beams, o.policy);
     return {
@@ -109,43 +93,13 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
       totals: groupTotals(plan, g, judged),
     };
   });
-  const beamContext = { ...o, ct, ctRefused: !!o.ct && !ct, planningSystemCorrected, suggestPoint: false };
-  const explained =
-    (o.explain ?? true) === false
-      ? { groups: checkedGroups, courseTotals: courseTotals(checkedGroups) }
-      : explainPlan(
-          checkedGroups,
-          {
-            machine: o.machine,
-            all: o.explainAll ?? false,
-            grids,
-            largeSsdCm: o.policy.classification.largeSsdCm,
-            machineMatch: machine,
-            planningSystemCorrected,
-          },
-          (number) => {
-            const g = plan.fractionGroups.find((x) => x.number === number)!;
-            return (beamNumber, edited) => {
-              const entry = g.beams.find((e) => e.beamNumber === beamNumber);
-              const r = entry ? checkEntry(plan, g, entry, { ...beamContext, machine: edited }).beam : undefined;
-              return r?.status === 'checked' ? r.calculation.independentDoseCGy : undefined;
-            };
-          },
-        );
-  const groups = attachDoseGrids(explained.groups, grids);
+  const explained = explainGroups(plan, checkedGroups, { ...beamContext, suggestPoint: false }, doses, machine);
+  const groups = attachDoseGrids(explained.groups, doses.grids);
   const all = groups.flatMap((g) => g.beams);
   // A setup beam delivers no dose: it needs no check and leaves the plan verified.
   const notChecked = all.filter((b) => b.status !== 'checked' && b.reason.code !== 'setup-beam').length;
   const checked = all.filter((b) => b.status === 'checked').length;
   const fullyVerified = notChecked === 0 && issues.length === 0 && checked > 0;
-  const warnings: Note[] = [];
-  if (notChecked) warnings.push(note('beams-not-checked', { count: notChecked }));
-  if (checked === 0) warnings.push(note('no-beam-checked'));
-  if (o.doseGrids?.length && !grids.length) warnings.push(note('dose-not-this-plan', { files: o.doseGrids.map((g) => g.file).join(', ') }));
-  if (plan.approvalStatus !== 'APPROVED') warnings.push(note('approval-status', { status: plan.approvalStatus }));
-  if (!ct && checked > 0 && planningSystemCorrected)
-    warnings.push(note('planning-system-heterogeneity-corrected', { correction: corrections.join(', ') }));
-  if (!ct && checked > 0 && planningSystemCorrected === undefined) warnings.push(note('heterogeneity-unknown'));
   return {
     file: file.path,
     fileSha256: file.sha256,
@@ -160,15 +114,101 @@ export function checkPlan(plan: Plan, file: PlanFile, o: CheckOptions): PlanChec
     courseTotals: explained.courseTotals.map((t) =>
       withGrid(
         t,
-        grids.find((g) => g.summationType === 'PLAN'),
+        doses.grids.find((g) => g.summationType === 'PLAN'),
       ),
     ),
     verdict: planVerdict(all, fullyVerified),
     fullyVerified,
     issues,
     importWarnings: [...(file.importWarnings ?? [])],
-    warnings,
+    warnings: planWarnings(plan, o, { ct, doses, notChecked, checked }),
   };
+}
+
+/** The options of one beam's check: the plan's CT when it is the plan's, and what the planning system says of heterogeneity. */
+type EntryOptions = Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean; planningSystemCorrected: boolean | undefined };
+
+/** A CT of another frame of reference cannot be the plan's: an input error, and the plan is checked without it. */
+function ctFrameIssue(plan: Plan, file: PlanFile, o: CheckOptions): Issue | undefined {
+  const ctFrame = o.ct?.volume.frameOfReferenceUid;
+  if (!o.ct || ctFrame === plan.frameOfReferenceUid) return undefined;
+  return {
+    severity: 'error',
+    code: 'inconsistent',
+    file: file.path,
+    path: 'FrameOfReferenceUID',
+    message: "the CT and the plan are in different frames of reference: the CT cannot be this plan's",
+    expected: `the plan's ${plan.frameOfReferenceUid ?? '(none)'}`,
+    found: `the CT's ${ctFrame}`,
+  };
+}
+
+/** The planning system's dose grids of this plan, and whether it corrected for heterogeneity (as the grids and the plan say). */
+interface PlanningSystemDoses {
+  readonly grids: readonly DoseGrid[];
+  /** How the correction is stated (the grids' terms, the plan's Equivalent Depth). */
+  readonly corrections: readonly string[];
+  readonly planningSystemCorrected: boolean | undefined;
+}
+
+function planningSystemDoses(plan: Plan, o: CheckOptions): PlanningSystemDoses {
+  const grids = (o.doseGrids ?? []).filter(
+    (g) => g.referencedPlanUid === plan.sopInstanceUid || (!g.referencedPlanUid && g.frameOfReferenceUid === plan.frameOfReferenceUid),
+  );
+  const corrections = [...new Set(grids.flatMap((g) => g.tissueHeterogeneityCorrection ?? []))];
+  const gridSays = corrections.length ? corrections.some((c) => c === 'IMAGE' || c === 'ROI_OVERRIDE') : undefined;
+  const planSays = planStatesCorrection(plan);
+  const planningSystemCorrected = gridSays === true || planSays === true ? true : (gridSays ?? planSays);
+  if (planSays) corrections.push('Equivalent Depth in the plan');
+  return { grids, corrections, planningSystemCorrected };
+}
+
+/** The groups with their explanations (unless turned off), each cause able to recheck a beam with edited beam data. */
+function explainGroups(
+  plan: Plan,
+  checkedGroups: FractionGroupCheck[],
+  beamContext: EntryOptions,
+  doses: PlanningSystemDoses,
+  machine: PlanCheck['machine'],
+): { groups: FractionGroupCheck[]; courseTotals: PlanCheck['courseTotals'] } {
+  if ((beamContext.explain ?? true) === false) return { groups: checkedGroups, courseTotals: courseTotals(checkedGroups) };
+  return explainPlan(
+    checkedGroups,
+    {
+      machine: beamContext.machine,
+      all: beamContext.explainAll ?? false,
+      grids: doses.grids,
+      largeSsdCm: beamContext.policy.classification.largeSsdCm,
+      machineMatch: machine,
+      planningSystemCorrected: doses.planningSystemCorrected,
+    },
+    (number) => {
+      const g = plan.fractionGroups.find((x) => x.number === number)!;
+      return (beamNumber, edited) => {
+        const entry = g.beams.find((e) => e.beamNumber === beamNumber);
+        const r = entry ? checkEntry(plan, g, entry, { ...beamContext, machine: edited }).beam : undefined;
+        return r?.status === 'checked' ? r.calculation.independentDoseCGy : undefined;
+      };
+    },
+  );
+}
+
+/** What the plan's result must say beside its beams: beams not checked, approval, the RT Doses unused, heterogeneity. */
+function planWarnings(
+  plan: Plan,
+  o: CheckOptions,
+  s: { ct: CheckOptions['ct']; doses: PlanningSystemDoses; notChecked: number; checked: number },
+): Note[] {
+  const { ct, doses, notChecked, checked } = s;
+  const warnings: Note[] = [];
+  if (notChecked) warnings.push(note('beams-not-checked', { count: notChecked }));
+  if (checked === 0) warnings.push(note('no-beam-checked'));
+  if (o.doseGrids?.length && !doses.grids.length) warnings.push(note('dose-not-this-plan', { files: o.doseGrids.map((g) => g.file).join(', ') }));
+  if (plan.approvalStatus !== 'APPROVED') warnings.push(note('approval-status', { status: plan.approvalStatus }));
+  if (!ct && checked > 0 && doses.planningSystemCorrected)
+    warnings.push(note('planning-system-heterogeneity-corrected', { correction: doses.corrections.join(', ') }));
+  if (!ct && checked > 0 && doses.planningSystemCorrected === undefined) warnings.push(note('heterogeneity-unknown'));
+  return warnings;
 }
 
 /**
@@ -179,7 +219,7 @@ function checkEntry(
   plan: Plan,
   g: FractionGroup,
   entry: ReferencedBeam,
-  o: Omit<CheckOptions, 'ct'> & { ct: PatientCt | undefined; ctRefused: boolean; planningSystemCorrected: boolean | undefined },
+  o: EntryOptions,
 ): { beam: CalculatedBeam | NotCheckedBeam; issues?: readonly Issue[]; machine?: PlanCheck['machine'] } {
   const beam = plan.beams.find((b) => b.number === entry.beamNumber)!;
   const position = plan.patientSetups.find((s) => s.number === beam.patientSetupNumber)?.position ?? plan.patientSetups[0]?.position;
