@@ -102,7 +102,7 @@ function unitSlip(t: LoadedTable, kind: string): Issue | undefined {
   if (FACTOR_KINDS.has(kind) && lo >= 30 && hi <= 150)
     return { ...at, message: `${label}: values between ${lo} and ${hi} in a table of factors: percent?`, expected: 'factors near 1' };
   for (const axis of [t.lookup.rows, t.lookup.columns]) {
-    if (!axis || axis.unit !== 'cm') continue;
+    if (axis?.unit !== 'cm') continue;
     const largest = Math.max(...axis.values);
     const limit = axis.name === 'depth' ? LARGEST_DEPTH_CM : LARGEST_SIDE_CM;
     if (largest > limit)

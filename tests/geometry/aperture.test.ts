@@ -2,46 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { apertureAt } from '../../src/geometry/index.js';
 import { equivalentSquareCm } from '../../src/physics/index.js';
 import type { Beam, ControlPoint } from '../../src/model/index.js';
+import { modelBeam, modelControlPoint } from '../helpers/model-beam.js';
 
-const beam = (mlc?: { pairs: number; width: number }): Beam => ({
-  number: 1,
-  radiationType: 'PHOTON',
-  beamType: 'STATIC',
-  wedges: [],
-  compensators: [],
-  bolusRoiNumbers: [],
-  blocks: [],
-  applicators: [],
-  doseVerification: [],
-  controlPoints: [],
-  limitingDevices: [
-    { type: 'ASYMX', numberOfPairs: 1 },
-    { type: 'ASYMY', numberOfPairs: 1 },
-    ...(mlc
-      ? [
-          {
-            type: 'MLCX' as const,
-            numberOfPairs: mlc.pairs,
-            leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width),
-          },
-        ]
-      : []),
-  ],
-});
-const cp = (x: [number, number], y: [number, number], leaves?: number[]): ControlPoint => ({
-  index: 0,
-  gantryAngleDeg: 0,
-  collimatorAngleDeg: 0,
-  couchAngleDeg: 0,
-  cumulativeMetersetWeight: 0,
-  wedgePositions: [],
-  doseReferenceCoefficients: [],
-  devices: [
-    { type: 'ASYMX', positionsMm: x },
-    { type: 'ASYMY', positionsMm: y },
-    ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : []),
-  ],
-});
+const beam = (mlc?: { pairs: number; width: number }) => modelBeam(mlc ? { pairs: mlc.pairs, widthMm: mlc.width } : undefined);
+const cp = modelControlPoint;
 
 describe('aperture of jaws and leaves', () => {
   it('jaws alone: a 100 x 120 mm rectangle, whose 4A/P is the rectangle equivalent square', () => {

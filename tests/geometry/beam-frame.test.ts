@@ -7,19 +7,10 @@
  */
 import { describe, expect, it } from 'vitest';
 import { beamFrame, flatDepth, patientToBld, bldToPatient } from '../../src/geometry/index.js';
-import type { ControlPoint, PatientPosition } from '../../src/model/index.js';
+import type { PatientPosition } from '../../src/model/index.js';
+import { anglesControlPoint } from '../helpers/model-beam.js';
 
-const cp = (gantry: number, collimator = 0, couch = 0, iso: [number, number, number] = [0, 0, 0]): ControlPoint => ({
-  index: 0,
-  gantryAngleDeg: gantry,
-  collimatorAngleDeg: collimator,
-  couchAngleDeg: couch,
-  cumulativeMetersetWeight: 0,
-  isocenterPatientMm: iso,
-  devices: [],
-  wedgePositions: [],
-  doseReferenceCoefficients: [],
-});
+const cp = anglesControlPoint;
 const source = (pos: PatientPosition, g: number, c = 0, t = 0) => {
   const f = beamFrame(cp(g, c, t), pos, 1000);
   if (!f) throw new Error('unsupported');

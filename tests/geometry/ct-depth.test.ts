@@ -13,6 +13,7 @@ import { loadDensityTable } from '../../src/beamdata/index.js';
 import { beamFrame, bodySurface, ctDepth, ctSsdAlongAxisMm, traceRay, type Vec3 } from '../../src/geometry/index.js';
 import type { ControlPoint, CtVolume, PatientPosition } from '../../src/model/index.js';
 import { sampledVolume } from '../helpers/model-ct.js';
+import { anglesControlPoint } from '../helpers/model-beam.js';
 
 const work = mkdtempSync(join(tmpdir(), 'plumbline-ct-'));
 const tableFile = join(work, 'hu-density.csv');
@@ -35,17 +36,7 @@ const bone = phantom('bone', (x, y, z) => (!inBox(x, y, z) ? -1000 : y > 20 && y
 /** A water cylinder of radius 100 mm along z: on the axes its surface lies on voxel faces, elsewhere it is a staircase. */
 const cylinder = phantom('cylinder', (x, y, z) => (x * x + y * y < 100 * 100 && Math.abs(z) < 100 ? 0 : -1000));
 
-const cp = (gantry: number, collimator = 0, couch = 0): ControlPoint => ({
-  index: 0,
-  gantryAngleDeg: gantry,
-  collimatorAngleDeg: collimator,
-  couchAngleDeg: couch,
-  cumulativeMetersetWeight: 0,
-  isocenterPatientMm: [0, 0, 0],
-  devices: [],
-  wedgePositions: [],
-  doseReferenceCoefficients: [],
-});
+const cp = anglesControlPoint;
 const depth = (v: CtVolume, pos: PatientPosition, c: ControlPoint, point: Vec3) => {
   const f = beamFrame(c, pos, 1000)!;
   const r = ctDepth(v, f.sourcePatientMm, point, opts);

@@ -7,19 +7,9 @@
 import { describe, expect, it } from 'vitest';
 import { beamFrame } from '../../src/geometry/beam-frame.js';
 import { flatDepth } from '../../src/geometry/flat-depth.js';
-import type { ControlPoint } from '../../src/model/index.js';
+import { anglesControlPoint } from '../helpers/model-beam.js';
 
-const cp = (gantry: number): ControlPoint => ({
-  index: 0,
-  gantryAngleDeg: gantry,
-  collimatorAngleDeg: 0,
-  couchAngleDeg: 0,
-  cumulativeMetersetWeight: 0,
-  isocenterPatientMm: [0, 0, 0],
-  devices: [],
-  wedgePositions: [],
-  doseReferenceCoefficients: [],
-});
+const cp = anglesControlPoint;
 const frame = (gantry: number) => beamFrame(cp(gantry), 'HFS', 1000)!;
 
 describe('flat depth', () => {

@@ -6,52 +6,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { apertureAt, crossingRings, type Ring, ringsOf } from '../../src/geometry/index.js';
-import type { Beam, ControlPoint } from '../../src/model/index.js';
+import { modelBeam, modelControlPoint } from '../helpers/model-beam.js';
 
-type Mlc = { type: 'MLCX' | 'MLCY'; pairs: number; width: number };
-const beam = (mlc?: Mlc, jaws = { x: true, y: true }): Beam => ({
-  number: 1,
-  radiationType: 'PHOTON',
-  beamType: 'STATIC',
-  wedges: [],
-  compensators: [],
-  bolusRoiNumbers: [],
-  blocks: [],
-  applicators: [],
-  doseVerification: [],
-  controlPoints: [],
-  limitingDevices: [
-    ...(jaws.x ? [{ type: 'ASYMX' as const, numberOfPairs: 1 }] : []),
-    ...(jaws.y ? [{ type: 'ASYMY' as const, numberOfPairs: 1 }] : []),
-    ...(mlc
-      ? [
-          {
-            type: mlc.type,
-            numberOfPairs: mlc.pairs,
-            leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.width),
-          },
-        ]
-      : []),
-  ],
-});
-const cp = (
-  x: [number, number] | undefined,
-  y: [number, number] | undefined,
-  leaves?: { type: 'MLCX' | 'MLCY'; positionsMm: number[] },
-): ControlPoint => ({
-  index: 0,
-  gantryAngleDeg: 0,
-  collimatorAngleDeg: 0,
-  couchAngleDeg: 0,
-  cumulativeMetersetWeight: 0,
-  wedgePositions: [],
-  doseReferenceCoefficients: [],
-  devices: [
-    ...(x ? [{ type: 'ASYMX' as const, positionsMm: x }] : []),
-    ...(y ? [{ type: 'ASYMY' as const, positionsMm: y }] : []),
-    ...(leaves ? [leaves] : []),
-  ],
-});
+const beam = (mlc?: { type: 'MLCX' | 'MLCY'; pairs: number; width: number }, jaws = { x: true, y: true }) =>
+  modelBeam(mlc ? { type: mlc.type, pairs: mlc.pairs, widthMm: mlc.width } : undefined, jaws);
+const cp = modelControlPoint;
 const T = 0.015;
 const close = (rings: readonly Ring[], expected: [number, number][]) => {
   expect(rings.map((r) => r.weight)).toEqual(expected.map((e) => e[1]));

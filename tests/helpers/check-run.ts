@@ -84,28 +84,29 @@ export interface ElectronExtra {
 
 /** A 9 MeV AP electron beam (applicator A10 unless said, SSD 100 cm) with its point `depthMm` below the skin at the isocenter, checked. */
 export function electronPlanCheck(name: string, depthMm: number, extra: ElectronExtra, machine: MachineModel): PlanCheck {
-  const point: [number, number, number] = [0, depthMm, 0];
-  return check(
-    planFromSpec({
-      file: `${name}.dcm`,
-      patientId: 'E-1',
-      patientName: 'Electron^Test',
-      label: name,
-      name,
-      description: 'test',
-      doseReferences: [coordinatesDoseReference(1, 'point', point, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: point }] }],
-      beams: [
-        staticBeam(1, 'E9', 9, 0, 1000, [0, 0, 0], {
-          radiation: 'ELECTRON',
-          ...(extra.noApplicator ? {} : { applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' } }),
-          ...(extra.cutout ? { cutout: extra.cutout } : {}),
-          ...(extra.block ? { block: extra.block } : {}),
-          ...(extra.depthData ? { depthData: extra.depthData } : {}),
-          first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
-        }),
-      ],
-    }).plan,
-    machine,
-  );
+  const beam = staticBeam(1, 'E9', 9, 0, 1000, [0, 0, 0], {
+    radiation: 'ELECTRON',
+    ...(extra.noApplicator ? {} : { applicator: { id: extra.applicator ?? 'A10', type: 'ELECTRON_SQUARE', description: 'cone' } }),
+    ...(extra.cutout ? { cutout: extra.cutout } : {}),
+    ...(extra.block ? { block: extra.block } : {}),
+    ...(extra.depthData ? { depthData: extra.depthData } : {}),
+    first: { jawsXMm: [-100, 100], jawsYMm: [-100, 100] },
+  });
+  return check(oneBeamPlan(name, beam, [0, depthMm, 0], { patientId: 'E-1' }), machine);
 }
+
+/** The one beam of a one-beam test plan checked (its Beam Dose at `point`, the isocenter by default). */
+export function checkOneBeam(name: string, b: BeamSpec, machine: MachineModel, point: [number, number, number] = [0, 0, 0]): TestBeam {
+  return beams(check(oneBeamPlan(name, b, point, { patientId: 'W-1' }), machine))[0]!;
+}
+
+/** An AP 15 × 15 field with a 30° physical wedge (the demo machine's W30) at the given orientation, isocenter 10 cm deep. */
+export function w30Beam(orientationDeg: number): BeamSpec {
+  return staticBeam(1, 'AP W30', 6, 0, 900, [0, 0, 0], {
+    wedge: { id: 'W30', angle: 30, factor: 0.68, orientation: orientationDeg },
+    first: { wedgeIn: true, jawsXMm: [-75, 75], jawsYMm: [-75, 75] },
+  });
+}
+
+/** A factor of a checked beam's calculation by its key (Sc, WF, WP …). */
+export const factorOf = (b: TestBeam, key: string) => b.calculation!.factors.find((f) => f.key === key);

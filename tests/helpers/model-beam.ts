@@ -87,8 +87,15 @@ export function electronBeam(n: ElectronNumbers): ElectronBeamModel {
   };
 }
 
-/** A photon beam's model as the DICOM reader gives it: jaws, and an MLCX of `pairs` leaves `widthMm` wide centred on the axis. */
-export function modelBeam(mlc?: { pairs: number; widthMm: number }): Beam {
+/** A leaf bank: MLCX (leaves move along X) or MLCY, `pairs` leaves `widthMm` wide centred on the axis. */
+export interface ModelMlc {
+  readonly type?: 'MLCX' | 'MLCY';
+  readonly pairs: number;
+  readonly widthMm: number;
+}
+
+/** A photon beam's model as the DICOM reader gives it: jaws (both unless said), and a leaf bank when given. */
+export function modelBeam(mlc?: ModelMlc, jaws = { x: true, y: true }): Beam {
   return {
     number: 1,
     radiationType: 'PHOTON',
@@ -101,12 +108,12 @@ export function modelBeam(mlc?: { pairs: number; widthMm: number }): Beam {
     doseVerification: [],
     controlPoints: [],
     limitingDevices: [
-      { type: 'ASYMX', numberOfPairs: 1 },
-      { type: 'ASYMY', numberOfPairs: 1 },
+      ...(jaws.x ? [{ type: 'ASYMX' as const, numberOfPairs: 1 }] : []),
+      ...(jaws.y ? [{ type: 'ASYMY' as const, numberOfPairs: 1 }] : []),
       ...(mlc
         ? [
             {
-              type: 'MLCX' as const,
+              type: mlc.type ?? ('MLCX' as const),
               numberOfPairs: mlc.pairs,
               leafBoundariesMm: Array.from({ length: mlc.pairs + 1 }, (_, i) => (i - mlc.pairs / 2) * mlc.widthMm),
             },
@@ -116,8 +123,16 @@ export function modelBeam(mlc?: { pairs: number; widthMm: number }): Beam {
   };
 }
 
-/** A control point at gantry, collimator and couch 0 with jaws x, y (mm) and, optionally, leaf positions (bank A then bank B). */
-export function modelControlPoint(x: [number, number], y: [number, number], leaves?: number[]): ControlPoint {
+/**
+ * A control point at gantry, collimator and couch 0 with jaws x, y (mm; undefined: no jaws on that
+ * axis) and, optionally, leaf positions (bank A then bank B): MLCX unless given with their type.
+ */
+export function modelControlPoint(
+  x: [number, number] | undefined,
+  y: [number, number] | undefined,
+  leaves?: number[] | { type: 'MLCX' | 'MLCY'; positionsMm: number[] },
+): ControlPoint {
+  const bank = Array.isArray(leaves) ? { type: 'MLCX' as const, positionsMm: leaves } : leaves;
   return {
     index: 0,
     gantryAngleDeg: 0,
@@ -127,9 +142,20 @@ export function modelControlPoint(x: [number, number], y: [number, number], leav
     wedgePositions: [],
     doseReferenceCoefficients: [],
     devices: [
-      { type: 'ASYMX', positionsMm: x },
-      { type: 'ASYMY', positionsMm: y },
-      ...(leaves ? [{ type: 'MLCX' as const, positionsMm: leaves }] : []),
+      ...(x ? [{ type: 'ASYMX' as const, positionsMm: x }] : []),
+      ...(y ? [{ type: 'ASYMY' as const, positionsMm: y }] : []),
+      ...(bank ? [bank] : []),
     ],
+  };
+}
+
+/** A control point of angles only (no devices), the isocenter at `iso`: for frames and depths. */
+export function anglesControlPoint(gantry: number, collimator = 0, couch = 0, iso: [number, number, number] = [0, 0, 0]): ControlPoint {
+  return {
+    ...modelControlPoint(undefined, undefined),
+    gantryAngleDeg: gantry,
+    collimatorAngleDeg: collimator,
+    couchAngleDeg: couch,
+    isocenterPatientMm: iso,
   };
 }

@@ -9,7 +9,6 @@ import { beams, type ElectronExtra, electronPlanCheck, type TestBeam } from '../
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
-const iso: [number, number, number] = [0, 0, 0];
 const plan = (name: string, depthMm: number, extra: ElectronExtra = {}) => electronPlanCheck(name, depthMm, extra, demo);
 const beam = (r: PlanCheck): TestBeam => beams(r)[0]!;
 

@@ -6,15 +6,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { staticBeam } from '../../../scripts/fixtures/plan-parts.js';
-import { beams, check, oneBeamPlan, type TestBeam } from '../../helpers/check-run.js';
+import { beams, check, oneBeamPlan, type TestBeam, w30Beam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
-const w30 = (orientation: number) =>
-  staticBeam(1, 'AP W30', 6, 0, 900, [0, 0, 0], {
-    wedge: { id: 'W30', angle: 30, factor: 0.68, orientation },
-    first: { wedgeIn: true, jawsXMm: [-75, 75], jawsYMm: [-75, 75] },
-  });
+const w30 = w30Beam;
 const checked = (b: TestBeam) => {
   if (b.status !== 'checked') throw new Error('not checked');
   return b;

@@ -7,19 +7,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import { staticBeam, type BeamSpec } from '../../../scripts/fixtures/plan-parts.js';
-import { beams, check, oneBeamPlan, type TestBeam } from '../../helpers/check-run.js';
+import { checkOneBeam, factorOf, type TestBeam, w30Beam } from '../../helpers/check-run.js';
 import { DEMO_MANIFEST, beam as dataBeam, machine } from '../../helpers/machines.js';
 
 const demo = machine(DEMO_MANIFEST);
 const iso: [number, number, number] = [0, 0, 0];
-const run = (name: string, b: BeamSpec, point: [number, number, number] = iso, m = demo): TestBeam =>
-  beams(check(oneBeamPlan(name, b, point, { patientId: 'W-1' }), m))[0]!;
-const w30 = (orientation: number) =>
-  staticBeam(1, 'AP W30', 6, 0, 900, iso, {
-    wedge: { id: 'W30', angle: 30, factor: 0.68, orientation },
-    first: { wedgeIn: true, jawsXMm: [-75, 75], jawsYMm: [-75, 75] },
-  });
-const factor = (b: TestBeam, key: string) => b.calculation!.factors.find((f) => f.key === key);
+const run = (name: string, b: BeamSpec, point: [number, number, number] = iso, m = demo): TestBeam => checkOneBeam(name, b, m, point);
+const w30 = w30Beam;
+const factor = factorOf;
 
 describe('wedges off the central axis along their gradient', () => {
   // HFS, gantry and collimator 0: the BEAM LIMITING DEVICE's +Y is superior (+z); at orientation 0 the heel is at −Y.
