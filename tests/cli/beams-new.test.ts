@@ -1,4 +1,7 @@
-/** `beams new`: a new machine's manifest and CSV templates written into a new folder; options refused with their reason; a folder with files never overwritten. */
+/**
+ * `beams new`: a new machine's manifest and CSV templates written into a new folder; options refused
+ * with their reason; a folder with files never overwritten.
+ */
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';

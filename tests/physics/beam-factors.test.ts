@@ -59,7 +59,8 @@ describe('TPR and PDD from each other', () => {
     expect(pddAt(b, 10, 10, 100, [])).toBeCloseTo(100, 10);
     expect(pddAt(b, 5, 10, 100, [])).toBeCloseTo((100 * b.pdd!.at(5, 10, [])) / b.pdd!.at(10, 10, []), 10);
   });
-  it('with scatter independent of field size, PDD at another SSD is the Mayneord F factor times the PDD (80 → 100 cm, d 10, dmax 0.5: F = 1.0434, Khan, from memory)', () => {
+  // Khan's example, from memory: 80 → 100 cm, d 10 cm, dmax 0.5 cm gives F = 1.0434.
+  it('with scatter independent of field size, PDD at another SSD is the Mayneord F factor times the PDD', () => {
     const b = photonBeam({ d0Cm: 0.5, tpr: (d) => Math.exp(-0.04 * (d - 0.5)) });
     const f = pddAt(b, 10, 15, 100, []) / pddAt(b, 10, 15, 80, []);
     expect(f).toBeCloseTo(1.0434, 4);

@@ -1,4 +1,7 @@
-/** The depths report: a row per beam (per control point of an arc), the point and entry per beam, the caution last; from depths traced through a box of water built in memory. */
+/**
+ * The depths report: a row per beam (per control point of an arc), the point and entry per beam, the
+ * caution last; from depths traced through a box of water built in memory.
+ */
 import { describe, expect, it } from 'vitest';
 import { staticBeam } from '../../scripts/fixtures/plan-parts.js';
 import { planDepths } from '../../src/check/plan-depths.js';

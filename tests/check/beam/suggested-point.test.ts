@@ -29,7 +29,7 @@ describe('the suggested point', () => {
     const there = checked(beams(check(oneBeamPlan('asym-centre', asymmetric, [30, 0, 0]), demo))[0]!);
     expect(b.suggestedPoint!.independentDoseCGy / there.calculation.independentDoseCGy - 1).toBeCloseTo(0, 9);
   });
-  it('with the centre under a block, the open point farthest from every edge: in a corner between block and jaws (by hand: 12√2 mm on the 2 mm search grid)', () => {
+  it('the centre under a block: the open point farthest from every edge, in a corner (12√2 mm on the 2 mm search grid, by hand)', () => {
     // A 10 × 10 field with a 4 × 4 cm shielding block in its centre. Along the diagonal, a point t mm out is
     // 50 − t from the jaws and √2·(t − 20) from the block's corner: the two equal at t ≈ 32.4 (17.6 mm);
     // the search grid's nearest, (32, 32), is 18 mm from the jaws and 12√2 = 16.97 mm from the corner.

@@ -43,7 +43,7 @@ describe('wedges off the central axis along their gradient', () => {
     expect(factor(toe, 'WF')!.value).toBe(factor(heel, 'WF')!.value);
     expect(toe.calculation!.dosePerMuCGy / heel.calculation!.dosePerMuCGy).toBeGreaterThan(1.3);
   });
-  it('without a swept-wedge profile: 4 cm along the sweep is not checked, with the reason; 0.3 cm is checked and says the factor is the central-axis one', () => {
+  it('without a swept-wedge profile: 4 cm along the sweep not checked, with the reason; 0.3 cm checked on the central-axis factor', () => {
     const far = run('sw60-np-far', sw60, [0, 0, 40], withoutSweptProfile);
     expect(far.status).toBe('not checked');
     expect(far.status === 'not checked' && far.reason).toMatchObject({

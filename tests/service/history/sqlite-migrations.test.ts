@@ -25,12 +25,16 @@ describe('SQLite migrations', () => {
     const file = join(mkdtempSync(join(tmpdir(), 'plumbline-migrations-')), 'history.sqlite');
     await new SqliteHistoryStore(file).close();
     const tables = python(
-      "import sqlite3,sys; c=sqlite3.connect(sys.argv[1]); print(','.join(sorted(r[0] for r in c.execute(\"select name from sqlite_master where type='table'\"))))",
+      `import sqlite3,sys
+c=sqlite3.connect(sys.argv[1])
+print(','.join(sorted(r[0] for r in c.execute("select name from sqlite_master where type='table'"))))`,
       file,
     );
     expect(tables.split(',')).toEqual(expect.arrayContaining(['checks', 'reviews', 'intake_outcomes', 'users', 'schema_migrations']));
     const versions = python(
-      "import sqlite3,sys; c=sqlite3.connect(sys.argv[1]); print(','.join(str(r[0]) for r in c.execute('select version from schema_migrations order by version')))",
+      `import sqlite3,sys
+c=sqlite3.connect(sys.argv[1])
+print(','.join(str(r[0]) for r in c.execute('select version from schema_migrations order by version')))`,
       file,
     );
     expect(versions).toBe(SQLITE_MIGRATIONS.map((m) => m.version).join(','));
@@ -43,7 +47,12 @@ describe('SQLite migrations', () => {
 c=sqlite3.connect(sys.argv[1])
 c.execute("insert into intake_outcomes (id, recorded_at, outcome, file_name, reason) values (1, 't', 'refused', 'f', 'r')")
 c.commit()
-for sql in ["update intake_outcomes set reason = 'x'", "delete from intake_outcomes", "insert or replace into intake_outcomes (id, recorded_at, outcome, file_name, reason) values (1, 't', 'failed', 'f', 'r')"]:
+attempts = [
+  "update intake_outcomes set reason = 'x'",
+  "delete from intake_outcomes",
+  "insert or replace into intake_outcomes (id, recorded_at, outcome, file_name, reason) values (1, 't', 'failed', 'f', 'r')",
+]
+for sql in attempts:
   try:
     c.execute(sql); c.commit(); print('allowed')
   except sqlite3.DatabaseError as e:
