@@ -144,7 +144,7 @@ function entryOf(ctx: PipelineContext, file: string): Entry | { reason: string }
   const settling = ctx.now() - st.mtimeMs < ctx.config.settleSeconds * 1000;
   try {
     const s = readObjectSummary(file);
-    if (!s.ok) return settling ? undefined : { reason: s.issues.map((i) => i.message).join('; ') };
+    if (!s.ok) return settling ? undefined : { reason: reasonOf(s.issues) };
     const bytes = readFileSync(file);
     const sha256 = createHash('sha256').update(bytes).digest('hex');
     const sentSha256 = arrivalOf(name).received ? datasetSha256(bytes) : sha256;

@@ -10,8 +10,8 @@ import { bathoNotes, heterogeneityCorrection, interfaceWithinBuildUpMm } from '.
 import type { CtDepth } from '../../src/geometry/index.js';
 import { photonBeam } from '../helpers/model-beam.js';
 
-const mu = 0.05;
-const beam = photonBeam({ tpr: (d) => Math.exp(-mu * (d - 1.5)) });
+const muPerCm = 0.05;
+const beam = photonBeam({ tpr: (d) => Math.exp(-muPerCm * (d - 1.5)) });
 /** A point 100 mm deep in water, below a lung slab (ρ 0.25) from 30 to 70 mm deep: layers from the surface (depths at the table's nodes). */
 const traced = (pointDensity = 1) =>
   ({
@@ -26,10 +26,10 @@ const traced = (pointDensity = 1) =>
 
 describe('heterogeneityCorrection', () => {
   it('TPR ratio: e^(−μ(7 − 10)) for 10 cm geometric, 7 cm radiological', () => {
-    expect(heterogeneityCorrection('tpr-ratio', beam, traced(), 10).value).toBeCloseTo(Math.exp(mu * 3), 10);
+    expect(heterogeneityCorrection('tpr-ratio', beam, traced(), 10).value).toBeCloseTo(Math.exp(muPerCm * 3), 10);
   });
   it("Batho: the slab's faces 7 and 3 cm from the point, ρ2 = 0.25: (TMR(7)/TMR(3))^(ρ2 − 1) = e^(0.15)", () => {
-    const expected = (Math.exp(-mu * (7 - 1.5)) / Math.exp(-mu * (3 - 1.5))) ** (0.25 - 1);
+    const expected = (Math.exp(-muPerCm * (7 - 1.5)) / Math.exp(-muPerCm * (3 - 1.5))) ** (0.25 - 1);
     expect(heterogeneityCorrection('batho', beam, traced(), 10).value).toBeCloseTo(expected, 10);
     expect(expected).toBeCloseTo(Math.exp(0.15), 10);
   });

@@ -6,23 +6,10 @@
 import { describe, expect, it } from 'vitest';
 import { bodySurface } from '../../src/geometry/body-surface.js';
 import type { CtVolume, Structure } from '../../src/model/index.js';
+import { sampledVolume } from '../helpers/model-ct.js';
 
 /** An axial CT: 11 slices 3 mm apart from z = 0; only its geometry matters here. */
-const volume: CtVolume = {
-  frameOfReferenceUid: '1.2.3',
-  seriesInstanceUid: '1.2.3.4',
-  columns: 2,
-  rows: 2,
-  slices: 11,
-  originMm: [-250, -250, 0],
-  rowDirection: [1, 0, 0],
-  columnDirection: [0, 1, 0],
-  normal: [0, 0, 1],
-  columnSpacingMm: 1,
-  rowSpacingMm: 1,
-  sliceSpacingMm: 3,
-  hu: new Int16Array(44),
-};
+const volume: CtVolume = sampledVolume({ columns: 2, rows: 2, slices: 11, spacingMm: [1, 1, 3], originMm: [-250, -250, 0], hu: () => 0 });
 const square = (half: number, z: number): [number, number, number][] => [
   [-half, -half, z],
   [half, -half, z],

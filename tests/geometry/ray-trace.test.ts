@@ -5,23 +5,10 @@
 import { describe, expect, it } from 'vitest';
 import { traceRay, type Vec3 } from '../../src/geometry/index.js';
 import type { CtVolume } from '../../src/model/index.js';
+import { sampledVolume } from '../helpers/model-ct.js';
 
 /** A 4 × 4 × 1 grid of 10 mm voxels, the first voxel centred at (5, 5, 0): voxel (i, j) spans x ∈ [10i, 10i + 10), y ∈ [10j, 10j + 10). */
-const grid: CtVolume = {
-  columns: 4,
-  rows: 4,
-  slices: 1,
-  originMm: [5, 5, 0],
-  rowDirection: [1, 0, 0],
-  columnDirection: [0, 1, 0],
-  normal: [0, 0, 1],
-  columnSpacingMm: 10,
-  rowSpacingMm: 10,
-  sliceSpacingMm: 10,
-  frameOfReferenceUid: '1.2.3',
-  seriesInstanceUid: '1.2.3.4',
-  hu: new Int16Array(16),
-} as CtVolume;
+const grid: CtVolume = sampledVolume({ columns: 4, rows: 4, slices: 1, spacingMm: [10, 10, 10], originMm: [5, 5, 0], hu: () => 0 });
 
 function pieces(from: Vec3, to: Vec3) {
   const out: { voxel: number; startMm: number; lengthMm: number }[] = [];

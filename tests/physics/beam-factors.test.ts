@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import type { LookupLog, PhotonBeamModel } from '../../src/model/index.js';
 import { pddAt, scAt, spAt, tprAt, tprAtDepth } from '../../src/physics/beam-factors.js';
-import { grid, photonBeam, profile, SIDES_CM } from '../helpers/model-beam.js';
+import { photonBeam, profile, SIDES_CM } from '../helpers/model-beam.js';
 
 /** Smooth, field- and depth-dependent factors, so no relation holds by accident of constant tables. */
 const sc = (s: number) => 0.94 + 0.006 * s - 0.00008 * s * s;
@@ -87,12 +87,16 @@ describe('tprAtDepth', () => {
         for (const s of [2.5, 9, 31]) expect(at(s, [])).toBeCloseTo(tprAt(b, d, s, []), 12);
       }
   });
-  it('writes the lookup notes of a depth outside the table once per call, not per side', () => {
+  it('a depth outside the table refuses every side, each lookup noted, exactly as tprAt does', () => {
     const b = photonBeam({ sc, sp, tpr });
-    const log: LookupLog = [];
-    const at = tprAtDepth(b, 45, log);
-    expect(Number.isNaN(at(10, log))).toBe(true);
-    expect(log.filter((n) => n.axis === 'depth')).toHaveLength(1);
-    expect(grid('g', [0, 1], [0, 1], () => 1).at(0.5, 0.5, [])).toBe(1);
+    const viaDepth: LookupLog = [];
+    const at = tprAtDepth(b, 45, viaDepth);
+    const direct: LookupLog = [];
+    for (const s of [5, 10, 20]) {
+      expect(Number.isNaN(at(s, viaDepth))).toBe(true);
+      expect(Number.isNaN(tprAt(b, 45, s, direct))).toBe(true);
+    }
+    expect(viaDepth).toEqual(direct);
+    expect(viaDepth.every((n) => n.kind === 'out-of-range' && n.axis === 'depth')).toBe(true);
   });
 });

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readPlans } from '../../src/run/read-plans.js';
+import { importOrThrow } from '../helpers/check-run.js';
 import { demoPlan } from '../helpers/fixtures.js';
 import { manifestPath } from '../helpers/machines.js';
 
@@ -18,7 +19,9 @@ describe('readPlans', () => {
     copyFileSync(CT_SLICE, join(dir, 'ct.dcm'));
     writeFileSync(join(dir, 'notes.txt'), 'to be treated on Monday\n');
     const r = readPlans([dir]);
-    expect(r.plans.map((p) => p.imported.plan.label).sort()).toHaveLength(2);
+    expect(r.plans.map((p) => p.imported.plan.sopInstanceUid).sort()).toEqual(
+      ['four-field-box.dcm', 'wedged-pair.dcm'].map((f) => importOrThrow(demoPlan(f)).sopInstanceUid).sort(),
+    );
     expect(r.problems).toEqual([]);
     expect(r.notes.some((n) => n.startsWith(`skipped ${join(dir, 'ct.dcm')}: not an RT Plan`))).toBe(true);
     expect(r.notes).toContain('skipped 1 file(s) in the folder(s) that are not DICOM');
