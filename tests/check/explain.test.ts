@@ -129,6 +129,9 @@ function checkedArc(name: string, arc: BeamSpec, doseGy: number, m = demo): Chec
 }
 
 /** Our dose (cGy) for 100 MU of a 10 × 10 AP beam at 10 cm, SAD setup: from a first run with the planning system agreeing exactly. */
+/** A 256 × 256 × 32 mm CT of 4 mm voxels around the isocenter, HU by position, in the plan's frame (body from −400 HU). */
+const slabCt = (name: string, frameOfReferenceUid: string, hu: (x: number, y: number, z: number) => number) =>
+  phantomCt({ name, columns: 64, rows: 64, slices: 8, spacingMm: [4, 4, 4], originMm: [-126, -126, -14], frameOfReferenceUid, hu }, -400);
 const ours = () => run('ours', { doseGy: [1] }).beams[0]!.calculation.independentDoseCGy;
 
 describe('explaining a deviation', () => {
@@ -161,19 +164,7 @@ describe('explaining a deviation', () => {
   it("the CT's SSD 1 cm shorter than the plan's: the point 1 cm deeper by the plan, TPR(10)/TPR(11) − 1", () => {
     // A water box whose surface lies 110 mm above the isocenter (the CT's SSD 890 mm) under a plan that says 900 mm.
     const { plan } = run('why-ssd-frame', { doseGy: [1] });
-    const ct = phantomCt(
-      {
-        name: 'why-ssd',
-        columns: 64,
-        rows: 64,
-        slices: 8,
-        spacingMm: [4, 4, 4],
-        originMm: [-126, -126, -14],
-        frameOfReferenceUid: plan.frameOfReferenceUid!,
-        hu: (_x, y) => (y >= -110 ? 0 : -1000),
-      },
-      -400,
-    );
+    const ct = slabCt('why-ssd', plan.frameOfReferenceUid!, (_x, y) => (y >= -110 ? 0 : -1000));
     const withCt = run('why-ssd-ours', { doseGy: [1] }, { ct }).beams[0]!.calculation.independentDoseCGy;
     const planted = tpr(11) / tpr(10) - 1;
     const b = run('why-ssd', { doseGy: [(withCt / 100) * (1 / (1 + planted))] }, { ct, explainAll: true }).beams[0]!;
@@ -311,19 +302,7 @@ describe('explaining a deviation', () => {
     // Water from 10 cm above the isocenter, lung (−750 HU) from 6 to 2 cm above it. The planted effect: the TPR-ratio correction
     // CF = TPR(d_eff)/TPR(d) (AAPM TG-71's heterogeneity correction by effective depth), d and d_eff as traced through the CT.
     const { plan } = run('why-lung-frame', { doseGy: [1] });
-    const ct = phantomCt(
-      {
-        name: 'why-lung',
-        columns: 64,
-        rows: 64,
-        slices: 8,
-        spacingMm: [4, 4, 4],
-        originMm: [-126, -126, -14],
-        frameOfReferenceUid: plan.frameOfReferenceUid!,
-        hu: (_x, y) => (y < -100 ? -1000 : y >= -60 && y < -20 ? -750 : 0),
-      },
-      -400,
-    );
+    const ct = slabCt('why-lung', plan.frameOfReferenceUid!, (_x, y) => (y < -100 ? -1000 : y >= -60 && y < -20 ? -750 : 0));
     const water = (p: Plan): DoseGrid =>
       cubeGrid(p, new Float32Array(8).fill(1), { summationType: 'PLAN', tissueHeterogeneityCorrection: ['WATER'] });
     const mine = run('why-lung-ours', { doseGy: [1] }, { ct, grids: (p) => [water(p)] }).beams[0]!;
