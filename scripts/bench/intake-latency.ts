@@ -18,6 +18,7 @@ import type { HistoryConfig } from '../../src/service/config.js';
 import { writeCtPhantom } from '../fixtures/ct-phantom.js';
 import { coordinatesDoseReference, planDataset, staticBeam } from '../fixtures/plan-parts.js';
 import { writeRtDose } from '../fixtures/rt-dose.js';
+import { writeSingleFieldPlan } from '../fixtures/single-field-plan.js';
 import { fixtureUid, RT_PLAN_STORAGE, writeDataset } from '../lib/dcmjs-writer.js';
 import { startThrowawayPostgres } from '../lib/throwaway-postgres.js';
 
@@ -28,23 +29,8 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /** A small plan of its own frame, sent first: the service has been running (its code compiled) when the measured plan comes. */
 function warmUp(dir: string): string {
-  const iso: [number, number, number] = [0, 0, 0];
   const file = join(dir, 'warm-up.dcm');
-  writeDataset(
-    file,
-    planDataset({
-      file: 'warm-up.dcm',
-      patientId: 'BENCH-WARM',
-      patientName: 'Bench^Warm Up',
-      label: 'WARM UP',
-      name: 'warm up',
-      description: 'bench',
-      doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-      fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-      beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-    }),
-    RT_PLAN_STORAGE,
-  );
+  writeSingleFieldPlan(file, { id: 'BENCH-WARM', label: 'WARM UP', patientName: 'Bench^Warm Up' });
   return file;
 }
 

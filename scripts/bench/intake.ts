@@ -11,8 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { freePort, writeServiceConfig } from '../lib/service-files.js';
-import { coordinatesDoseReference, planDataset, staticBeam } from '../fixtures/plan-parts.js';
-import { RT_PLAN_STORAGE, writeDataset } from '../lib/dcmjs-writer.js';
+import { writeSingleFieldPlan } from '../fixtures/single-field-plan.js';
 import { SqliteHistoryStore } from '../../src/service/history/sqlite-store.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -46,24 +45,9 @@ async function waitListening(port: number) {
 try {
   const dir = join(root, 'plans');
   mkdirSync(dir);
-  const iso: [number, number, number] = [0, 0, 0];
   const files = Array.from({ length: N }, (_, i) => {
     const file = join(dir, `p${i}.dcm`);
-    writeDataset(
-      file,
-      planDataset({
-        file: `p${i}.dcm`,
-        patientId: `P-${i}`,
-        patientName: 'Bench^Intake',
-        label: `BENCH ${i}`,
-        name: 'bench',
-        description: 'bench',
-        doseReferences: [coordinatesDoseReference(1, 'isocenter', iso, 2)],
-        fractionGroups: [{ number: 1, fractions: 1, prescriptionGy: 2, beams: [{ number: 1, mu: 200, doseGy: 2, specPoint: iso }] }],
-        beams: [staticBeam(1, 'AP', 6, 0, 900, iso)],
-      }),
-      RT_PLAN_STORAGE,
-    );
+    writeSingleFieldPlan(file, { id: `P-${i}`, label: `BENCH ${i}`, patientName: 'Bench^Intake' });
     return file;
   });
   const results: { storescp: number; plumbline: number; endToEnd: number }[] = [];
